@@ -1,0 +1,247 @@
+//! Charts, written once against plotters' generic [`DrawingBackend`]: the page draws them on
+//! its canvas (plotters-canvas), the CLI and the tests to SVG.
+
+use plotters::coord::Shift;
+use plotters::prelude::*;
+
+use crate::materials::Family;
+use crate::scenario::Computed;
+use crate::units::{quantity, UnitSystem};
+
+/// Errors from drawing (the backend's message).
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+#[error("chart: {0}")]
+pub struct ChartError(pub String);
+
+fn err<E: std::fmt::Debug>(e: E) -> ChartError {
+    ChartError(format!("{e:?}"))
+}
+
+/// Fill colour of a layer band, by material family.
+fn layer_fill(f: Family) -> RGBColor {
+    match f {
+        Family::Snow => RGBColor(226, 238, 250),
+        Family::Ice => RGBColor(205, 232, 240),
+        Family::Water => RGBColor(190, 214, 238),
+        Family::Air => RGBColor(246, 246, 246),
+        Family::Soil => RGBColor(238, 226, 204),
+        Family::Insulation => RGBColor(250, 228, 234),
+        Family::Concrete => RGBColor(225, 225, 225),
+        Family::Custom => RGBColor(232, 240, 220),
+    }
+}
+
+const INK: RGBColor = RGBColor(30, 36, 44);
+const PROFILE: RGBColor = RGBColor(20, 70, 140);
+const BAND: RGBColor = RGBColor(120, 150, 200);
+const ZERO: RGBColor = RGBColor(190, 40, 40);
+
+/// Draw temperature against depth: layers shaded, the profile, the band across snow
+/// regressions, the 0 °C line and each 0 °C plane. `scale` multiplies font sizes and line
+/// widths (the page passes its device pixel ratio).
+pub fn draw_profile<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    c: &Computed,
+    sys: UnitSystem,
+    scale: f64,
+) -> Result<(), ChartError> {
+    let scale = if scale.is_finite() {
+        scale.clamp(0.5, 4.0)
+    } else {
+        1.0
+    };
+    let px = |v: f64| (v * scale).round() as u32;
+    let tq = quantity("temperature").ok_or_else(|| ChartError("no temperature unit".into()))?;
+    let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
+    let t = |si: f64| tq.show(sys, si);
+    let z = |si: f64| zq.show(sys, si);
+    let r = &c.result;
+
+    root.fill(&WHITE).map_err(err)?;
+    let depth_max = z(r.total_depth_m());
+    // Temperature range: profile, band, faces and 0 °C, with a margin.
+    let mut lo = f64::INFINITY;
+    let mut hi = f64::NEG_INFINITY;
+    let mut take = |v: f64| {
+        lo = lo.min(v);
+        hi = hi.max(v);
+    };
+    take(t(0.0));
+    for &(_, tc) in &r.profile_at(&c.depths_m) {
+        take(t(tc));
+    }
+    for face in [&r.top, &r.bottom] {
+        take(t(face.surface_c));
+    }
+    if let Some(b) = &c.band {
+        b.min_c.iter().chain(&b.max_c).for_each(|&v| take(t(v)));
+    }
+    let span = (hi - lo).max(1.0);
+    let (x0, x1) = (lo - 0.06 * span, hi + 0.06 * span);
+
+    let font = |size: f64| ("sans-serif", size * scale).into_font().color(&INK);
+    let title = "Temperature through the stack";
+    let mut chart = ChartBuilder::on(root)
+        .margin(px(12.0))
+        .caption(title, font(17.0))
+        .x_label_area_size(px(44.0))
+        .y_label_area_size(px(64.0))
+        .build_cartesian_2d(x0..x1, -depth_max..0.0)
+        .map_err(err)?;
+
+    // Layers, shaded, with their names.
+    for (i, (l, m)) in r.layers.iter().zip(&r.stack.materials).enumerate() {
+        let (zt, zb) = (z(l.top_depth_m), z(l.bottom_depth_m));
+        chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(x0, -zt), (x1, -zb)],
+                layer_fill(m.family).filled(),
+            )))
+            .map_err(err)?;
+        let h_frac = (zb - zt) / depth_max.max(1e-12);
+        if h_frac > 0.045 {
+            let name = &r.stack.layers[i].name;
+            let label = if name.trim().is_empty() {
+                m.label.clone()
+            } else {
+                name.clone()
+            };
+            let label: String = label.chars().take(40).collect();
+            chart
+                .draw_series(std::iter::once(Text::new(
+                    label,
+                    (x0 + 0.015 * (x1 - x0), -zt - 0.012 * depth_max),
+                    font(12.0).color(&RGBColor(90, 96, 104)),
+                )))
+                .map_err(err)?;
+        }
+    }
+
+    chart
+        .configure_mesh()
+        .disable_mesh()
+        .x_desc(format!("Temperature ({})", tq.unit(sys).symbol))
+        .y_desc(format!("Depth from the top face ({})", zq.unit(sys).symbol))
+        .y_label_formatter(&|v| format!("{:.2}", v.abs()))
+        .x_label_formatter(&|v| format!("{v:.0}"))
+        .label_style(font(12.0))
+        .axis_desc_style(font(13.0))
+        .draw()
+        .map_err(err)?;
+
+    // Band across snow regressions.
+    if let Some(b) = &c.band {
+        let mut poly: Vec<(f64, f64)> = b
+            .depths_m
+            .iter()
+            .zip(&b.min_c)
+            .map(|(&d, &v)| (t(v), -z(d)))
+            .collect();
+        poly.extend(
+            b.depths_m
+                .iter()
+                .zip(&b.max_c)
+                .rev()
+                .map(|(&d, &v)| (t(v), -z(d))),
+        );
+        chart
+            .draw_series(std::iter::once(Polygon::new(poly, BAND.mix(0.35).filled())))
+            .map_err(err)?
+            .label("Range across the snow conductivity regressions")
+            .legend(move |(x, y)| {
+                Rectangle::new(
+                    [
+                        (x, y - px(5.0) as i32),
+                        (x + px(18.0) as i32, y + px(5.0) as i32),
+                    ],
+                    BAND.mix(0.35).filled(),
+                )
+            });
+    }
+
+    // 0 °C line.
+    let t0 = t(0.0);
+    chart
+        .draw_series(DashedLineSeries::new(
+            vec![(t0, 0.0), (t0, -depth_max)],
+            px(6.0),
+            px(4.0),
+            ZERO.stroke_width(px(1.5)),
+        ))
+        .map_err(err)?;
+
+    // Profile.
+    let pts: Vec<(f64, f64)> = r
+        .profile_at(&c.depths_m)
+        .into_iter()
+        .map(|(d, tc)| (t(tc), -z(d)))
+        .collect();
+    chart
+        .draw_series(LineSeries::new(pts, PROFILE.stroke_width(px(2.5))))
+        .map_err(err)?
+        .label("Temperature (chosen regression)")
+        .legend(move |(x, y)| {
+            PathElement::new(
+                vec![(x, y), (x + px(18.0) as i32, y)],
+                PROFILE.stroke_width(px(2.5)),
+            )
+        });
+
+    // 0 °C planes.
+    for p in &r.zero_planes {
+        let d = -z(p.depth_m);
+        chart
+            .draw_series(DashedLineSeries::new(
+                vec![(x0, d), (x1, d)],
+                px(4.0),
+                px(4.0),
+                ZERO.stroke_width(px(1.0)),
+            ))
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Circle::new(
+                (t0, d),
+                px(4.0),
+                ZERO.filled(),
+            )))
+            .map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Text::new(
+                format!(
+                    "0 {} at {:.2} {}",
+                    tq.unit(sys).symbol,
+                    -d,
+                    zq.unit(sys).symbol
+                ),
+                (t0 + 0.015 * (x1 - x0), d - 0.01 * depth_max),
+                font(12.0).color(&ZERO),
+            )))
+            .map_err(err)?;
+    }
+
+    chart
+        .configure_series_labels()
+        .position(SeriesLabelPosition::LowerRight)
+        .background_style(WHITE.mix(0.85))
+        .border_style(RGBColor(200, 200, 200))
+        .label_font(font(12.0))
+        .draw()
+        .map_err(err)?;
+    root.present().map_err(err)?;
+    Ok(())
+}
+
+/// The profile chart as an SVG document.
+pub fn profile_svg(
+    c: &Computed,
+    sys: UnitSystem,
+    width: u32,
+    height: u32,
+) -> Result<String, ChartError> {
+    let mut out = String::new();
+    {
+        let root = SVGBackend::with_string(&mut out, (width, height)).into_drawing_area();
+        draw_profile(&root, c, sys, 1.0)?;
+    }
+    Ok(out)
+}

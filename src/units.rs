@@ -1,0 +1,166 @@
+//! Units at the edges. Everything inside is SI; a [`Quantity`] says how to show a value in
+//! either unit system: shown = SI × factor + offset.
+//!
+//! Conversion factors: NIST Special Publication 811 (2008 edition), Appendix B, using the
+//! International Table Btu (1 Btu_IT = 1055.056 J), 1 ft = 0.3048 m, 1 lb = 0.45359237 kg.
+
+/// Which system values are shown in.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum UnitSystem {
+    Si,
+    Us,
+}
+
+impl UnitSystem {
+    pub fn from_id(id: &str) -> Option<Self> {
+        match id {
+            "si" => Some(UnitSystem::Si),
+            "us" => Some(UnitSystem::Us),
+            _ => None,
+        }
+    }
+}
+
+/// How one quantity is shown in one system.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct UnitDef {
+    pub symbol: &'static str,
+    pub factor: f64,
+    pub offset: f64,
+    /// Decimals to show by default.
+    pub decimals: u8,
+}
+
+/// A physical quantity and its two presentations.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Quantity {
+    pub id: &'static str,
+    pub si: UnitDef,
+    pub us: UnitDef,
+}
+
+impl Quantity {
+    pub fn unit(&self, sys: UnitSystem) -> &UnitDef {
+        match sys {
+            UnitSystem::Si => &self.si,
+            UnitSystem::Us => &self.us,
+        }
+    }
+    /// SI value → shown value.
+    pub fn show(&self, sys: UnitSystem, si: f64) -> f64 {
+        let u = self.unit(sys);
+        si * u.factor + u.offset
+    }
+    /// Shown value → SI value.
+    pub fn to_si(&self, sys: UnitSystem, shown: f64) -> f64 {
+        let u = self.unit(sys);
+        (shown - u.offset) / u.factor
+    }
+}
+
+const fn u(symbol: &'static str, factor: f64, offset: f64, decimals: u8) -> UnitDef {
+    UnitDef {
+        symbol,
+        factor,
+        offset,
+        decimals,
+    }
+}
+
+/// m → ft.
+pub const FT_PER_M: f64 = 1.0 / 0.3048;
+/// m → in.
+pub const IN_PER_M: f64 = 1.0 / 0.0254;
+/// kg/m³ → lb/ft³ (1 lb/ft³ = 16.018 46 kg/m³).
+pub const LB_FT3_PER_KG_M3: f64 = 1.0 / 16.018_463;
+/// W/m²K → Btu/(h·ft²·°F) (1 Btu/(h·ft²·°F) = 5.678 263 W/m²K).
+pub const BTU_H_FT2_F_PER_W_M2K: f64 = 1.0 / 5.678_263;
+/// m²K/W → h·ft²·°F/Btu (the US R-value): × 5.678 263.
+pub const R_US_PER_R_SI: f64 = 5.678_263;
+/// W/m/K → Btu·in/(h·ft²·°F) (1 Btu·in/(h·ft²·°F) = 0.144 227 9 W/m/K).
+pub const BTU_IN_PER_W_M_K: f64 = 1.0 / 0.144_227_9;
+/// W/m² → Btu/(h·ft²) (1 Btu/(h·ft²) = 3.154 591 W/m²).
+pub const BTU_H_FT2_PER_W_M2: f64 = 1.0 / 3.154_591;
+/// J/m³K → Btu/(ft³·°F) (1 Btu/(ft³·°F) = 67 066.1 J/m³K).
+pub const BTU_FT3_F_PER_J_M3K: f64 = 1.0 / 67_066.1;
+/// J/m³ → Btu/ft³ (1 Btu/ft³ = 37 258.9 J/m³).
+pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
+
+/// Every quantity the page and CLI show.
+pub const QUANTITIES: [Quantity; 14] = [
+    Quantity {
+        id: "temperature",
+        si: u("°C", 1.0, 0.0, 1),
+        us: u("°F", 1.8, 32.0, 1),
+    },
+    Quantity {
+        id: "temperature_difference",
+        si: u("K", 1.0, 0.0, 1),
+        us: u("°F", 1.8, 0.0, 1),
+    },
+    Quantity {
+        id: "thickness",
+        si: u("cm", 100.0, 0.0, 1),
+        us: u("in", IN_PER_M, 0.0, 2),
+    },
+    Quantity {
+        id: "depth",
+        si: u("m", 1.0, 0.0, 3),
+        us: u("ft", FT_PER_M, 0.0, 2),
+    },
+    Quantity {
+        id: "density",
+        si: u("kg/m³", 1.0, 0.0, 0),
+        us: u("lb/ft³", LB_FT3_PER_KG_M3, 0.0, 1),
+    },
+    Quantity {
+        id: "water_content",
+        si: u("%", 1.0, 0.0, 1),
+        us: u("%", 1.0, 0.0, 1),
+    },
+    Quantity {
+        id: "fraction",
+        si: u("", 1.0, 0.0, 2),
+        us: u("", 1.0, 0.0, 2),
+    },
+    Quantity {
+        id: "conductivity",
+        si: u("W/(m·K)", 1.0, 0.0, 3),
+        us: u("Btu·in/(h·ft²·°F)", BTU_IN_PER_W_M_K, 0.0, 3),
+    },
+    Quantity {
+        id: "film",
+        si: u("W/(m²·K)", 1.0, 0.0, 1),
+        us: u("Btu/(h·ft²·°F)", BTU_H_FT2_F_PER_W_M2K, 0.0, 2),
+    },
+    Quantity {
+        id: "r_value",
+        si: u("m²·K/W", 1.0, 0.0, 2),
+        us: u("ft²·°F·h/Btu", R_US_PER_R_SI, 0.0, 1),
+    },
+    Quantity {
+        id: "u_value",
+        si: u("W/(m²·K)", 1.0, 0.0, 3),
+        us: u("Btu/(h·ft²·°F)", BTU_H_FT2_F_PER_W_M2K, 0.0, 4),
+    },
+    Quantity {
+        id: "heat_flux",
+        si: u("W/m²", 1.0, 0.0, 2),
+        us: u("Btu/(h·ft²)", BTU_H_FT2_PER_W_M2, 0.0, 3),
+    },
+    Quantity {
+        id: "heat_capacity_vol",
+        si: u("MJ/(m³·K)", 1e-6, 0.0, 3),
+        us: u("Btu/(ft³·°F)", BTU_FT3_F_PER_J_M3K, 0.0, 2),
+    },
+    Quantity {
+        id: "latent_vol",
+        si: u("MJ/m³", 1e-6, 0.0, 1),
+        us: u("Btu/ft³", BTU_FT3_PER_J_M3, 0.0, 0),
+    },
+];
+
+/// Look a quantity up by id.
+pub fn quantity(id: &str) -> Option<&'static Quantity> {
+    QUANTITIES.iter().find(|q| q.id == id)
+}

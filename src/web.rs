@@ -1,0 +1,321 @@
+//! The wasm face: a thin layer between the page's JavaScript and the core. Compiled for
+//! wasm32 only. Every export takes plain JS values, returns plain JS objects and never panics
+//! on user input; a panic hook shows any bug on the page.
+
+use serde::Serialize;
+use wasm_bindgen::prelude::*;
+
+use crate::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use crate::scenario::{self, ErrorDoc};
+use crate::stack::SURFACE_PRESETS;
+use crate::units::{UnitSystem, QUANTITIES};
+
+fn to_js<T: Serialize>(v: &T) -> JsValue {
+    let ser = serde_wasm_bindgen::Serializer::json_compatible();
+    v.serialize(&ser).unwrap_or(JsValue::NULL)
+}
+
+/// Show a panic on the page (element `#panic`) and in the console.
+fn panic_hook(info: &std::panic::PanicHookInfo<'_>) {
+    let msg = format!("Internal error (please report it): {info}");
+    web_sys::console::error_1(&JsValue::from_str(&msg));
+    if let Some(el) = web_sys::window()
+        .and_then(|w| w.document())
+        .and_then(|d| d.get_element_by_id("panic"))
+    {
+        el.set_text_content(Some(&msg));
+        let _ = el.remove_attribute("hidden");
+    }
+}
+
+#[wasm_bindgen(start)]
+pub fn start() {
+    std::panic::set_hook(Box::new(panic_hook));
+}
+
+#[derive(Serialize)]
+struct CorrelationDoc {
+    id: &'static str,
+    name: &'static str,
+    citation: &'static str,
+    range_kg_m3: [f64; 2],
+}
+
+#[derive(Serialize)]
+struct IdName {
+    id: &'static str,
+    name: &'static str,
+}
+
+#[derive(Serialize)]
+struct SoilModelInfo {
+    id: &'static str,
+    name: &'static str,
+    citation: &'static str,
+    textures: Vec<&'static str>,
+}
+
+#[derive(Serialize)]
+struct BoardInfo {
+    id: &'static str,
+    name: &'static str,
+    conductivity_w_m_k: f64,
+    source: &'static str,
+}
+
+#[derive(Serialize)]
+struct PresetInfo {
+    id: &'static str,
+    name: &'static str,
+    film_w_m2k: Option<f64>,
+    source: &'static str,
+}
+
+#[derive(Serialize)]
+struct UnitInfo {
+    symbol: &'static str,
+    factor: f64,
+    offset: f64,
+    decimals: u8,
+}
+
+#[derive(Serialize)]
+struct QuantityInfo {
+    si: UnitInfo,
+    us: UnitInfo,
+}
+
+#[derive(Serialize)]
+struct Catalogue {
+    version: &'static str,
+    format_version: u32,
+    snow_correlations: Vec<CorrelationDoc>,
+    soil_textures: Vec<IdName>,
+    soil_models: Vec<SoilModelInfo>,
+    boards: Vec<BoardInfo>,
+    surface_presets: Vec<PresetInfo>,
+    material_kinds: Vec<IdName>,
+    units: std::collections::BTreeMap<&'static str, QuantityInfo>,
+}
+
+/// Everything the page offers to choose from, with sources, and the unit table.
+#[wasm_bindgen]
+pub fn catalogue() -> JsValue {
+    let unit = |u: &crate::units::UnitDef| UnitInfo {
+        symbol: u.symbol,
+        factor: u.factor,
+        offset: u.offset,
+        decimals: u.decimals,
+    };
+    let c = Catalogue {
+        version: env!("CARGO_PKG_VERSION"),
+        format_version: scenario::FORMAT_VERSION,
+        snow_correlations: SnowCorrelation::ALL
+            .iter()
+            .map(|c| {
+                let (lo, hi) = c.valid_range_kg_m3();
+                CorrelationDoc {
+                    id: c.id(),
+                    name: c.name(),
+                    citation: c.citation(),
+                    range_kg_m3: [lo, hi],
+                }
+            })
+            .collect(),
+        soil_textures: Texture::ALL
+            .iter()
+            .map(|t| IdName {
+                id: t.id(),
+                name: t.name(),
+            })
+            .collect(),
+        soil_models: SoilModel::ALL
+            .iter()
+            .map(|m| SoilModelInfo {
+                id: m.id(),
+                name: m.name(),
+                citation: m.citation(),
+                textures: Texture::ALL
+                    .iter()
+                    .filter(|t| m.covers(**t))
+                    .map(|t| t.id())
+                    .collect(),
+            })
+            .collect(),
+        boards: Board::ALL
+            .iter()
+            .map(|b| BoardInfo {
+                id: b.id(),
+                name: b.name(),
+                conductivity_w_m_k: b.nominal_conductivity_w_per_m_k(),
+                source: "typical value for the product class (common practice, no single source)",
+            })
+            .collect(),
+        surface_presets: SURFACE_PRESETS
+            .iter()
+            .map(|p| PresetInfo {
+                id: p.id,
+                name: p.name,
+                film_w_m2k: p.film_w_per_m2_k,
+                source: p.source,
+            })
+            .collect(),
+        material_kinds: [
+            ("snow", "Snow"),
+            ("ice", "Ice"),
+            ("water", "Water (freezes to ice)"),
+            ("air", "Still air gap"),
+            ("soil", "Soil, gravel or peat"),
+            ("insulation", "Insulation board"),
+            ("concrete", "Concrete"),
+            ("custom", "Custom material"),
+        ]
+        .into_iter()
+        .map(|(id, name)| IdName { id, name })
+        .collect(),
+        units: QUANTITIES
+            .iter()
+            .map(|q| {
+                (
+                    q.id,
+                    QuantityInfo {
+                        si: unit(&q.si),
+                        us: unit(&q.us),
+                    },
+                )
+            })
+            .collect(),
+    };
+    to_js(&c)
+}
+
+#[derive(Serialize)]
+struct ExampleInfo {
+    id: &'static str,
+    title: String,
+    summary: &'static str,
+}
+
+/// The bundled examples: `[{id, title, summary}]`.
+#[wasm_bindgen]
+pub fn examples() -> JsValue {
+    let list: Vec<ExampleInfo> = scenario::EXAMPLES
+        .iter()
+        .map(|e| ExampleInfo {
+            id: e.id,
+            title: scenario::parse(e.json)
+                .map(|s| s.title)
+                .unwrap_or_else(|_| e.id.to_string()),
+            summary: e.summary,
+        })
+        .collect();
+    to_js(&list)
+}
+
+/// One example as a scenario object, or null if there is none by that id.
+#[wasm_bindgen]
+pub fn example(id: &str) -> JsValue {
+    match scenario::example(id).map(|e| scenario::parse(e.json)) {
+        Some(Ok(s)) => to_js(&s),
+        _ => JsValue::NULL,
+    }
+}
+
+/// JSON Schema of the scenario format.
+#[wasm_bindgen]
+pub fn scenario_schema() -> JsValue {
+    to_js(&scenario::schema())
+}
+
+#[derive(Serialize)]
+struct Outcome<'a> {
+    ok: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    report: Option<&'a scenario::Report>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    errors: Option<Vec<ErrorDoc>>,
+}
+
+fn read_scenario(v: JsValue) -> Result<scenario::Scenario, Vec<ErrorDoc>> {
+    let value: serde_json::Value = serde_wasm_bindgen::from_value(v).map_err(|e| {
+        vec![ErrorDoc {
+            field: String::new(),
+            message: format!("the scenario is not a JSON object: {e}"),
+        }]
+    })?;
+    scenario::from_value(value).map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
+}
+
+fn computed(v: JsValue) -> Result<(scenario::Scenario, scenario::Computed), Vec<ErrorDoc>> {
+    let s = read_scenario(v)?;
+    let c =
+        scenario::compute(&s).map_err(|e| e.0.iter().map(ErrorDoc::from).collect::<Vec<_>>())?;
+    Ok((s, c))
+}
+
+/// Compute a scenario: `{ok: true, report}` or `{ok: false, errors: [{field, message}]}`.
+#[wasm_bindgen]
+pub fn compute(scenario_value: JsValue) -> JsValue {
+    match computed(scenario_value) {
+        Ok((s, c)) => {
+            let r = scenario::report(&s, &c);
+            to_js(&Outcome {
+                ok: true,
+                report: Some(&r),
+                errors: None,
+            })
+        }
+        Err(errors) => to_js(&Outcome {
+            ok: false,
+            report: None,
+            errors: Some(errors),
+        }),
+    }
+}
+
+#[derive(Serialize)]
+struct DrawOutcome {
+    ok: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    message: Option<String>,
+}
+
+/// Draw the temperature profile on a canvas at its current pixel size.
+#[wasm_bindgen]
+pub fn draw_profile(
+    canvas: web_sys::HtmlCanvasElement,
+    scenario_value: JsValue,
+    unit_system: &str,
+    pixel_ratio: f64,
+) -> JsValue {
+    let fail = |m: String| {
+        to_js(&DrawOutcome {
+            ok: false,
+            message: Some(m),
+        })
+    };
+    let sys = UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si);
+    let (_, c) = match computed(scenario_value) {
+        Ok(v) => v,
+        Err(e) => {
+            return fail(
+                e.iter()
+                    .map(|e| format!("{}: {}", e.field, e.message))
+                    .collect::<Vec<_>>()
+                    .join("; "),
+            )
+        }
+    };
+    let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+        return fail("the canvas has no 2D context".into());
+    };
+    use plotters::prelude::IntoDrawingArea;
+    let root = backend.into_drawing_area();
+    match crate::chart::draw_profile(&root, &c, sys, pixel_ratio) {
+        Ok(()) => to_js(&DrawOutcome {
+            ok: true,
+            message: None,
+        }),
+        Err(e) => fail(e.to_string()),
+    }
+}

@@ -1,0 +1,34 @@
+//! Shared test helpers.
+#![allow(dead_code)]
+
+use serde_json::Value;
+
+/// Reference values made by tools/reference.py (IAPWS, CoolProp and independent
+/// implementations of the published formulas).
+pub fn reference() -> Value {
+    serde_json::from_str(include_str!("../data/reference.json")).expect("reference.json")
+}
+
+pub fn f(v: &Value, key: &str) -> f64 {
+    v[key]
+        .as_f64()
+        .unwrap_or_else(|| panic!("{key} missing in {v}"))
+}
+
+/// |a − b| ≤ rel·|b|, with a message.
+#[track_caller]
+pub fn assert_rel(a: f64, b: f64, rel: f64, what: &str) {
+    assert!(
+        (a - b).abs() <= rel * b.abs(),
+        "{what}: got {a}, expected {b} (relative tolerance {rel}, off by {:.3e})",
+        ((a - b) / b).abs()
+    );
+}
+
+#[track_caller]
+pub fn assert_abs(a: f64, b: f64, tol: f64, what: &str) {
+    assert!(
+        (a - b).abs() <= tol,
+        "{what}: got {a}, expected {b} (tolerance {tol})"
+    );
+}

@@ -1,0 +1,213 @@
+//! The scenario format, the bundled examples and the CLI.
+
+mod common;
+use common::*;
+
+use hibernal::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use hibernal::scenario::{self, BoardDoc, SnowCorrelationDoc, SoilModelDoc, TextureDoc};
+use std::process::Command;
+
+#[test]
+fn every_example_parses_computes_and_round_trips() {
+    for e in &scenario::EXAMPLES {
+        let s = scenario::parse(e.json).unwrap_or_else(|err| panic!("{}: {err}", e.id));
+        assert!(
+            !s.title.is_empty() && !s.notes.is_empty(),
+            "{} documents itself",
+            e.id
+        );
+        let c = scenario::compute(&s).unwrap_or_else(|err| panic!("{}: {err}", e.id));
+        let text = serde_json::to_string(&s).unwrap();
+        assert_eq!(scenario::parse(&text).unwrap(), s, "{} round-trips", e.id);
+        let r = scenario::report(&s, &c);
+        assert!(r.r_total_m2k_w > 0.0 && r.u_w_m2k > 0.0);
+        assert_eq!(r.layers.len(), s.layers.len());
+        assert!(r.warnings.is_empty(), "{}: {:?}", e.id, r.warnings);
+    }
+    assert_eq!(scenario::EXAMPLES[0].id, "snow-over-foam-on-silt");
+}
+
+#[test]
+fn the_snow_wall_example_equals_the_series_formula() {
+    // Plane wall with films (Incropera & DeWitt §3.1): R = 1/h_o + d/k + 1/h_i, k by
+    // Sturm et al. 1997 quadratic at 350 kg/m³.
+    let s = scenario::parse(scenario::example("snow-block-wall").unwrap().json).unwrap();
+    let r = scenario::report(&s, &scenario::compute(&s).unwrap());
+    let k = 0.138 - 1.01 * 0.35 + 3.233 * 0.35 * 0.35;
+    assert_rel(
+        r.r_total_m2k_w,
+        1.0 / 20.0 + 0.40 / k + 1.0 / 7.0,
+        1e-12,
+        "wall R",
+    );
+    let band = r.band.unwrap();
+    assert_eq!(band.by_correlation.len(), 9);
+    assert!(band.r_min_m2k_w < r.r_total_m2k_w && r.r_total_m2k_w <= band.r_max_m2k_w + 1e-12);
+}
+
+#[test]
+fn document_ids_match_the_core_ids() {
+    let id = |v: serde_json::Value| v.as_str().unwrap().to_string();
+    for c in SnowCorrelation::ALL {
+        assert_eq!(
+            id(serde_json::to_value(SnowCorrelationDoc::from(c)).unwrap()),
+            c.id()
+        );
+    }
+    for t in Texture::ALL {
+        assert_eq!(
+            id(serde_json::to_value(TextureDoc::from(t)).unwrap()),
+            t.id()
+        );
+    }
+    for m in SoilModel::ALL {
+        assert_eq!(
+            id(serde_json::to_value(SoilModelDoc::from(m)).unwrap()),
+            m.id()
+        );
+    }
+    for b in Board::ALL {
+        assert_eq!(id(serde_json::to_value(BoardDoc::from(b)).unwrap()), b.id());
+    }
+}
+
+fn example_value() -> serde_json::Value {
+    serde_json::from_str(scenario::EXAMPLES[0].json).unwrap()
+}
+
+fn first_error(v: serde_json::Value) -> (String, String) {
+    let e = scenario::from_value(v)
+        .and_then(|s| scenario::compute(&s).map(|_| s))
+        .unwrap_err();
+    (e.0[0].field.clone(), e.0[0].kind.to_string())
+}
+
+#[test]
+fn malformed_documents_are_refused_naming_the_field() {
+    let mut v = example_value();
+    v["layers"][1]["thickness_m"] = serde_json::json!("abc");
+    let (field, msg) = first_error(v);
+    assert_eq!(field, "layers[1].thickness_m");
+    assert!(msg.contains("invalid type"), "{msg}");
+
+    let mut v = example_value();
+    v["layers"][0]["material"]["correlation"] = serde_json::json!("nobody-2020");
+    // Inside a tagged material the path stops at the material; the message names the value.
+    let (field, msg) = first_error(v);
+    assert_eq!(field, "layers[0].material");
+    assert!(
+        msg.contains("nobody-2020") && msg.contains("sturm-1997-quadratic"),
+        "{msg}"
+    );
+
+    let mut v = example_value();
+    v["layers"][0]["material"]["colour"] = serde_json::json!("red");
+    let (field, msg) = first_error(v);
+    assert_eq!(field, "layers[0].material");
+    assert!(msg.contains("colour"), "{msg}");
+
+    let mut v = example_value();
+    v["version"] = serde_json::json!(7);
+    let (field, msg) = first_error(v);
+    assert_eq!(field, "version");
+    assert!(msg.contains("version 7"), "{msg}");
+
+    let mut v = example_value();
+    v["layers"][2]["material"]["water_content_pct"] = serde_json::json!(80.0);
+    assert_eq!(first_error(v).0, "layers[2].material.water_content_pct");
+
+    assert!(scenario::parse("{").is_err());
+    assert!(scenario::parse("[1,2,3]").is_err());
+    assert!(
+        scenario::parse(&"[".repeat(100_000)).is_err(),
+        "deep nesting is refused"
+    );
+    let big = format!(
+        "{{\"title\": \"{}\"}}",
+        "x".repeat(scenario::MAX_DOCUMENT_BYTES)
+    );
+    assert!(scenario::parse(&big)
+        .unwrap_err()
+        .to_string()
+        .contains("at most"));
+}
+
+#[test]
+fn the_schema_describes_the_format() {
+    let s = scenario::schema();
+    let text = s.to_string();
+    for key in [
+        "layers",
+        "thickness_m",
+        "sturm-1997-quadratic",
+        "kersten-1949",
+        "film_w_m2k",
+    ] {
+        assert!(text.contains(key), "schema mentions {key}");
+    }
+}
+
+fn cli() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_hibernal"))
+}
+
+#[test]
+fn cli_runs_an_example_and_writes_the_chart() {
+    let dir = std::env::temp_dir().join(format!("hibernal-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("wall.json");
+    let out = cli().args(["example", "snow-block-wall"]).output().unwrap();
+    assert!(out.status.success());
+    std::fs::write(&file, &out.stdout).unwrap();
+    let svg = dir.join("wall.svg");
+    let out = cli()
+        .args([
+            "run",
+            file.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+        ])
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert!(report["r_total_m2k_w"].as_f64().unwrap() > 2.0);
+    let svg = std::fs::read_to_string(svg).unwrap();
+    assert!(
+        svg.starts_with("<svg") && svg.contains("Temperature"),
+        "an SVG chart"
+    );
+
+    let list = cli().arg("example").output().unwrap();
+    let list = String::from_utf8(list.stdout).unwrap();
+    assert_eq!(list.lines().count(), scenario::EXAMPLES.len());
+    let schema = cli().arg("schema").output().unwrap();
+    assert!(serde_json::from_slice::<serde_json::Value>(&schema.stdout).is_ok());
+}
+
+#[test]
+fn cli_answers_bad_files_with_a_message_and_exit_code() {
+    let dir = std::env::temp_dir().join(format!("hibernal-cli-bad-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let bad = dir.join("bad.json");
+    let mut v = example_value();
+    v["layers"][0]["thickness_m"] = serde_json::json!(-0.4);
+    std::fs::write(&bad, v.to_string()).unwrap();
+    let out = cli().args(["run", bad.to_str().unwrap()]).output().unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("layers[0].thickness_m"), "{err}");
+    assert!(!err.contains("panicked"));
+
+    std::fs::write(&bad, b"\xff\xfe not json").unwrap();
+    let out = cli().args(["run", bad.to_str().unwrap()]).output().unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let out = cli().args(["run", "/nonexistent/x.json"]).output().unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let out = cli().args(["example", "no-such"]).output().unwrap();
+    assert_eq!(out.status.code(), Some(2));
+}

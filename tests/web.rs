@@ -1,0 +1,100 @@
+//! The wasm bindings, run in headless Chromium by wasm-bindgen-test.
+#![cfg(target_arch = "wasm32")]
+
+use hibernal::web;
+use js_sys::{Array, Reflect};
+use wasm_bindgen::{JsCast, JsValue};
+use wasm_bindgen_test::*;
+
+wasm_bindgen_test_configure!(run_in_browser);
+
+fn get(v: &JsValue, key: &str) -> JsValue {
+    Reflect::get(v, &JsValue::from_str(key)).unwrap()
+}
+
+fn example(id: &str) -> JsValue {
+    let v = web::example(id);
+    assert!(!v.is_null(), "example {id}");
+    v
+}
+
+#[wasm_bindgen_test]
+fn catalogue_lists_every_regression_and_unit() {
+    let c = web::catalogue();
+    let snow: Array = get(&c, "snow_correlations").dyn_into().unwrap();
+    assert_eq!(snow.length(), 9);
+    let units = get(&c, "units");
+    let r = get(&get(&units, "r_value"), "us");
+    assert!((get(&r, "factor").as_f64().unwrap() - 5.678263).abs() < 1e-9);
+}
+
+#[wasm_bindgen_test]
+fn compute_gives_the_series_r_of_the_wall_example() {
+    let out = web::compute(example("snow-block-wall"));
+    assert_eq!(get(&out, "ok").as_bool(), Some(true));
+    let r = get(&get(&out, "report"), "r_total_m2k_w").as_f64().unwrap();
+    // Plane wall with films: 1/20 + 0.40/k + 1/7, k by Sturm et al. 1997 at 350 kg/m³.
+    let k = 0.138 - 1.01 * 0.35 + 3.233 * 0.35 * 0.35;
+    assert!((r - (0.05 + 0.40 / k + 1.0 / 7.0)).abs() < 1e-12, "{r}");
+}
+
+#[wasm_bindgen_test]
+fn bad_input_returns_errors_naming_the_field_and_never_throws() {
+    let s = example("snow-over-foam-on-silt");
+    let layer0 = Reflect::get_u32(&get(&s, "layers"), 0).unwrap();
+    Reflect::set(&layer0, &"thickness_m".into(), &JsValue::from_f64(-1.0)).unwrap();
+    let out = web::compute(s.clone());
+    assert_eq!(get(&out, "ok").as_bool(), Some(false));
+    let errs: Array = get(&out, "errors").dyn_into().unwrap();
+    let field = get(&errs.get(0), "field").as_string().unwrap();
+    assert_eq!(field, "layers[0].thickness_m");
+
+    Reflect::set(&layer0, &"thickness_m".into(), &JsValue::from_str("abc")).unwrap();
+    let out = web::compute(s);
+    assert_eq!(get(&out, "ok").as_bool(), Some(false));
+
+    for junk in [
+        JsValue::NULL,
+        JsValue::UNDEFINED,
+        JsValue::from_f64(f64::NAN),
+        JsValue::from_str("{}"),
+        Array::new().into(),
+    ] {
+        let out = web::compute(junk);
+        assert_eq!(get(&out, "ok").as_bool(), Some(false));
+    }
+}
+
+#[wasm_bindgen_test]
+fn the_chart_draws_on_a_canvas() {
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let canvas: web_sys::HtmlCanvasElement =
+        doc.create_element("canvas").unwrap().dyn_into().unwrap();
+    canvas.set_width(800);
+    canvas.set_height(500);
+    doc.body().unwrap().append_child(&canvas).unwrap();
+    let out = web::draw_profile(canvas.clone(), example("snow-over-foam-on-silt"), "us", 2.0);
+    assert_eq!(
+        get(&out, "ok").as_bool(),
+        Some(true),
+        "{:?}",
+        get(&out, "message")
+    );
+    let ctx: web_sys::CanvasRenderingContext2d = canvas
+        .get_context("2d")
+        .unwrap()
+        .unwrap()
+        .dyn_into()
+        .unwrap();
+    let data = ctx.get_image_data(0.0, 0.0, 800.0, 500.0).unwrap().data();
+    let non_white = data
+        .chunks(4)
+        .filter(|p| p[0] < 200 || p[1] < 200 || p[2] < 200)
+        .count();
+    assert!(
+        non_white > 2000,
+        "the chart drew something: {non_white} dark pixels"
+    );
+    let bad = web::draw_profile(canvas, JsValue::NULL, "si", 1.0);
+    assert_eq!(get(&bad, "ok").as_bool(), Some(false));
+}
