@@ -77,12 +77,18 @@ build_page() {
   rm -rf target/web
   wasm-bindgen --target no-modules --no-typescript --out-dir target/web \
     target/wasm32-unknown-unknown/release/hibernal.wasm >&2
-  if command -v wasm-opt >/dev/null; then
-    if wasm-opt -Oz --all-features target/web/hibernal_bg.wasm -o target/web/hibernal_bg.opt.wasm 2>/dev/null; then
+  # binaryen before version 116 mis-encodes the reference types and externref table that
+  # this wasm-bindgen emits (Chromium then refuses the module), so older wasm-opt is skipped.
+  local wo_version
+  wo_version=$(wasm-opt --version 2>/dev/null | awk '{print $3}' || true)
+  if [ -n "$wo_version" ] && [ "$wo_version" -ge 116 ] 2>/dev/null; then
+    if wasm-opt -Oz --all-features target/web/hibernal_bg.wasm -o target/web/hibernal_bg.opt.wasm; then
       mv target/web/hibernal_bg.opt.wasm target/web/hibernal_bg.wasm
     else
       log "wasm-opt could not optimise this module; using it as built"
     fi
+  elif [ -n "$wo_version" ]; then
+    log "wasm-opt $wo_version is older than 116 and breaks this module; skipping it"
   fi
   node tools/inline.mjs >&2
   echo "$ROOT/dist/hibernal.html"

@@ -428,6 +428,9 @@ pub struct Report {
     pub title: String,
     pub r_total_m2k_w: f64,
     pub r_layers_m2k_w: f64,
+    /// The same two R-values in US units, ft²·°F·h/Btu.
+    pub r_total_ft2_f_h_btu: f64,
+    pub r_layers_ft2_f_h_btu: f64,
     pub u_w_m2k: f64,
     pub heat_flux_w_m2: f64,
     pub top: FaceDoc,
@@ -542,6 +545,8 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
         title: s.title.clone(),
         r_total_m2k_w: r.r_total_m2k_per_w,
         r_layers_m2k_w: r.r_layers_m2k_per_w,
+        r_total_ft2_f_h_btu: r.r_total_m2k_per_w * crate::units::R_US_PER_R_SI,
+        r_layers_ft2_f_h_btu: r.r_layers_m2k_per_w * crate::units::R_US_PER_R_SI,
         u_w_m2k: r.u_w_per_m2_k,
         heat_flux_w_m2: r.heat_flux_w_per_m2,
         top: face(&r.top),

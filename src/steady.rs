@@ -226,7 +226,10 @@ fn assemble(s: ResolvedStack, q: f64, temps: &[f64]) -> SteadyResult {
                 frozen_above: frozen_t,
             });
         }
-        let state = if !m.freezes {
+        let state = if matches!(m.family, Family::Snow | Family::Ice) {
+            // Already frozen water; above 0 °C it would melt (warned below).
+            LayerState::Frozen
+        } else if !m.freezes {
             LayerState::DoesNotFreeze
         } else if frozen_t && frozen_b {
             LayerState::Frozen
