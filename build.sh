@@ -75,7 +75,8 @@ build_page() {
   log "compiling the core to wasm"
   cargo build --release --target wasm32-unknown-unknown --lib >&2
   rm -rf target/web
-  wasm-bindgen --target no-modules --no-typescript --out-dir target/web \
+  wasm-bindgen --target no-modules --no-typescript --remove-name-section --remove-producers-section \
+    --out-dir target/web \
     target/wasm32-unknown-unknown/release/hibernal.wasm >&2
   # binaryen before version 116 mis-encodes the reference types and externref table that
   # this wasm-bindgen emits (Chromium then refuses the module), so older wasm-opt is skipped.

@@ -3,6 +3,7 @@
 
 use plotters::coord::Shift;
 use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use crate::materials::Family;
 use crate::scenario::Computed;
@@ -59,6 +60,14 @@ pub fn draw_profile<DB: DrawingBackend>(
 
     root.fill(&WHITE).map_err(err)?;
     let depth_max = z(r.total_depth_m());
+    // Tick labels: enough decimals for the span, no more.
+    let depth_decimals = if depth_max >= 20.0 {
+        0
+    } else if depth_max >= 4.0 {
+        1
+    } else {
+        2
+    };
     // Temperature range: profile, band, faces and 0 °C, with a margin.
     let mut lo = f64::INFINITY;
     let mut hi = f64::NEG_INFINITY;
@@ -92,14 +101,32 @@ pub fn draw_profile<DB: DrawingBackend>(
     // Layers, shaded, with their names.
     for (i, (l, m)) in r.layers.iter().zip(&r.stack.materials).enumerate() {
         let (zt, zb) = (z(l.top_depth_m), z(l.bottom_depth_m));
+        // Neighbours of one family alternate in shade so each layer stays visible.
+        let mut fill = layer_fill(m.family);
+        let same_as_above = i > 0 && r.stack.materials[i - 1].family == m.family;
+        if same_as_above && i % 2 == 1 {
+            fill = RGBColor(
+                (fill.0 as f64 * 0.93) as u8,
+                (fill.1 as f64 * 0.93) as u8,
+                (fill.2 as f64 * 0.93) as u8,
+            );
+        }
         chart
             .draw_series(std::iter::once(Rectangle::new(
                 [(x0, -zt), (x1, -zb)],
-                layer_fill(m.family).filled(),
+                fill.filled(),
             )))
             .map_err(err)?;
+        if i > 0 {
+            chart
+                .draw_series(std::iter::once(PathElement::new(
+                    vec![(x0, -zt), (x1, -zt)],
+                    RGBColor(150, 150, 150).stroke_width(px(1.0)),
+                )))
+                .map_err(err)?;
+        }
         let h_frac = (zb - zt) / depth_max.max(1e-12);
-        if h_frac > 0.045 {
+        if h_frac > 0.03 {
             let name = &r.stack.layers[i].name;
             let label = if name.trim().is_empty() {
                 m.label.clone()
@@ -110,8 +137,10 @@ pub fn draw_profile<DB: DrawingBackend>(
             chart
                 .draw_series(std::iter::once(Text::new(
                     label,
-                    (x0 + 0.015 * (x1 - x0), -zt - 0.012 * depth_max),
-                    font(12.0).color(&RGBColor(90, 96, 104)),
+                    (x1 - 0.015 * (x1 - x0), -zt - 0.012 * depth_max),
+                    font(12.0)
+                        .color(&RGBColor(90, 96, 104))
+                        .pos(Pos::new(HPos::Right, VPos::Top)),
                 )))
                 .map_err(err)?;
         }
@@ -122,7 +151,7 @@ pub fn draw_profile<DB: DrawingBackend>(
         .disable_mesh()
         .x_desc(format!("Temperature ({})", tq.unit(sys).symbol))
         .y_desc(format!("Depth from the top face ({})", zq.unit(sys).symbol))
-        .y_label_formatter(&|v| format!("{:.2}", v.abs()))
+        .y_label_formatter(&|v| format!("{:.*}", depth_decimals, v.abs()))
         .x_label_formatter(&|v| format!("{v:.0}"))
         .label_style(font(12.0))
         .axis_desc_style(font(13.0))
@@ -172,14 +201,18 @@ pub fn draw_profile<DB: DrawingBackend>(
 
     // Profile.
     let pts: Vec<(f64, f64)> = r
-        .profile_at(&c.depths_m)
+        .profile_at(&r.line_depths(48))
         .into_iter()
         .map(|(d, tc)| (t(tc), -z(d)))
         .collect();
     chart
         .draw_series(LineSeries::new(pts, PROFILE.stroke_width(px(2.5))))
         .map_err(err)?
-        .label("Temperature (chosen regression)")
+        .label(if c.band.is_some() {
+            "Temperature (chosen snow regression)"
+        } else {
+            "Temperature"
+        })
         .legend(move |(x, y)| {
             PathElement::new(
                 vec![(x, y), (x + px(18.0) as i32, y)],
@@ -205,23 +238,34 @@ pub fn draw_profile<DB: DrawingBackend>(
                 ZERO.filled(),
             )))
             .map_err(err)?;
+        // Label the plane on whichever side of the 0 °C line has more room.
+        let label = format!(
+            "{:.0} {} at {:.2} {}",
+            t0,
+            tq.unit(sys).symbol,
+            -d,
+            zq.unit(sys).symbol
+        );
+        let right_side = t0 < x0 + 0.6 * (x1 - x0);
+        let (anchor_x, h) = if right_side {
+            (t0 + 0.015 * (x1 - x0), HPos::Left)
+        } else {
+            (t0 - 0.015 * (x1 - x0), HPos::Right)
+        };
         chart
             .draw_series(std::iter::once(Text::new(
-                format!(
-                    "0 {} at {:.2} {}",
-                    tq.unit(sys).symbol,
-                    -d,
-                    zq.unit(sys).symbol
-                ),
-                (t0 + 0.015 * (x1 - x0), d - 0.01 * depth_max),
-                font(12.0).color(&ZERO),
+                label,
+                (anchor_x, d + 0.01 * depth_max),
+                font(12.0).color(&ZERO).pos(Pos::new(h, VPos::Bottom)),
             )))
             .map_err(err)?;
     }
 
     chart
         .configure_series_labels()
-        .position(SeriesLabelPosition::LowerRight)
+        .position(SeriesLabelPosition::LowerLeft)
+        .legend_area_size(px(28.0))
+        .margin(px(10.0))
         .background_style(WHITE.mix(0.85))
         .border_style(RGBColor(200, 200, 200))
         .label_font(font(12.0))

@@ -333,6 +333,26 @@ impl SteadyResult {
         z
     }
 
+    /// Depths that draw the profile exactly as straight segments: the ends of each layer
+    /// whose conductivity is constant on both sides of 0 °C (its profile is piecewise
+    /// linear), `per_curved_layer` steps in a layer whose k depends on temperature (ice,
+    /// air), plus the 0 °C planes.
+    pub fn line_depths(&self, per_curved_layer: usize) -> Vec<f64> {
+        let mut z = vec![0.0];
+        for (l, m) in self.layers.iter().zip(&self.stack.materials) {
+            let law = &m.conductivity;
+            let straight = matches!(law.frozen, crate::materials::Branch::Constant(_))
+                && matches!(law.unfrozen, crate::materials::Branch::Constant(_));
+            let n = if straight { 1 } else { per_curved_layer.max(1) };
+            let d = l.bottom_depth_m - l.top_depth_m;
+            z.extend((1..=n).map(|k| l.top_depth_m + d * k as f64 / n as f64));
+        }
+        z.extend(self.zero_planes.iter().map(|p| p.depth_m));
+        z.sort_by(f64::total_cmp);
+        z.dedup_by(|a, b| (*a - *b).abs() < 1e-12);
+        z
+    }
+
     /// (depth m, temperature °C) at the given depths.
     pub fn profile_at(&self, depths: &[f64]) -> Vec<(f64, f64)> {
         depths

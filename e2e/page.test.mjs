@@ -1,0 +1,261 @@
+// End-to-end tests of dist/hibernal.html in Chromium, opened from file:// with the
+// network refused. Run from the repository root: node --test e2e/
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import {
+  launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor,
+  chartDigest, chartInkedPixels, parseShown,
+} from './helpers.mjs';
+
+let browser;
+before(async () => { browser = await launch(); });
+after(async () => { if (browser) await browser.close(); });
+
+// Opens a fresh page, runs `body`, then checks nothing went wrong on the way.
+async function withPage(body, viewport) {
+  const { context, page, problems } = await openPage(browser, viewport);
+  try {
+    await body(page, problems);
+    assertNoProblems(problems);
+  } finally {
+    await context.close();
+  }
+}
+
+async function pickExample(page, id) {
+  const ids = await page.locator('#example-pick option').evaluateAll((os) => os.map((o) => o.value));
+  assert.ok(ids.includes(id), `example ${id} is offered (offered: ${ids.join(', ')})`);
+  await andRecompute(page, () => page.selectOption('#example-pick', id));
+}
+
+// The number shown by `selector` is within display rounding of `expected`.
+async function assertShown(page, selector, expected, extraTolerance = 0) {
+  const { value, decimals } = await shown(page, selector);
+  const tol = 0.5 * 10 ** -decimals + 1e-9 + extraTolerance;
+  assert.ok(Number.isFinite(value), `${selector} shows a number`);
+  assert.ok(Math.abs(value - expected) <= tol,
+    `${selector} shows ${value}, expected ${expected.toFixed(decimals + 3)} ± ${tol}`);
+}
+
+test('the page loads from file:// and shows results and a drawn chart', () => withPage(async (page) => {
+  assert.match(await page.title(), /Hibernal/);
+  for (const id of ['#r-total', '#u-value', '#heat-flux']) {
+    assert.ok(Number.isFinite((await shown(page, id)).value), `${id} shows a number`);
+  }
+  assert.notEqual((await page.locator('#zero-depth').textContent()).trim(), '–');
+  assert.equal(await page.locator('#panic').isHidden(), true);
+  assert.ok(await page.locator('#layer-results tbody tr').count() >= 1);
+  const ink = await chartInkedPixels(page);
+  assert.ok(ink.width > 100 && ink.height > 100, `canvas has a real size (${ink.width}×${ink.height})`);
+  assert.ok(ink.n > 500, `chart has drawn pixels (${ink.n})`);
+  // The cautions are always shown.
+  const cautions = await page.locator('.cautions').textContent();
+  for (const word of [/frost heave/i, /carbon monoxide/i, /avalanche/i, /licensed engineer/i, /30\u00a0?\s?cm/]) {
+    assert.match(cautions, word);
+  }
+}));
+
+test('a snow wall: shown R matches the series formula with Sturm et al. 1997', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const ex = await page.evaluate(() => wasm_bindgen.example('snow-block-wall'));
+  const rUnit = await page.evaluate(() => wasm_bindgen.catalogue().units.r_value.si);
+  assert.equal(ex.layers.length, 1);
+  const snow = ex.layers[0].material;
+  assert.equal(snow.kind, 'snow');
+  assert.equal(snow.correlation, 'sturm-1997-quadratic');
+  // The page shows the example's values.
+  assert.equal(parseShown(await field(page, 'layers[0].material.density_kg_m3').inputValue()).value, snow.density_kg_m3);
+  assert.equal(await field(page, 'layers[0].material.correlation').inputValue(), snow.correlation);
+
+  const film = (face) => (face.kind === 'air' ? 1 / face.film_w_m2k : 0);
+  const r = snow.density_kg_m3 / 1000;
+  const k = 0.138 - 1.01 * r + 3.233 * r * r; // Sturm et al. 1997, quadratic
+  const expectR = (d) => film(ex.top) + d / k + film(ex.bottom);
+
+  const thick = field(page, 'layers[0].thickness_m');
+  const unitText = (await thick.locator('xpath=following-sibling::*[1]').textContent()).trim();
+  assert.equal(unitText, 'cm');
+  await assertShown(page, '#r-total', expectR(ex.layers[0].thickness_m) * rUnit.factor + rUnit.offset);
+
+  const chartBefore = await chartDigest(page);
+  await andRecompute(page, () => thick.fill('55'));
+  await assertShown(page, '#r-total', expectR(0.55) * rUnit.factor + rUnit.offset);
+  await assertShown(page, '#u-value', 1 / expectR(0.55), 0);
+  const chartAfter = await chartDigest(page);
+  assert.notEqual(chartAfter, chartBefore, 'the chart was redrawn with new pixels');
+  // The band across correlations is reported.
+  assert.match(await page.locator('#band-summary').textContent(), /R ranges from .* across \d+ published snow conductivity regressions/);
+  assert.ok(await page.locator('#band-table tbody tr').count() >= 2);
+}));
+
+test('switching to US customary converts every shown value, and back restores them', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const siR = await shown(page, '#r-total');
+  const siText = await page.locator('#r-total').textContent();
+  const thick = field(page, 'layers[0].thickness_m');
+  const siThickText = await thick.inputValue();
+  const thicknessM = (await page.evaluate(() => wasm_bindgen.example('snow-block-wall'))).layers[0].thickness_m;
+  const siTempText = await field(page, 'top.temperature_c').inputValue();
+  const chartSi = await chartDigest(page);
+
+  await andRecompute(page, () => page.locator('label:has(#units-us)').click());
+  const usR = await shown(page, '#r-total');
+  const tol = 0.5 * 10 ** -usR.decimals + 5.678263 * 0.5 * 10 ** -siR.decimals + 1e-9;
+  assert.ok(Math.abs(usR.value - siR.value * 5.678263) <= tol, `US R ${usR.value} ≈ ${siR.value} × 5.678263`);
+  assert.match(await page.locator('#r-total ~ .unit').textContent(), /ft²·°F·h\/Btu/);
+  const inches = parseShown(await thick.inputValue()).value;
+  assert.ok(Math.abs(inches - thicknessM / 0.0254) < 0.01, `thickness shown in inches (${inches})`);
+  assert.equal((await thick.locator('xpath=following-sibling::*[1]').textContent()).trim(), 'in');
+  const f = parseShown(await field(page, 'top.temperature_c').inputValue()).value;
+  assert.ok(Math.abs(f - (parseShown(siTempText).value * 1.8 + 32)) < 0.05, 'temperature shown in °F');
+  assert.notEqual(await chartDigest(page), chartSi, 'the chart is redrawn in US units');
+
+  await andRecompute(page, () => page.locator('label:has(#units-si)').click());
+  assert.equal(await page.locator('#r-total').textContent(), siText);
+  assert.equal(await thick.inputValue(), siThickText);
+  assert.equal(await field(page, 'top.temperature_c').inputValue(), siTempText);
+}));
+
+test('bad input is flagged beside its field and never lost', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const thick = field(page, 'layers[0].thickness_m');
+  const msg = msgFor(page, 'layers[0].thickness_m');
+  const goodR = await page.locator('#r-total').textContent();
+
+  await andRecompute(page, () => thick.fill('abc'));
+  assert.match(await msg.textContent(), /thickness/i);
+  assert.match(await msg.textContent(), /number/i);
+  assert.equal(await thick.inputValue(), 'abc');
+  assert.equal(await page.locator('#results').getAttribute('data-stale'), 'true');
+  assert.equal(await page.locator('#r-total').textContent(), goodR, 'last good result still shown');
+  assert.equal(await page.locator('#stale-note').isVisible(), true);
+
+  // The typed text survives a unit switch and other edits.
+  await andRecompute(page, () => page.locator('label:has(#units-us)').click());
+  assert.equal(await thick.inputValue(), 'abc');
+  await andRecompute(page, () => page.locator('label:has(#units-si)').click());
+  assert.equal(await thick.inputValue(), 'abc');
+  await andRecompute(page, () => field(page, 'layers[0].name').fill('Renamed wall'));
+  assert.equal(await thick.inputValue(), 'abc');
+  assert.match(await msg.textContent(), /number/i);
+
+  // Empty is not a number either.
+  await andRecompute(page, () => thick.fill(''));
+  assert.match(await msg.textContent(), /thickness.*number/i);
+
+  // A number the core rejects: its message, naming thickness, beside the field.
+  await andRecompute(page, () => thick.fill('-5'));
+  assert.equal(await thick.inputValue(), '-5');
+  assert.match(await msg.textContent(), /thickness/i);
+  assert.doesNotMatch(await msg.textContent(), /enter a number/i);
+  assert.equal(await page.locator('#results').getAttribute('data-stale'), 'true');
+  assert.equal(await thick.getAttribute('aria-invalid'), 'true');
+
+  await andRecompute(page, () => thick.fill('40'));
+  assert.equal((await msg.textContent()).trim(), '');
+  assert.equal(await page.locator('#results').getAttribute('data-stale'), 'false');
+
+  // Snow denser than ice.
+  const density = field(page, 'layers[0].material.density_kg_m3');
+  await andRecompute(page, () => density.fill('1200'));
+  const dmsg = msgFor(page, 'layers[0].material.density_kg_m3');
+  assert.ok((await dmsg.locator('.msg.error').count()) >= 1, 'an error beside the density field');
+  assert.match(await dmsg.textContent(), /density/i);
+  assert.equal(await density.inputValue(), '1200');
+  assert.equal(await page.locator('#results').getAttribute('data-stale'), 'true');
+}));
+
+test('layers can be added, moved and removed, and the results follow', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const rows = page.locator('#layer-list > li');
+  const resultRows = page.locator('#layer-results tbody tr');
+  const n0 = await rows.count();
+  const r0 = (await shown(page, '#r-total')).value;
+  const firstName = await field(page, 'layers[0].name').inputValue();
+
+  await andRecompute(page, () => page.click('#add-layer'));
+  assert.equal(await rows.count(), n0 + 1);
+  assert.equal(await resultRows.count(), n0 + 1);
+  const r1 = (await shown(page, '#r-total')).value;
+  assert.ok(r1 > r0, `adding a layer raises R (${r0} → ${r1})`);
+
+  const newIdx = n0; // zero-based index of the added layer
+  await andRecompute(page, () => field(page, `layers[${newIdx}].name`).fill('Added layer'));
+  await andRecompute(page, () => page.locator(`#layer-list > li[data-index="${newIdx}"] [data-act="up"]`).click());
+  assert.equal(await field(page, `layers[${newIdx - 1}].name`).inputValue(), 'Added layer');
+  if (n0 === 1) assert.equal(await field(page, 'layers[1].name').inputValue(), firstName);
+  assert.equal((await resultRows.nth(newIdx - 1).locator('th').textContent()).trim(), 'Added layer');
+  assert.equal((await shown(page, '#r-total')).value, r1, 'order does not change a series R');
+
+  await andRecompute(page, () => page.locator(`#layer-list > li[data-index="${newIdx - 1}"] [data-act="down"]`).click());
+  assert.equal(await field(page, `layers[${newIdx}].name`).inputValue(), 'Added layer');
+
+  // Change the added layer into insulation: material fields change.
+  await andRecompute(page, () => field(page, `layers[${newIdx}].material.kind`).selectOption('insulation'));
+  assert.equal(await field(page, `layers[${newIdx}].material.board`).count(), 1);
+  const r2 = (await shown(page, '#r-total')).value;
+  assert.ok(r2 > r1, `10 cm of insulation adds more R than 10 cm of snow (${r1} → ${r2})`);
+
+  await andRecompute(page, () => page.locator(`#layer-list > li[data-index="${newIdx}"] [data-act="remove"]`).click());
+  assert.equal(await rows.count(), n0);
+  assert.equal(await resultRows.count(), n0);
+  assert.equal((await shown(page, '#r-total')).value, r0);
+}));
+
+test('a layer name with markup is shown as text', () => withPage(async (page) => {
+  const payload = '<img src=x onerror=alert(1)>';
+  await andRecompute(page, () => field(page, 'layers[0].name').fill(payload));
+  assert.equal(await page.locator('img').count(), 0, 'no img element created');
+  assert.equal((await page.locator('#layer-results tbody tr').first().locator('th').textContent()).trim(), payload);
+  // Also after a full re-render of the inputs.
+  await andRecompute(page, () => page.locator('label:has(#units-us)').click());
+  assert.equal(await field(page, 'layers[0].name').inputValue(), payload);
+  assert.equal(await page.locator('img').count(), 0);
+  await page.waitForTimeout(200); // give any onerror a chance to fire
+}));
+
+test('narrow screens: the page fits without sideways scrolling', () => withPage(async (page) => {
+  const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+  assert.ok(overflow <= 1, `page is ${overflow}px wider than a 390px screen`);
+  const ink = await chartInkedPixels(page);
+  assert.ok(ink.n > 200, 'chart drawn on a narrow screen');
+}, { width: 390, height: 844 }));
+
+test('face presets fill the film coefficient; a held surface has no film', () => withPage(async (page) => {
+  const presets = await page.evaluate(() => wasm_bindgen.catalogue().surface_presets);
+  const held = presets.find((p) => p.film_w_m2k == null);
+  const air = presets.find((p) => typeof p.film_w_m2k === 'number');
+  assert.ok(held && air, 'the catalogue has both kinds of preset');
+  await andRecompute(page, () => field(page, 'top.kind').selectOption(air.id));
+  const h = parseShown(await field(page, 'top.film_w_m2k').inputValue()).value;
+  assert.ok(Math.abs(h - air.film_w_m2k) < 0.01, `film filled from the preset (${h})`);
+  const rAir = (await shown(page, '#r-total')).value;
+  await andRecompute(page, () => field(page, 'top.kind').selectOption(held.id));
+  assert.equal(await field(page, 'top.film_w_m2k').count(), 0, 'no film input for a held surface');
+  assert.match(await page.locator('label[for="f-top-temperature-c"]').textContent(), /surface/i);
+  const rHeld = (await shown(page, '#r-total')).value;
+  assert.ok(rHeld < rAir, `dropping the film lowers R (${rAir} → ${rHeld})`);
+  // Typing a film that matches no preset shows the free-entry choice.
+  await andRecompute(page, () => field(page, 'top.kind').selectOption(air.id));
+  await andRecompute(page, () => field(page, 'top.film_w_m2k').fill('12.345'));
+  const chosen = await field(page, 'top.kind').inputValue();
+  assert.ok(!presets.some((p) => p.id === chosen), `free film entry is not a preset (${chosen})`);
+}));
+
+test('a snow density outside a regression\'s fitted range is warned about beside the field', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const corr = await page.evaluate(() => wasm_bindgen.catalogue().snow_correlations.find((c) => c.id === 'sturm-1997-quadratic'));
+  const low = Math.max(20, Math.floor(corr.range_kg_m3[0] / 2));
+  await andRecompute(page, () => field(page, 'layers[0].material.density_kg_m3').fill(String(low)));
+  assert.equal(await page.locator('#results').getAttribute('data-stale'), 'false', 'a warning still gives a result');
+  const msg = msgFor(page, 'layers[0].material.density_kg_m3');
+  assert.ok((await msg.locator('.msg.warning').count()) >= 1, 'a warning beside the density');
+  assert.equal(await page.locator('#warnings-block').isVisible(), true);
+}));
+
+test('the page carries a policy that forbids network access', () => withPage(async (page) => {
+  const csp = await page.locator('meta[http-equiv="Content-Security-Policy"]').getAttribute('content');
+  assert.match(csp, /default-src 'none'/);
+  assert.match(csp, /connect-src 'none'/);
+  assert.equal(await page.locator('script[src], link[rel="stylesheet"], img[src]').count(), 0, 'nothing loaded from files');
+}));
