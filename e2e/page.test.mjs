@@ -163,6 +163,17 @@ test('bad input is flagged beside its field and never lost', () => withPage(asyn
   assert.match(await dmsg.textContent(), /density/i);
   assert.equal(await density.inputValue(), '1200');
   assert.equal(await page.locator('#results').getAttribute('data-stale'), 'true');
+  assert.match(await dmsg.textContent(), /denser than solid ice \(916\.7/);
+
+  // In US units the same refusal is worded in lb/ft³ (916.7 kg/m³ = 57.23 lb/ft³, NIST SP 811).
+  await andRecompute(page, () => page.locator('label:has(#units-us)').click());
+  await andRecompute(page, () => density.fill('80'));
+  const usText = await dmsg.textContent();
+  assert.match(usText, /80\D+lb\/ft³ is denser than solid ice \(57\.2\d*\D+lb\/ft³\)/, usText);
+  assert.doesNotMatch(usText, /kg\/m³/);
+  // A thickness out of bounds is worded in inches.
+  await andRecompute(page, () => thick.fill('-2'));
+  assert.match(await msg.textContent(), /got -2\D+in\)/);
 }));
 
 test('layers can be added, moved and removed, and the results follow', () => withPage(async (page) => {

@@ -52,6 +52,43 @@ pub enum InputErrorKind {
     Format(String),
 }
 
+impl InputErrorKind {
+    /// Stable identifier of the kind, for faces that word the message themselves.
+    pub fn id(&self) -> &'static str {
+        match self {
+            InputErrorKind::NotFinite => "not_finite",
+            InputErrorKind::NotPositive { .. } => "not_positive",
+            InputErrorKind::Negative { .. } => "negative",
+            InputErrorKind::OutOfBounds { .. } => "out_of_bounds",
+            InputErrorKind::DenserThanIce { .. } => "denser_than_ice",
+            InputErrorKind::BeyondSaturation { .. } => "beyond_saturation",
+            InputErrorKind::DenserThanSolids { .. } => "denser_than_solids",
+            InputErrorKind::Count { .. } => "count",
+            InputErrorKind::NotCovered(_) => "not_covered",
+            InputErrorKind::Format(_) => "format",
+        }
+    }
+
+    /// The offending value and the limits it broke, in the field's SI unit, so a face can
+    /// show them in the unit the user reads: (value, min, max).
+    pub fn numbers(&self) -> (Option<f64>, Option<f64>, Option<f64>) {
+        match *self {
+            InputErrorKind::NotPositive { value } => (Some(value), Some(0.0), None),
+            InputErrorKind::Negative { value } => (Some(value), Some(0.0), None),
+            InputErrorKind::OutOfBounds {
+                value, min, max, ..
+            } => (Some(value), Some(min), Some(max)),
+            InputErrorKind::DenserThanIce { value, ice } => (Some(value), None, Some(ice)),
+            InputErrorKind::DenserThanSolids { value, solids } => (Some(value), None, Some(solids)),
+            InputErrorKind::BeyondSaturation {
+                value_pct,
+                saturation_pct,
+            } => (Some(value_pct), None, Some(saturation_pct)),
+            _ => (None, None, None),
+        }
+    }
+}
+
 /// An input error tied to the field at fault.
 #[derive(Debug, Clone, PartialEq)]
 pub struct InputError {

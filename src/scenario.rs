@@ -333,27 +333,52 @@ pub fn schema() -> serde_json::Value {
 
 // ---------------------------------------------------------------- report
 
+/// An error or warning as the faces see it. `kind`, `value`, `min` and `max` (SI, in the
+/// field's unit) let a face word the message in the units it shows.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ErrorDoc {
     pub field: String,
     pub message: String,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub kind: Option<&'static str>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub min: Option<f64>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub max: Option<f64>,
+}
+
+impl ErrorDoc {
+    pub fn plain(field: impl Into<String>, message: impl Into<String>) -> Self {
+        ErrorDoc {
+            field: field.into(),
+            message: message.into(),
+            kind: None,
+            value: None,
+            min: None,
+            max: None,
+        }
+    }
 }
 
 impl From<&InputError> for ErrorDoc {
     fn from(e: &InputError) -> Self {
+        let (value, min, max) = e.kind.numbers();
         ErrorDoc {
             field: e.field.clone(),
             message: e.kind.to_string(),
+            kind: Some(e.kind.id()),
+            value,
+            min,
+            max,
         }
     }
 }
 
 impl From<&Warning> for ErrorDoc {
     fn from(w: &Warning) -> Self {
-        ErrorDoc {
-            field: w.field.clone(),
-            message: w.message.clone(),
-        }
+        ErrorDoc::plain(w.field.clone(), w.message.clone())
     }
 }
 
@@ -525,10 +550,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             skipped: b
                 .skipped
                 .iter()
-                .map(|(c, why)| ErrorDoc {
-                    field: c.id().into(),
-                    message: why.clone(),
-                })
+                .map(|(c, why)| ErrorDoc::plain(c.id(), why.clone()))
                 .collect(),
             envelope: b
                 .depths_m

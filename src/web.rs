@@ -238,10 +238,10 @@ struct Outcome<'a> {
 
 fn read_scenario(v: JsValue) -> Result<scenario::Scenario, Vec<ErrorDoc>> {
     let value: serde_json::Value = serde_wasm_bindgen::from_value(v).map_err(|e| {
-        vec![ErrorDoc {
-            field: String::new(),
-            message: format!("the scenario is not a JSON object: {e}"),
-        }]
+        vec![ErrorDoc::plain(
+            "",
+            format!("the scenario is not a JSON object: {e}"),
+        )]
     })?;
     scenario::from_value(value).map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
 }

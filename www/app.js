@@ -460,12 +460,29 @@
     return message.toLowerCase().includes(label.toLowerCase()) ? message : label + ': ' + message;
   }
 
-  // The core reports offending values in SI ("(got -0.05)"); show them as the user sees them.
-  function inShownUnits(input, message) {
+  // The core reports offending values and limits in SI; the error's kind, value, min and max
+  // let the page word them in the unit the user reads.
+  function inShownUnits(input, message, err) {
     const q = input && input.dataset.quantity;
     if (!q || !(CAT.units && CAT.units[q] || LOCAL_UNITS[q])) return message;
     const u = unit(q);
     if (u.factor === 1 && u.offset === 0) return message;
+    const show = (v) => fmtInput(q, v) + (u.symbol ? '\u00a0' + u.symbol : '');
+    if (err && err.value != null) {
+      switch (err.kind) {
+        case 'out_of_bounds':
+          return 'must be between ' + show(err.min) + ' and ' + show(err.max) + ' (got ' + show(err.value) + ')';
+        case 'not_positive':
+          return 'must be greater than zero (got ' + show(err.value) + ')';
+        case 'negative':
+          return 'must not be negative (got ' + show(err.value) + ')';
+        case 'denser_than_ice':
+          return show(err.value) + ' is denser than solid ice (' + show(err.max) + ')';
+        case 'denser_than_solids':
+          return show(err.value) + ' is at or above the density of the solid grains (' + show(err.max) + ')';
+        default:
+      }
+    }
     return message.replace(/\(got (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)\)/i, (all, num) => {
       const v = Number(num);
       return Number.isFinite(v) ? '(got ' + fmtInput(q, v) + (u.symbol ? '\u00a0' + u.symbol : '') + ')' : all;
@@ -473,11 +490,11 @@
   }
 
   // Puts a message beside the field with that path; returns false if there is none.
-  function placeMessage(path, message, level) {
+  function placeMessage(path, message, level, err) {
     const box = document.querySelector('[data-msg-for="' + CSS.escape(path) + '"]');
     if (!box) return false;
     const input = document.querySelector('[data-field="' + CSS.escape(path) + '"]');
-    box.append(el('span', { class: 'msg ' + level, text: withLabel(fieldLabel(path), inShownUnits(input, message)) }));
+    box.append(el('span', { class: 'msg ' + level, text: withLabel(fieldLabel(path), inShownUnits(input, message, err)) }));
     if (input && level === 'error') input.setAttribute('aria-invalid', 'true');
     const f = box.closest('.field');
     if (f) f.classList.add(level === 'error' ? 'has-error' : 'has-warning');
@@ -542,7 +559,7 @@
     if (!res || !res.ok) {
       const errors = (res && res.errors) || [];
       for (const e of errors) {
-        if (!placeMessage(e.field, e.message, 'error')) generalError(describePath(e.field) + ': ' + e.message);
+        if (!placeMessage(e.field, e.message, 'error', e)) generalError(describePath(e.field) + ': ' + e.message);
       }
       if (!errors.length) generalError('The inputs could not be used.');
       setStale(true);
