@@ -270,3 +270,18 @@ test('the page carries a policy that forbids network access', () => withPage(asy
   assert.match(csp, /connect-src 'none'/);
   assert.equal(await page.locator('script[src], link[rel="stylesheet"], img[src]').count(), 0, 'nothing loaded from files');
 }));
+
+test('every material kind can be chosen, computes, and survives the unit switch', () => withPage(async (page) => {
+  await pickExample(page, 'snow-block-wall');
+  const kinds = await page.evaluate(() => wasm_bindgen.catalogue().material_kinds.map((k) => k.id));
+  assert.ok(kinds.length >= 8, `kinds: ${kinds.join(', ')}`);
+  for (const kind of kinds) {
+    await andRecompute(page, () => field(page, 'layers[0].material.kind').selectOption(kind));
+    for (const units of ['us', 'si']) {
+      await andRecompute(page, () => page.locator(`label:has(#units-${units})`).click());
+      assert.equal(await page.locator('#results').getAttribute('data-stale'), 'false',
+        `${kind} in ${units}: the default inputs compute`);
+      assert.ok(Number.isFinite((await shown(page, '#r-total')).value), `${kind}: an R-value is shown`);
+    }
+  }
+}));

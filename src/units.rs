@@ -87,7 +87,7 @@ pub const BTU_FT3_F_PER_J_M3K: f64 = 1.0 / 67_066.1;
 pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 14] = [
+pub const QUANTITIES: [Quantity; 16] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -117,6 +117,16 @@ pub const QUANTITIES: [Quantity; 14] = [
         id: "water_content",
         si: u("%", 1.0, 0.0, 1),
         us: u("%", 1.0, 0.0, 1),
+    },
+    Quantity {
+        id: "percent",
+        si: u("%", 1.0, 0.0, 0),
+        us: u("%", 1.0, 0.0, 0),
+    },
+    Quantity {
+        id: "specific_heat",
+        si: u("J/(kg·K)", 1.0, 0.0, 0),
+        us: u("Btu/(lb·°F)", 1.0 / 4186.8, 0.0, 3),
     },
     Quantity {
         id: "fraction",

@@ -211,3 +211,96 @@ fn cli_answers_bad_files_with_a_message_and_exit_code() {
     let out = cli().args(["example", "no-such"]).output().unwrap();
     assert_eq!(out.status.code(), Some(2));
 }
+
+mod never_panics {
+    use super::*;
+    use proptest::prelude::*;
+    use serde_json::Value;
+
+    /// Paths of every numeric leaf in a JSON value.
+    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
+        match v {
+            Value::Number(_) => out.push(path.clone()),
+            Value::Object(m) => {
+                for (k, x) in m {
+                    path.push(k.clone());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            Value::Array(a) => {
+                for (i, x) in a.iter().enumerate() {
+                    path.push(i.to_string());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            _ => {}
+        }
+    }
+
+    fn set(v: &mut Value, path: &[String], new: Value) {
+        let mut cur = v;
+        for k in path {
+            cur = match cur {
+                Value::Object(m) => m.get_mut(k).unwrap(),
+                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
+                _ => unreachable!(),
+            };
+        }
+        *cur = new;
+    }
+
+    fn arb_leaf() -> impl Strategy<Value = Value> {
+        prop_oneof![
+            (-1e6f64..1e6).prop_map(|x| serde_json::json!(x)),
+            prop::num::f64::NORMAL.prop_map(|x| serde_json::json!(x)),
+            Just(serde_json::json!(0.0)),
+            Just(serde_json::json!(-0.0)),
+            Just(serde_json::json!(1e-300)),
+            Just(Value::Null),
+            ".{0,12}".prop_map(Value::String),
+            Just(serde_json::json!([])),
+        ]
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 600, ..ProptestConfig::default() })]
+
+        /// Any example with up to three numeric fields replaced by anything, and its layers
+        /// repeated, is either computed or refused with errors naming fields: never a panic.
+        #[test]
+        fn mutated_examples_never_panic(
+            which in 0usize..scenario::EXAMPLES.len(),
+            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+            repeat in 1usize..30,
+        ) {
+            let mut v: Value = serde_json::from_str(scenario::EXAMPLES[which].json).unwrap();
+            let mut paths = Vec::new();
+            numeric_paths(&v, &mut Vec::new(), &mut paths);
+            for (idx, leaf) in picks {
+                let p = idx.get(&paths).clone();
+                set(&mut v, &p, leaf);
+            }
+            if let Value::Array(layers) = &mut v["layers"] {
+                let copy = layers.clone();
+                for _ in 1..repeat {
+                    layers.extend(copy.iter().cloned());
+                }
+            }
+            let text = v.to_string();
+            match scenario::parse(&text) {
+                Ok(s) => match scenario::compute(&s) {
+                    Ok(c) => {
+                        let r = scenario::report(&s, &c);
+                        prop_assert!(r.r_total_m2k_w.is_finite() && r.r_total_m2k_w > 0.0);
+                        prop_assert!(r.heat_flux_w_m2.is_finite());
+                        let _ = hibernal::chart::profile_svg(&c, hibernal::units::UnitSystem::Us, 300, 200);
+                    }
+                    Err(e) => prop_assert!(!e.0.is_empty()),
+                },
+                Err(e) => prop_assert!(!e.0.is_empty()),
+            }
+        }
+    }
+}

@@ -22,6 +22,9 @@ fn r_value_and_conductivity_conversions() {
     assert_rel(h.show(UnitSystem::Us, 5.678263), 1.0, 1e-7, "film");
     let q = quantity("heat_flux").unwrap();
     assert_rel(q.show(UnitSystem::Us, 3.154591), 1.0, 1e-7, "flux");
+    // 1 Btu_IT/(lb·°F) = 4186.8 J/(kg·K).
+    let c = quantity("specific_heat").unwrap();
+    assert_rel(c.show(UnitSystem::Us, 4186.8), 1.0, 1e-12, "specific heat");
     let rho = quantity("density").unwrap();
     assert_rel(rho.show(UnitSystem::Us, 16.018463), 1.0, 1e-7, "density");
 }

@@ -9,29 +9,6 @@
   const MAX_LAYERS = 64;
   const DEBOUNCE_MS = 100;
 
-  // Used only when the core's catalogue lacks a quantity (and for the two
-  // quantities the core does not list: percentages and specific heat).
-  const LOCAL_UNITS = {
-    percent: { si: { symbol: '%', factor: 1, offset: 0, decimals: 0 }, us: { symbol: '%', factor: 1, offset: 0, decimals: 0 } },
-    specific_heat: {
-      si: { symbol: 'J/(kg·K)', factor: 1, offset: 0, decimals: 0 },
-      us: { symbol: 'Btu/(lb·°F)', factor: 1 / 4186.8, offset: 0, decimals: 3 },
-    },
-    temperature: { si: { symbol: '°C', factor: 1, offset: 0, decimals: 1 }, us: { symbol: '°F', factor: 1.8, offset: 32, decimals: 1 } },
-    thickness: { si: { symbol: 'cm', factor: 100, offset: 0, decimals: 1 }, us: { symbol: 'in', factor: 39.37007874, offset: 0, decimals: 2 } },
-    depth: { si: { symbol: 'm', factor: 1, offset: 0, decimals: 2 }, us: { symbol: 'ft', factor: 3.280839895, offset: 0, decimals: 2 } },
-    density: { si: { symbol: 'kg/m³', factor: 1, offset: 0, decimals: 0 }, us: { symbol: 'lb/ft³', factor: 0.06242796, offset: 0, decimals: 1 } },
-    water_content: { si: { symbol: '%', factor: 1, offset: 0, decimals: 1 }, us: { symbol: '%', factor: 1, offset: 0, decimals: 1 } },
-    conductivity: { si: { symbol: 'W/(m·K)', factor: 1, offset: 0, decimals: 3 }, us: { symbol: 'Btu/(h·ft·°F)', factor: 0.5777893, offset: 0, decimals: 3 } },
-    film: { si: { symbol: 'W/(m²·K)', factor: 1, offset: 0, decimals: 1 }, us: { symbol: 'Btu/(h·ft²·°F)', factor: 0.1761102, offset: 0, decimals: 2 } },
-    r_value: { si: { symbol: 'm²·K/W', factor: 1, offset: 0, decimals: 2 }, us: { symbol: 'ft²·°F·h/Btu', factor: 5.678263, offset: 0, decimals: 1 } },
-    u_value: { si: { symbol: 'W/(m²·K)', factor: 1, offset: 0, decimals: 3 }, us: { symbol: 'Btu/(h·ft²·°F)', factor: 0.1761102, offset: 0, decimals: 3 } },
-    heat_flux: { si: { symbol: 'W/m²', factor: 1, offset: 0, decimals: 1 }, us: { symbol: 'Btu/(h·ft²)', factor: 0.3169983, offset: 0, decimals: 2 } },
-    heat_capacity_vol: { si: { symbol: 'kJ/(m³·K)', factor: 1e-3, offset: 0, decimals: 0 }, us: { symbol: 'Btu/(ft³·°F)', factor: 1.4910664e-5, offset: 0, decimals: 1 } },
-    latent_vol: { si: { symbol: 'MJ/m³', factor: 1e-6, offset: 0, decimals: 1 }, us: { symbol: 'Btu/ft³', factor: 2.6839192e-5, offset: 0, decimals: 0 } },
-    fraction: { si: { symbol: '', factor: 1, offset: 0, decimals: 2 }, us: { symbol: '', factor: 1, offset: 0, decimals: 2 } },
-  };
-
   let W = null; // the wasm API
   let CAT = null;
   let EXAMPLES = [];
@@ -80,8 +57,10 @@
   const clone = (o) => JSON.parse(JSON.stringify(o));
 
   // ---------- units ----------
+  // Units come from the core's table (catalogue().units): the page hard-codes no factor.
   function unit(q) {
-    const u = (CAT && CAT.units && CAT.units[q]) || LOCAL_UNITS[q];
+    const u = CAT && CAT.units && CAT.units[q];
+    if (!u) throw new Error('the unit table has no quantity "' + q + '"');
     return u[state.units] || u.si;
   }
   // The freezing point as the user reads it.
@@ -464,7 +443,7 @@
   // let the page word them in the unit the user reads.
   function inShownUnits(input, message, err) {
     const q = input && input.dataset.quantity;
-    if (!q || !(CAT.units && CAT.units[q] || LOCAL_UNITS[q])) return message;
+    if (!q || !(CAT.units && CAT.units[q])) return message;
     const u = unit(q);
     if (u.factor === 1 && u.offset === 0) return message;
     const show = (v) => fmtInput(q, v) + (u.symbol ? '\u00a0' + u.symbol : '');
