@@ -17,13 +17,18 @@ fn to_js<T: Serialize>(v: &T) -> JsValue {
 
 /// Show a panic on the page (element `#panic`) and in the console.
 fn panic_hook(info: &std::panic::PanicHookInfo<'_>) {
-    let msg = format!("Internal error (please report it): {info}");
-    web_sys::console::error_1(&JsValue::from_str(&msg));
+    show_internal_error(&format!("Internal error (please report it): {info}"));
+}
+
+/// What the panic hook does with its message: the console, and the page's `#panic` box
+/// (unhidden). Public so the wasm tests can check it without panicking.
+pub fn show_internal_error(msg: &str) {
+    web_sys::console::error_1(&JsValue::from_str(msg));
     if let Some(el) = web_sys::window()
         .and_then(|w| w.document())
         .and_then(|d| d.get_element_by_id("panic"))
     {
-        el.set_text_content(Some(&msg));
+        el.set_text_content(Some(msg));
         let _ = el.remove_attribute("hidden");
     }
 }

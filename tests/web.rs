@@ -98,3 +98,18 @@ fn the_chart_draws_on_a_canvas() {
     let bad = web::draw_profile(canvas, JsValue::NULL, "si", 1.0);
     assert_eq!(get(&bad, "ok").as_bool(), Some(false));
 }
+
+#[wasm_bindgen_test]
+fn the_panic_hook_shows_its_message_on_the_page() {
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let panel = doc.create_element("div").unwrap();
+    panel.set_id("panic");
+    panel.set_attribute("hidden", "").unwrap();
+    doc.body().unwrap().append_child(&panel).unwrap();
+    web::show_internal_error("Internal error: test message");
+    assert!(!panel.has_attribute("hidden"), "the panel is shown");
+    assert_eq!(
+        panel.text_content().as_deref(),
+        Some("Internal error: test message")
+    );
+}
