@@ -9,6 +9,7 @@ pub mod error;
 pub mod materials;
 pub mod stack;
 pub mod steady;
+pub mod transient;
 pub mod units;
 
 pub mod chart;

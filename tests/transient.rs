@@ -1,0 +1,243 @@
+//! The transient solver against closed forms and conservation. Each check names its source.
+
+mod common;
+use common::*;
+
+use hibernal::materials::{Branch, ConductivityLaw, Family, Material};
+use hibernal::stack::{Boundary, Layer, Stack};
+use hibernal::steady;
+use hibernal::transient::grid::GridSpec;
+use hibernal::transient::phase::UnfrozenWater;
+use hibernal::transient::{cells_for, BottomCondition, Solver, TopCondition};
+use std::f64::consts::PI;
+
+const DAY: f64 = 86_400.0;
+const YEAR: f64 = 365.0 * DAY;
+
+fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
+    Material {
+        family: Family::Custom,
+        label: "test".into(),
+        conductivity: ConductivityLaw {
+            frozen: Branch::Constant(k_f),
+            unfrozen: Branch::Constant(k_u),
+        },
+        freezes: latent > 0.0,
+        density_kg_m3: 1800.0,
+        c_frozen_j_per_m3_k: c_f,
+        c_unfrozen_j_per_m3_k: c_u,
+        latent_j_per_m3: latent,
+        valid_temperature_c: (-100.0, 100.0),
+    }
+}
+
+fn column(layers: &[(f64, Material)], grid: GridSpec, initial_c: f64) -> Solver {
+    let d: Vec<f64> = layers.iter().map(|l| l.0).collect();
+    let m: Vec<Material> = layers.iter().map(|l| l.1.clone()).collect();
+    Solver::new(cells_for(&d, &m, &grid, &[]), initial_c)
+}
+
+#[test]
+fn grid_puts_layer_interfaces_on_faces_and_grows_with_depth() {
+    let m = material(1.0, 1.0, 2e6, 2e6, 0.0);
+    let s = column(
+        &[(0.37, m.clone()), (0.05, m.clone()), (4.0, m)],
+        GridSpec {
+            surface_cell_m: 0.01,
+            growth_ratio: 1.08,
+            max_cell_m: 0.25,
+        },
+        0.0,
+    );
+    let faces: Vec<f64> = s.cells.iter().map(|c| c.top_m).collect();
+    for z in [0.37, 0.42] {
+        assert!(faces.iter().any(|f| (f - z).abs() < 1e-12), "face at {z}");
+    }
+    assert!(s.cells[0].dz_m < 0.011);
+    assert!(s.cells.last().unwrap().dz_m > 0.15 && s.cells.last().unwrap().dz_m <= 0.25);
+    assert_abs(s.depth_m(), 4.42, 1e-12, "total depth");
+}
+
+#[test]
+fn a_year_of_freezing_and_thawing_conserves_energy() {
+    // Energy balance: Σ Δz (H − H₀) = ∫ (q_top + q_bottom) dt, to 1e-9 of the energy that
+    // crossed the faces (conservation by construction of the finite-volume scheme).
+    let soil = material(1.8, 1.4, 2.0e6, 2.8e6, 1.0e8);
+    let mut s = column(
+        &[(0.05, material(0.03, 0.03, 5e4, 5e4, 0.0)), (6.0, soil)],
+        GridSpec {
+            surface_cell_m: 0.01,
+            growth_ratio: 1.1,
+            max_cell_m: 0.3,
+        },
+        4.0,
+    );
+    let dt = 3600.0;
+    let mut throughput = 0.0;
+    let bottom = BottomCondition::Flux { upward_w_m2: 0.06 };
+    while s.time_s < YEAR - 1.0 {
+        let t = s.time_s + dt;
+        let air = 2.0 - 18.0 * (2.0 * PI * t / YEAR).cos();
+        let top = TopCondition::Air {
+            air_c: air,
+            film_w_m2k: 15.0,
+            extra_resistance_m2k_w: 0.0,
+        };
+        s.step(dt, &top, &bottom).unwrap();
+        throughput += (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt;
+    }
+    let rel = s.energy_imbalance_j_m2().abs() / throughput;
+    assert!(rel < 1e-9, "relative imbalance {rel:e}");
+    let per_step = s.work.iterations as f64 / s.work.steps as f64;
+    assert!(per_step < 6.0, "iterations per step {per_step}");
+}
+
+#[test]
+fn periodic_surface_temperature_damps_and_lags_as_the_closed_form() {
+    // Semi-infinite solid with T(0, t) = A sin ωt: amplitude A e^{−z/d}, lag z/d radians,
+    // d = √(2a/ω) (Carslaw & Jaeger 1959 §2.6). No phase change. 1 % on amplitude.
+    let (k, c) = (1.5, 2.0e6);
+    let a = k / c;
+    let omega = 2.0 * PI / YEAR;
+    let d = (2.0 * a / omega).sqrt();
+    let amp = 10.0;
+    let mut s = column(
+        &[(12.0 * d, material(k, k, c, c, 0.0))],
+        GridSpec {
+            surface_cell_m: 0.02,
+            growth_ratio: 1.02,
+            max_cell_m: 0.2,
+        },
+        0.0,
+    );
+    let dt = 6.0 * 3600.0;
+    let bottom = BottomCondition::Flux { upward_w_m2: 0.0 };
+    let probe: Vec<usize> = [1.0, 2.0]
+        .iter()
+        .map(|m| {
+            s.cells
+                .iter()
+                .position(|cell| cell.top_m + cell.dz_m > m * d)
+                .unwrap()
+        })
+        .collect();
+    let mut hist: Vec<Vec<(f64, f64)>> = vec![Vec::new(); probe.len()];
+    while s.time_s < 4.0 * YEAR - 1.0 {
+        let t = s.time_s + dt;
+        s.step(
+            dt,
+            &TopCondition::Surface {
+                surface_c: amp * (omega * t).sin(),
+            },
+            &bottom,
+        )
+        .unwrap();
+        if s.time_s > 3.0 * YEAR {
+            for (j, &i) in probe.iter().enumerate() {
+                hist[j].push((s.time_s, s.temperature[i]));
+            }
+        }
+    }
+    for (j, &i) in probe.iter().enumerate() {
+        let z = s.cells[i].center_m();
+        // Fit A_z sin(ωt − φ) by projection over the last whole year.
+        let (mut ss, mut cc) = (0.0, 0.0);
+        for &(t, v) in &hist[j] {
+            ss += v * (omega * t).sin();
+            cc += v * (omega * t).cos();
+        }
+        let nn = hist[j].len() as f64;
+        let (ss, cc) = (2.0 * ss / nn, 2.0 * cc / nn);
+        let a_z = (ss * ss + cc * cc).sqrt();
+        let lag = (-cc).atan2(ss);
+        assert_rel(
+            a_z,
+            amp * (-z / d).exp(),
+            0.01,
+            &format!("amplitude at {z:.2} m"),
+        );
+        assert_abs(lag, z / d, 0.02, &format!("lag at {z:.2} m"));
+    }
+}
+
+#[test]
+fn held_conditions_lead_to_the_steady_solution() {
+    // The exact steady solver (Kirchhoff transform) is the long-time limit of the transient
+    // one under held conditions: the 0 °C plane must agree within a cell.
+    let soil = hibernal::materials::MaterialSpec::Soil(hibernal::materials::SoilInput {
+        texture: hibernal::materials::Texture::Silt,
+        model: hibernal::materials::SoilModel::Kersten1949,
+        dry_density_kg_m3: 1600.0,
+        water_content_pct: 20.0,
+        quartz_fraction: 0.3,
+    });
+    let stack = Stack {
+        layers: vec![Layer {
+            name: String::new(),
+            thickness_m: 3.0,
+            material: soil,
+        }],
+        top: Boundary::Surface {
+            temperature_c: -8.0,
+        },
+        bottom: Boundary::Surface { temperature_c: 3.0 },
+    };
+    let exact = steady::solve(&stack).unwrap();
+    let x_exact = exact.zero_planes[0].depth_m;
+    let mat = exact.stack.materials[0].clone();
+    let mut s = column(&[(3.0, mat)], GridSpec::uniform(0.02), 3.0);
+    let top = TopCondition::Surface { surface_c: -8.0 };
+    let bottom = BottomCondition::Temperature { temperature_c: 3.0 };
+    for _ in 0..(40 * 365) {
+        s.step(DAY, &top, &bottom).unwrap();
+    }
+    let x = s.fronts().frost_depth_m;
+    assert_abs(x, x_exact, 0.02, "frost depth vs steady 0 °C plane");
+    // Flux through the top face equals the steady flux.
+    assert_rel(
+        -s.last_top_flux_w_m2,
+        -exact.heat_flux_w_per_m2,
+        0.01,
+        "flux",
+    );
+}
+
+#[test]
+fn freezing_over_a_range_spreads_the_front_and_still_conserves_energy() {
+    // Anderson & Tice 1972 form w_u = α θ^β (from memory; α = 0.08, β = −0.5 are invented
+    // test values for a silty soil holding w = 0.25).
+    let curve = UnfrozenWater {
+        alpha: 0.08,
+        beta: -0.5,
+        total: 0.25,
+    };
+    let soil = material(1.9, 1.3, 2.0e6, 2.9e6, 1.3e8);
+    let cells = cells_for(&[4.0], &[soil], &GridSpec::uniform(0.02), &[Some(curve)]);
+    let mut s = Solver::new(cells, 1.0);
+    let top = TopCondition::Surface { surface_c: -12.0 };
+    let bottom = BottomCondition::Temperature { temperature_c: 1.0 };
+    let mut throughput = 0.0;
+    for _ in 0..(60 * 24) {
+        s.step(3600.0, &top, &bottom).unwrap();
+        throughput += (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * 3600.0;
+    }
+    let partly = (0..s.cells.len())
+        .filter(|&i| {
+            let f = s.frozen_fraction(i);
+            f > 0.05 && f < 0.95
+        })
+        .count();
+    assert!(
+        partly >= 5,
+        "a zone of partly frozen cells, not a sharp front: {partly}"
+    );
+    // Near the surface at −12 °C the liquid share is α θ^β / w = 0.08·12^−0.5/0.25 = 0.092.
+    assert_abs(
+        s.frozen_fraction(0),
+        1.0 - 0.08 * 12f64.powf(-0.5) / 0.25,
+        0.02,
+        "top cell",
+    );
+    let rel = s.energy_imbalance_j_m2().abs() / throughput;
+    assert!(rel < 1e-9, "relative imbalance {rel:e}");
+}
