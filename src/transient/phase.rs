@@ -296,9 +296,15 @@ impl Phase {
             Phase::Inert { law, .. } => law.k(t),
             Phase::Isothermal { law, .. } | Phase::Range { law, .. } => {
                 let theta = self.liquid_share(h, t);
-                let kf = law.frozen.k(t.min(0.0));
-                let ku = law.unfrozen.k(t.max(0.0));
-                kf.powf(1.0 - theta) * ku.powf(theta)
+                if theta >= 1.0 {
+                    law.unfrozen.k(t.max(0.0))
+                } else if theta <= 0.0 {
+                    law.frozen.k(t.min(0.0))
+                } else {
+                    let kf = law.frozen.k(t.min(0.0));
+                    let ku = law.unfrozen.k(t.max(0.0));
+                    kf * (ku / kf).powf(theta)
+                }
             }
         }
     }
