@@ -9,6 +9,13 @@ pub fn reference() -> Value {
     serde_json::from_str(include_str!("../data/reference.json")).expect("reference.json")
 }
 
+/// Closed-form reference values made by tools/analytic_reference.py (scipy brentq and
+/// scipy.special erf/erfc/erfcx).
+pub fn analytic_reference() -> Value {
+    serde_json::from_str(include_str!("../data/analytic_reference.json"))
+        .expect("analytic_reference.json")
+}
+
 pub fn f(v: &Value, key: &str) -> f64 {
     v[key]
         .as_f64()
