@@ -241,3 +241,154 @@ fn freezing_over_a_range_spreads_the_front_and_still_conserves_energy() {
     let rel = s.energy_imbalance_j_m2().abs() / throughput;
     assert!(rel < 1e-9, "relative imbalance {rel:e}");
 }
+
+use hibernal::analytic::{self, NeumannProblem};
+
+/// Freeze a column from a held surface and return the front depth after `days`.
+fn freeze_from_surface(
+    p: &NeumannProblem,
+    depth: f64,
+    cell: f64,
+    dt: f64,
+    days: f64,
+) -> (f64, f64) {
+    let m = material(
+        p.k_frozen,
+        p.k_unfrozen,
+        p.c_frozen_j_m3k,
+        p.c_unfrozen_j_m3k,
+        p.latent_j_m3,
+    );
+    let mut s = column(&[(depth, m)], GridSpec::uniform(cell), p.initial_c);
+    let top = TopCondition::Surface {
+        surface_c: p.surface_c,
+    };
+    let bottom = BottomCondition::Temperature {
+        temperature_c: p.initial_c,
+    };
+    let steps = (days * DAY / dt).round() as usize;
+    for _ in 0..steps {
+        s.step(dt, &top, &bottom).unwrap();
+    }
+    (
+        s.fronts().frost_depth_m,
+        s.work.iterations as f64 / s.work.steps as f64,
+    )
+}
+
+fn lunardini_soil() -> NeumannProblem {
+    // Lunardini 1981 (after Jumikis 1966), the model reference's published soil example.
+    NeumannProblem {
+        surface_c: -10.0,
+        initial_c: 2.0,
+        freezing_c: 0.0,
+        k_frozen: 2.324,
+        k_unfrozen: 1.860,
+        c_frozen_j_m3k: 1.966e6,
+        c_unfrozen_j_m3k: 2.862e6,
+        latent_j_m3: 1.1045e8,
+    }
+}
+
+#[test]
+fn soil_front_matches_the_neumann_solution_within_one_percent() {
+    // Neumann two-phase solution (Carslaw & Jaeger 1959 §11.2), published soil example: front
+    // about 1.36 m after 60 days. 1 cm cells, hourly steps: within 1 % of exact.
+    let p = lunardini_soil();
+    let exact = p.solve().unwrap();
+    let (x, per_step) = freeze_from_surface(&p, 8.0, 0.01, 3600.0, 60.0);
+    let x_exact = exact.front_depth_m(60.0 * DAY);
+    assert_rel(x, x_exact, 0.01, "front at 60 days");
+    assert_abs(x_exact, 1.36, 0.01, "the published figure");
+    // A front crossing about a cell per step costs a few passes (measured 4.8), not tens.
+    assert!(per_step < 6.0, "iterations per step {per_step}");
+}
+
+#[test]
+fn water_freezing_to_ice_matches_the_neumann_solution() {
+    // Water at +4 °C under a −10 °C surface: ice k 2.2, water k 0.556 (model reference §2),
+    // C = ρc of ice and water, L = ρ_ice × 333.4 kJ/kg. Neumann solution, 1 % at 1 cm cells.
+    let p = NeumannProblem {
+        surface_c: -10.0,
+        initial_c: 4.0,
+        freezing_c: 0.0,
+        k_frozen: 2.2,
+        k_unfrozen: 0.556,
+        c_frozen_j_m3k: 916.7 * 2097.0,
+        c_unfrozen_j_m3k: 999.8 * 4219.0,
+        latent_j_m3: 916.7 * 333.4e3,
+    };
+    let exact = p.solve().unwrap();
+    let (x, _) = freeze_from_surface(&p, 3.0, 0.01, 3600.0, 30.0);
+    assert_rel(
+        x,
+        exact.front_depth_m(30.0 * DAY),
+        0.01,
+        "ice thickness at 30 days",
+    );
+}
+
+#[test]
+fn one_phase_stefan_problem_matches_its_solution() {
+    // One-phase Stefan problem: ground initially at the freezing point; X = 2λ√(a_f t) with
+    // λ e^{λ²} erf λ = Ste/√π (Crank, Free and Moving Boundary Problems §1.3).
+    let mut p = lunardini_soil();
+    p.initial_c = 0.0;
+    let lambda = analytic::one_phase_lambda(p.c_frozen_j_m3k * 10.0 / p.latent_j_m3).unwrap();
+    let a = p.k_frozen / p.c_frozen_j_m3k;
+    let (x, _) = freeze_from_surface(&p, 4.0, 0.01, 3600.0, 60.0);
+    assert_rel(
+        x,
+        2.0 * lambda * (a * 60.0 * DAY).sqrt(),
+        0.01,
+        "one-phase front",
+    );
+}
+
+#[test]
+fn the_front_converges_with_grid_and_time_step() {
+    // Refining cells (4, 2, 1 cm) and steps (4, 2, 1 h) moves the front towards the Neumann
+    // solution; the finest is within 1 %, and the error falls as the grid is refined.
+    let p = lunardini_soil();
+    let x_exact = p.solve().unwrap().front_depth_m(20.0 * DAY);
+    let errs: Vec<f64> = [(0.04, 4.0), (0.02, 2.0), (0.01, 1.0)]
+        .iter()
+        .map(|&(cell, hours)| {
+            let (x, _) = freeze_from_surface(&p, 5.0, cell, hours * 3600.0, 20.0);
+            ((x - x_exact) / x_exact).abs()
+        })
+        .collect();
+    assert!(errs[2] < 0.01, "finest error {:?}", errs);
+    assert!(errs[2] < errs[0], "refinement helps: {:?}", errs);
+}
+
+#[test]
+fn lake_ice_grows_within_the_published_range_of_stefan_coefficients() {
+    // Lake ice h = α √(freezing degree-days) (Stefan's law; Michel 1971 via Ashton, from
+    // memory): α ≈ 2.7 cm/(°C·d)^½ for a windy lake with no snow, and no more than the ideal
+    // Stefan coefficient √(2k/ρL) ≈ 3.5. A lake at 0 °C under air at −15 °C through a
+    // windy film (h = 30 W/m²K) for 60 days (900 °C·days).
+    let ice_water = Material {
+        conductivity: ConductivityLaw {
+            frozen: Branch::IceIh,
+            unfrozen: Branch::Constant(0.556),
+        },
+        ..material(2.2, 0.556, 916.7 * 2097.0, 999.8 * 4219.0, 916.7 * 333.4e3)
+    };
+    let mut s = column(&[(3.0, ice_water)], GridSpec::uniform(0.005), 0.0);
+    let top = TopCondition::Air {
+        air_c: -15.0,
+        film_w_m2k: 30.0,
+        extra_resistance_m2k_w: 0.0,
+    };
+    let bottom = BottomCondition::Temperature { temperature_c: 0.0 };
+    for _ in 0..(60 * 24) {
+        s.step(3600.0, &top, &bottom).unwrap();
+    }
+    let h_cm = 100.0 * s.fronts().frost_depth_m;
+    let alpha = h_cm / 900f64.sqrt();
+    assert!(
+        alpha > 2.2 && alpha < 3.53,
+        "Stefan coefficient {alpha:.2} cm/(°C·d)^½"
+    );
+}
