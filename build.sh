@@ -4,6 +4,7 @@
 #   ./build.sh serve    build, then serve dist/ on http://localhost:8000
 #   ./build.sh test     every quality gate: fmt, clippy, native tests, wasm tests in headless
 #                       Chromium, end-to-end tests of the built page
+#   ./build.sh bench    the reference-year benchmark, native and as wasm in headless Chromium
 # Idempotent: it installs on a fresh machine whatever it needs, and skips what is there.
 set -euo pipefail
 cd "$(dirname "$0")"
@@ -123,8 +124,15 @@ case "${1:-build}" in
     python3 -m http.server 8000 --bind 127.0.0.1 --directory dist
     ;;
   test) run_tests ;;
+  bench)
+    ensure_browser
+    cargo bench --bench reference_year
+    build_page >/dev/null
+    ensure_node_deps
+    node e2e/bench.mjs
+    ;;
   *)
-    echo "usage: ./build.sh [build|serve|test]" >&2
+    echo "usage: ./build.sh [build|serve|test|bench]" >&2
     exit 2
     ;;
 esac

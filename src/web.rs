@@ -324,3 +324,41 @@ pub fn draw_profile(
         Err(e) => fail(e.to_string()),
     }
 }
+
+#[derive(Serialize)]
+struct BenchOutcome {
+    ms: f64,
+    cells: usize,
+    steps: u64,
+    iterations: u64,
+    iterations_per_step: f64,
+    cell_updates_per_s: f64,
+    max_frost_depth_m: f64,
+}
+
+/// Run the reference year (the benchmark case of `transient::reference`) once and time it
+/// with the page's clock. For the benchmark script, not for users.
+#[wasm_bindgen]
+pub fn benchmark_reference_year() -> JsValue {
+    let now = || {
+        web_sys::window()
+            .and_then(|w| w.performance())
+            .map_or(0.0, |p| p.now())
+    };
+    let (spec, forcing) = crate::transient::reference::reference_year();
+    let t0 = now();
+    let r = crate::transient::run::run(&spec, &forcing);
+    let ms = now() - t0;
+    match r {
+        Ok(r) => to_js(&BenchOutcome {
+            ms,
+            cells: r.cells,
+            steps: r.steps,
+            iterations: r.iterations,
+            iterations_per_step: r.iterations as f64 / r.steps as f64,
+            cell_updates_per_s: r.cells as f64 * r.iterations as f64 / (ms / 1000.0),
+            max_frost_depth_m: r.max_frost_depth_m,
+        }),
+        Err(e) => JsValue::from_str(&e.to_string()),
+    }
+}

@@ -153,6 +153,8 @@ pub struct Solver {
     r: Vec<f64>,
     cp: Vec<f64>,
     dp: Vec<f64>,
+    /// Δz/Δt of each cell for the current step.
+    cap: Vec<f64>,
 }
 
 /// The fronts read off the column at one instant.
@@ -191,6 +193,7 @@ impl Solver {
             r: vec![0.0; n],
             cp: vec![0.0; n],
             dp: vec![0.0; n],
+            cap: vec![0.0; n],
         };
         s.energy_start_j_m2 = s.stored_energy_j_m2();
         s
@@ -326,6 +329,10 @@ impl Solver {
         let tol = self.tolerances.enthalpy_j_m3;
         let g_bottom_row = matches!(bottom, BottomCondition::Temperature { .. });
         let mut last_residual = f64::INFINITY;
+        let inv_dt = 1.0 / dt;
+        for i in 0..n {
+            self.cap[i] = self.cells[i].dz_m * inv_dt;
+        }
         for iter in 0..=self.tolerances.max_iterations {
             self.update_conductances(top, bottom);
             let (q_top, q_bot) = self.fluxes(top, bottom);
@@ -333,7 +340,6 @@ impl Solver {
             // |R_i| Δt/Δz (J/m³).
             let mut worst: f64 = 0.0;
             for i in 0..n {
-                let dz = self.cells[i].dz_m;
                 let up = if i == 0 {
                     q_top
                 } else {
@@ -344,8 +350,14 @@ impl Solver {
                 } else {
                     self.g[i + 1] * (self.temperature[i + 1] - self.temperature[i])
                 };
-                let res = dz * (self.enthalpy[i] - self.h_old[i]) / dt - (up + down);
-                worst = worst.max((res * dt / dz).abs());
+                let res = self.cap[i] * (self.enthalpy[i] - self.h_old[i]) - (up + down);
+                // |R| Δt/Δz as an enthalpy error, compared without dividing.
+                if res.abs() > tol * self.cap[i] {
+                    worst = worst.max(res.abs() / self.cap[i]);
+                }
+                if !res.is_finite() {
+                    worst = f64::INFINITY;
+                }
                 self.r[i] = -res;
             }
             if !worst.is_finite() {
@@ -375,7 +387,7 @@ impl Solver {
                 } else {
                     0.0
                 };
-                self.b[i] = self.cells[i].dz_m / dt + (g_up + g_dn) * self.slope[i];
+                self.b[i] = self.cap[i] + (g_up + g_dn) * self.slope[i];
                 self.a[i] = if i > 0 {
                     -self.g[i] * self.slope[i - 1]
                 } else {
@@ -455,12 +467,14 @@ impl Solver {
 /// Diagonally dominant here (Δz/Δt on the diagonal), so no pivoting is needed.
 fn thomas(a: &[f64], b: &[f64], c: &[f64], r: &[f64], cp: &mut [f64], dp: &mut [f64]) {
     let n = b.len();
-    cp[0] = c[0] / b[0];
-    dp[0] = r[0] / b[0];
+    // One reciprocal per row keeps a single division on the sequential chain.
+    let inv = 1.0 / b[0];
+    cp[0] = c[0] * inv;
+    dp[0] = r[0] * inv;
     for i in 1..n {
-        let m = b[i] - a[i] * cp[i - 1];
-        cp[i] = c[i] / m;
-        dp[i] = (r[i] - a[i] * dp[i - 1]) / m;
+        let inv = 1.0 / (b[i] - a[i] * cp[i - 1]);
+        cp[i] = c[i] * inv;
+        dp[i] = (r[i] - a[i] * dp[i - 1]) * inv;
     }
     for i in (0..n - 1).rev() {
         dp[i] -= cp[i] * dp[i + 1];
