@@ -1,10 +1,12 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
-//! The physics core ([`materials`], [`stack`], [`steady`], [`units`]) knows nothing of the
-//! browser, of serde or of plotting. The edges are: [`scenario`] (the versioned JSON
-//! document and the report, serde), [`chart`] (plotters, generic over the drawing backend),
-//! the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32 only).
+//! The physics core ([`materials`], [`stack`], [`steady`], [`climate`], [`units`]) knows
+//! nothing of the browser, of serde or of plotting. The edges are: [`scenario`] (the
+//! versioned JSON document and the report, serde), [`chart`] (plotters, generic over the
+//! drawing backend), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for
+//! wasm32 only).
 
+pub mod climate;
 pub mod error;
 pub mod materials;
 pub mod stack;
