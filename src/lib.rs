@@ -3,8 +3,8 @@
 //! The physics core ([`materials`], [`stack`], [`steady`], [`climate`], [`units`]) knows
 //! nothing of the browser, of serde or of plotting. The edges are: [`scenario`] (the
 //! versioned JSON document and the report, serde), [`chart`] (plotters, generic over the
-//! drawing backend), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for
-//! wasm32 only).
+//! drawing backend), [`climate_csv`] (daily climate records from CSV text), the CLI in
+//! `src/bin`, and the wasm bindings in `web` (compiled for wasm32 only).
 
 pub mod climate;
 pub mod error;
@@ -14,6 +14,7 @@ pub mod steady;
 pub mod units;
 
 pub mod chart;
+pub mod climate_csv;
 pub mod scenario;
 
 #[cfg(target_arch = "wasm32")]

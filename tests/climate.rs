@@ -1,5 +1,5 @@
 //! The climate that drives a winter: freezing indices, design values, the periodic
-//! climates and n-factors. Each check names its source.
+//! climates, n-factors, and daily records read from CSV. Each check names its source.
 
 mod common;
 use common::*;
@@ -11,6 +11,11 @@ use hibernal::climate::{
     thawing_index_c_days, Climate, DailySeries, DayRecord, DesignOptions, Surface, MAX_SERIES_DAYS,
     SECONDS_PER_DAY,
 };
+use hibernal::climate_csv::{
+    read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, TemperatureUnit, MAX_CSV_BYTES,
+    MAX_REPORTED_PROBLEMS,
+};
+use proptest::prelude::*;
 use std::f64::consts::PI;
 
 fn date(s: &str) -> NaiveDate {
@@ -496,4 +501,401 @@ fn n_factors_and_surface_freezing_index() {
     // Surface freezing index = n × air freezing index (same source): 0.5 × 1200 = 600.
     let turf = Surface::Turf.freezing_n_factor();
     assert_eq!(surface_freezing_index_c_days(turf, 1200.0), 600.0);
+}
+
+// ---------------------------------------------------------------- CSV
+
+fn csv_ok(text: &str, o: &CsvOptions) -> hibernal::climate_csv::CsvImport {
+    read_daily_csv(text, o).unwrap_or_else(|e| panic!("{e}"))
+}
+
+#[test]
+fn csv_in_fahrenheit_and_inches_converts_by_nist_factors() {
+    // NIST SP 811 Appendix B: T/°C = (T/°F − 32)/1.8; 1 in = 0.0254 m, 1 ft = 0.3048 m
+    // (exact); 1 lb/ft³ = 16.018 46 kg/m³.
+    let text = "date, air temp (°F), snow depth [in], snow density (lb/ft3)\n\
+                2021-01-01,-40,12,15\n\
+                2021-01-02,32,0,\n\
+                2021-01-03,212,1.5,\n";
+    let o = CsvOptions {
+        temperature: TemperatureUnit::Fahrenheit,
+        snow_depth: DepthUnit::Inch,
+        snow_density: DensityUnit::LbPerFt3,
+        ..CsvOptions::default()
+    };
+    // 212 °F = 100 °C is beyond the −90..60 °C accepted: refused, quoting what was written.
+    let e = read_daily_csv(text, &o).unwrap_err();
+    assert_eq!(e.problems.len(), 1);
+    let msg = e.to_string();
+    assert!(
+        msg.starts_with("line 4, mean air temperature: must be between -90 and 60 °C (got 100)"),
+        "{msg}"
+    );
+    assert!(msg.contains("written 212 °F"), "{msg}");
+
+    let text = text.replace("212", "50");
+    let r = csv_ok(&text, &o);
+    let days = r.series.days();
+    // Conversions through the core's factors are within a few ulps of the exact values.
+    assert_abs(days[0].mean_air_c, -40.0, 1e-12, "−40 °F = −40 °C");
+    assert_abs(days[1].mean_air_c, 0.0, 1e-12, "32 °F = 0 °C");
+    assert_abs(days[2].mean_air_c, 10.0, 1e-12, "50 °F = 10 °C");
+    assert_rel(
+        days[0].snow_depth_m.unwrap(),
+        0.3048,
+        1e-12,
+        "12 in = 0.3048 m",
+    );
+    assert_rel(days[2].snow_depth_m.unwrap(), 0.0381, 1e-12, "1.5 in");
+    // NIST's 16.018 46 has 7 significant figures.
+    assert_rel(
+        days[0].snow_density_kg_m3.unwrap(),
+        15.0 * 16.01846,
+        1e-6,
+        "15 lb/ft³",
+    );
+    assert_eq!(days[1].snow_density_kg_m3, None);
+    assert_eq!(r.skipped_lines, 0);
+
+    // Feet and centimetres.
+    let o = CsvOptions {
+        snow_depth: DepthUnit::Foot,
+        ..CsvOptions::default()
+    };
+    let r = csv_ok("date,temperature,snow\n2021-01-01,-3,2\n", &o);
+    assert_rel(
+        r.series.days()[0].snow_depth_m.unwrap(),
+        0.6096,
+        1e-12,
+        "2 ft",
+    );
+    let o = CsvOptions {
+        snow_depth: DepthUnit::Centimetre,
+        ..CsvOptions::default()
+    };
+    let r = csv_ok(
+        "Date,Mean_Air_Temperature,Snow-Depth\n2021-01-01,-3,45\n",
+        &o,
+    );
+    assert_rel(
+        r.series.days()[0].snow_depth_m.unwrap(),
+        0.45,
+        1e-12,
+        "45 cm",
+    );
+}
+
+#[test]
+fn csv_bad_lines_are_all_reported_by_line_number_and_nothing_is_imported() {
+    // Line numbers as a text editor counts them: comments and empty lines count.
+    let text = "# an invented test file\n\
+                date,mean air temperature,snow depth\n\
+                \n\
+                2021-01-01,-3,0.1\n\
+                2021-01-02,abc,0.1\n\
+                2021-01-03,-4,-0.2\n\
+                2021-01-04,-4,\n\
+                2021-13-05,-4,\n\
+                2021-01-06,,0.1\n\
+                2021-01-07,-4,0.1,7\n";
+    let e = read_daily_csv(text, &CsvOptions::default()).unwrap_err();
+    let lines: Vec<String> = e.to_string().lines().map(str::to_string).collect();
+    assert_eq!(
+        lines,
+        [
+            "line 5, mean air temperature: 'abc' is not a number",
+            "line 6, snow depth: must be between 0 and 20 m (got -0.2)",
+            "line 8, date: '2021-13-05' is not a day of the calendar",
+            "line 9, mean air temperature: missing: this column is required",
+            "line 10: 4 cells, but the header names 3 columns",
+        ],
+    );
+    assert_eq!(e.more, 0);
+}
+
+#[test]
+fn csv_gaps_and_out_of_order_dates_are_reported() {
+    let text = "date,temperature\n\
+                2021-01-01,-3\n\
+                2021-01-02,-3\n\
+                2021-01-05,-3\n\
+                2021-01-04,-3\n\
+                2021-01-06,-3\n\
+                2021-01-06,-3\n";
+    let e = read_daily_csv(text, &CsvOptions::default()).unwrap_err();
+    let lines: Vec<&str> = e.problems.iter().map(|p| p.kind.id()).collect();
+    assert_eq!(
+        lines,
+        ["date_gap", "date_out_of_order", "date_out_of_order"]
+    );
+    let msg = e.to_string();
+    assert!(
+        msg.contains("line 4, date: 2 days missing between 2021-01-02 and 2021-01-05"),
+        "{msg}"
+    );
+    assert!(
+        msg.contains("line 5, date: 2021-01-04 does not come after the previous date 2021-01-05"),
+        "{msg}"
+    );
+    assert!(
+        msg.contains("line 7, date: 2021-01-06 does not come after the previous date 2021-01-06"),
+        "{msg}"
+    );
+    // Gaps up to the chosen length are filled linearly and counted: 2021-01-02 at −3 and
+    // 2021-01-05 at 3 → the 3rd at −1 and the 4th at 1 (hand arithmetic).
+    let o = CsvOptions {
+        max_gap_fill_days: 2,
+        ..CsvOptions::default()
+    };
+    let r = csv_ok("date,temperature\n2021-01-02,-3\n2021-01-05,3\n", &o);
+    assert_eq!(r.filled_days, 2);
+    let t: Vec<f64> = r.series.days().iter().map(|d| d.mean_air_c).collect();
+    assert_eq!(t.len(), 4);
+    assert_abs(t[1], -1.0, 1e-12, "filled");
+    assert_abs(t[2], 1.0, 1e-12, "filled");
+    let o = CsvOptions {
+        max_gap_fill_days: 1,
+        ..CsvOptions::default()
+    };
+    assert_eq!(
+        read_daily_csv("date,temperature\n2021-01-02,-3\n2021-01-05,3\n", &o)
+            .unwrap_err()
+            .problems[0]
+            .kind
+            .id(),
+        "date_gap"
+    );
+}
+
+#[test]
+fn csv_skip_mode_leaves_bad_lines_out_and_counts_them() {
+    let text = "date,temperature\n\
+                2021-01-01,-3\n\
+                2021-01-02,x\n\
+                2021-01-02,-2\n\
+                2021-01-03,-1\n\
+                2021-01-02,-9\n\
+                2021-01-04,999\n\
+                2021-01-04,0\n";
+    let o = CsvOptions {
+        bad_lines: BadLines::Skip,
+        ..CsvOptions::default()
+    };
+    // Line 3 (not a number), line 6 (out of order), line 7 (out of range) are skipped.
+    let r = csv_ok(text, &o);
+    assert_eq!(r.skipped_lines, 3);
+    let skipped_at: Vec<Option<usize>> = r.skipped.iter().map(|p| p.line).collect();
+    assert_eq!(skipped_at, [Some(3), Some(6), Some(7)]);
+    let t: Vec<f64> = r.series.days().iter().map(|d| d.mean_air_c).collect();
+    assert_eq!(t, [-3.0, -2.0, -1.0, 0.0]);
+    // A skipped line that leaves a hole is a gap: refused, unless filling is allowed.
+    let text = "date,temperature\n2021-01-01,-3\n2021-01-02,x\n2021-01-03,-1\n";
+    let e = read_daily_csv(text, &o).unwrap_err();
+    assert_eq!(e.problems[0].line, Some(4));
+    assert_eq!(e.problems[0].kind.id(), "date_gap");
+    let o = CsvOptions {
+        bad_lines: BadLines::Skip,
+        max_gap_fill_days: 1,
+        ..CsvOptions::default()
+    };
+    let r = csv_ok(text, &o);
+    assert_eq!((r.skipped_lines, r.filled_days, r.series.len()), (1, 1, 3));
+    assert_abs(
+        r.series.days()[1].mean_air_c,
+        -2.0,
+        1e-12,
+        "filled between −3 and −1",
+    );
+}
+
+#[test]
+fn csv_lists_at_most_the_cap_and_says_how_many_more() {
+    let mut text = String::from("date,temperature\n");
+    for i in 0..80 {
+        let d = date("2021-01-01") + chrono::Days::new(i);
+        text.push_str(&format!("{d},oops\n"));
+    }
+    let e = read_daily_csv(&text, &CsvOptions::default()).unwrap_err();
+    assert_eq!(e.problems.len(), MAX_REPORTED_PROBLEMS);
+    assert_eq!(e.more, 80 - MAX_REPORTED_PROBLEMS);
+    assert!(e.to_string().ends_with("… and 30 more problems"), "{e}");
+}
+
+#[test]
+fn csv_header_problems_are_named() {
+    let o = CsvOptions::default();
+    let msg = |t: &str| read_daily_csv(t, &o).unwrap_err().to_string();
+    assert!(msg("date,temperature (°F)\n2021-01-01,3\n")
+        .contains("line 1, mean air temperature: the header says °F but °C was chosen"));
+    assert!(msg("date,temperature (K)\n").contains("'K' is not a unit this column takes"));
+    assert!(msg("date,temprature\n").contains("line 1, column 2: 'temprature' is not a column"));
+    assert!(msg("# c\n\ndate,snow depth\n")
+        .contains("line 3, mean air temperature: this column is required and missing"));
+    assert!(msg("date,temp,air temperature\n").contains("named twice"));
+    assert!(msg("").contains("no header line"));
+    assert!(msg("date,temp\n\n").contains("no days"));
+    // SI keys carry their unit.
+    let r = csv_ok(
+        "date,mean_air_c,snow_depth_m,snow_density_kg_m3\n2021-01-01,-3,0.4,250\n",
+        &o,
+    );
+    assert_eq!(r.series.days()[0].snow_density_kg_m3, Some(250.0));
+    // Column order is free; quoted cells and CRLF are fine.
+    let r = csv_ok("\"Snow Depth\",Day,Temp\r\n\"0.2\",2021-01-01,-3\r\n", &o);
+    assert_eq!(r.series.days()[0].snow_depth_m, Some(0.2));
+    // Too large.
+    let big = "x".repeat(MAX_CSV_BYTES + 1);
+    assert!(read_daily_csv(&big, &o)
+        .unwrap_err()
+        .to_string()
+        .contains("at most"));
+}
+
+#[test]
+fn invented_examples_match_the_independent_python_reference() {
+    // tools/climate_examples.py made both files and, independently (Python datetime for the
+    // winters, its own implementation of the TM 5-852-6 definitions, NIST SP 811
+    // conversions), tests/data/climate_reference.json. Same inputs, same order of
+    // summation: 1e-9 relative allows for any difference in rounding.
+    let reference: serde_json::Value =
+        serde_json::from_str(include_str!("data/climate_reference.json")).unwrap();
+
+    let name = "cold-inland-valley-five-winters.csv";
+    let r = &reference["examples"][name];
+    let o = CsvOptions {
+        snow_depth: DepthUnit::Centimetre,
+        ..CsvOptions::default()
+    };
+    let imp = csv_ok(
+        include_str!("../scenarios/climate/cold-inland-valley-five-winters.csv"),
+        &o,
+    );
+    assert_eq!(imp.series.len() as u64, r["days"].as_u64().unwrap());
+    assert_eq!(
+        imp.series.first_date().to_string(),
+        r["first_date"].as_str().unwrap()
+    );
+    assert!(imp.series.has_snow());
+    let d = design_freezing_index(&imp.series, &DesignOptions::default()).unwrap();
+    let rw = r["winters"].as_array().unwrap();
+    assert_eq!(d.winters.len(), rw.len());
+    for (w, x) in d.winters.iter().zip(rw) {
+        assert_eq!(w.start.to_string(), x["start"].as_str().unwrap());
+        assert_rel(
+            w.freezing_index_c_days,
+            f(x, "freezing_index_c_days"),
+            1e-9,
+            "winter freezing index",
+        );
+        assert_rel(
+            w.freezing_degree_days_c_days,
+            f(x, "freezing_degree_days_c_days"),
+            1e-9,
+            "winter sum",
+        );
+    }
+    assert_rel(
+        d.mean_of_three_coldest_c_days,
+        f(r, "mean_of_three_coldest_c_days"),
+        1e-9,
+        "mean of three coldest",
+    );
+    assert_rel(d.coldest_c_days, f(r, "coldest_c_days"), 1e-9, "coldest");
+
+    let name = "windswept-upland-one-winter-fahrenheit.csv";
+    let r = &reference["examples"][name];
+    let o = CsvOptions {
+        temperature: TemperatureUnit::Fahrenheit,
+        snow_depth: DepthUnit::Inch,
+        ..CsvOptions::default()
+    };
+    let imp = csv_ok(
+        include_str!("../scenarios/climate/windswept-upland-one-winter-fahrenheit.csv"),
+        &o,
+    );
+    assert_eq!(imp.series.len() as u64, r["days"].as_u64().unwrap());
+    let t = imp.series.mean_air_c();
+    assert_rel(
+        freezing_index_c_days(&t),
+        f(r, "freezing_index_c_days"),
+        1e-9,
+        "freezing index",
+    );
+    assert_rel(
+        freezing_degree_days_sum(&t),
+        f(r, "freezing_degree_days_c_days"),
+        1e-9,
+        "sum",
+    );
+    let max_depth = imp
+        .series
+        .days()
+        .iter()
+        .filter_map(|d| d.snow_depth_m)
+        .fold(0.0, f64::max);
+    assert_rel(max_depth, f(r, "max_snow_depth_m"), 1e-12, "deepest snow");
+    for spot in r["spot"].as_array().unwrap() {
+        let day = imp
+            .series
+            .days()
+            .iter()
+            .find(|d| d.date.to_string() == spot["date"].as_str().unwrap())
+            .unwrap();
+        assert_abs(day.mean_air_c, f(spot, "mean_air_c"), 1e-12, "°F → °C");
+        assert_abs(
+            day.snow_depth_m.unwrap(),
+            f(spot, "snow_depth_m"),
+            1e-12,
+            "in → m",
+        );
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(300))]
+
+    /// Any text: no panic, and the answer is bounded.
+    #[test]
+    fn arbitrary_text_never_panics(text in "\\PC{0,400}", skip in any::<bool>(), fill in 0u32..5) {
+        let o = CsvOptions {
+            bad_lines: if skip { BadLines::Skip } else { BadLines::Refuse },
+            max_gap_fill_days: fill,
+            ..CsvOptions::default()
+        };
+        match read_daily_csv(&text, &o) {
+            Ok(r) => prop_assert!(r.series.len() <= MAX_SERIES_DAYS && r.skipped.len() <= MAX_REPORTED_PROBLEMS),
+            Err(e) => {
+                prop_assert!(!e.problems.is_empty() && e.problems.len() <= MAX_REPORTED_PROBLEMS);
+                prop_assert!(e.to_string().len() < 400 * MAX_REPORTED_PROBLEMS);
+            }
+        }
+    }
+
+    /// CSV-shaped text with random cells reaches the per-line checks: no panic, bounded, and
+    /// every problem names a line.
+    #[test]
+    fn csv_shaped_text_never_panics(
+        rows in prop::collection::vec(
+            (prop::sample::select(vec!["2021-01-01", "2021-01-02", "2021-01-03", "2021-01-09", "1999-12-31", "2021-02-30", "", "x", "+002021-01-01", "9999-12-31"]),
+             prop::sample::select(vec!["-3", "1e308", "NaN", "inf", "", "abc", "-90.1", "59.9", "0"]),
+             prop::sample::select(vec!["", "0", "-1", "25", "0.3", "1e-300"]),
+             prop::sample::select(vec!["", "10", "9", "917", "300", "x"])),
+            0..30),
+        skip in any::<bool>(),
+        fill in 0u32..32,
+    ) {
+        let mut text = String::from("date,temperature,snow depth,snow density\n");
+        for (a, b, c, d) in rows {
+            text.push_str(&format!("{a},{b},{c},{d}\n"));
+        }
+        let o = CsvOptions {
+            bad_lines: if skip { BadLines::Skip } else { BadLines::Refuse },
+            max_gap_fill_days: fill,
+            ..CsvOptions::default()
+        };
+        match read_daily_csv(&text, &o) {
+            Ok(r) => prop_assert!(r.series.len() <= 30 * 32 + 30),
+            Err(e) => prop_assert!(e.problems.len() <= MAX_REPORTED_PROBLEMS),
+        }
+    }
 }
