@@ -50,6 +50,26 @@ pub enum InputErrorKind {
     /// The document itself could not be read.
     #[error("{0}")]
     Format(String),
+    /// A date that does not come after the date before it (dates are ISO 8601 text).
+    #[error("{date} does not come after the previous date {previous}")]
+    DateOutOfOrder { date: String, previous: String },
+    /// Days missing between two consecutive records (dates are ISO 8601 text).
+    #[error("{missing} {} missing between {previous} and {date}", if *.missing == 1 { "day" } else { "days" })]
+    DateGap {
+        date: String,
+        previous: String,
+        missing: u64,
+    },
+    /// A climate series too short for design values.
+    #[error(
+        "{complete} complete {} in the series (each running from {season_start} to the day before {season_start} of the next year); design values need at least {needed}",
+        if *.complete == 1 { "winter" } else { "winters" }
+    )]
+    TooFewWinters {
+        complete: usize,
+        needed: usize,
+        season_start: String,
+    },
 }
 
 impl InputErrorKind {
@@ -66,6 +86,9 @@ impl InputErrorKind {
             InputErrorKind::Count { .. } => "count",
             InputErrorKind::NotCovered(_) => "not_covered",
             InputErrorKind::Format(_) => "format",
+            InputErrorKind::DateOutOfOrder { .. } => "date_out_of_order",
+            InputErrorKind::DateGap { .. } => "date_gap",
+            InputErrorKind::TooFewWinters { .. } => "too_few_winters",
         }
     }
 
@@ -188,22 +211,33 @@ pub(crate) mod check {
         max: f64,
         unit: &'static str,
     ) -> bool {
+        match within_kind(value, min, max, unit) {
+            Some(kind) => {
+                errs.push(field, kind);
+                false
+            }
+            None => true,
+        }
+    }
+
+    /// What is wrong with `value` if it is not finite or not in `[min, max]`.
+    pub fn within_kind(
+        value: f64,
+        min: f64,
+        max: f64,
+        unit: &'static str,
+    ) -> Option<InputErrorKind> {
         if !value.is_finite() {
-            errs.push(field, InputErrorKind::NotFinite);
-            false
+            Some(InputErrorKind::NotFinite)
         } else if value < min || value > max {
-            errs.push(
-                field,
-                InputErrorKind::OutOfBounds {
-                    value,
-                    min,
-                    max,
-                    unit,
-                },
-            );
-            false
+            Some(InputErrorKind::OutOfBounds {
+                value,
+                min,
+                max,
+                unit,
+            })
         } else {
-            true
+            None
         }
     }
 }

@@ -1,12 +1,14 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
-//! The physics core ([`materials`], [`stack`], [`steady`], [`analytic`], [`units`]) knows
-//! nothing of the browser, of serde or of plotting. The edges are: [`scenario`] (the
-//! versioned JSON document and the report, serde), [`chart`] (plotters, generic over the
-//! drawing backend), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for
-//! wasm32 only).
+//! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`],
+//! [`climate`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
+//! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
+//! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
+//! from CSV text), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32
+//! only).
 
 pub mod analytic;
+pub mod climate;
 pub mod error;
 pub mod materials;
 pub mod stack;
@@ -15,6 +17,7 @@ pub mod transient;
 pub mod units;
 
 pub mod chart;
+pub mod climate_csv;
 pub mod scenario;
 
 #[cfg(target_arch = "wasm32")]

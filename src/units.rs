@@ -67,6 +67,12 @@ const fn u(symbol: &'static str, factor: f64, offset: f64, decimals: u8) -> Unit
     }
 }
 
+/// K → °F (a temperature difference of 1 K is 1.8 °F).
+pub const DEG_F_PER_K: f64 = 1.8;
+/// °F reading at 0 °C.
+pub const DEG_F_AT_0_C: f64 = 32.0;
+/// m → cm (SI prefix).
+pub const CM_PER_M: f64 = 100.0;
 /// m → ft.
 pub const FT_PER_M: f64 = 1.0 / 0.3048;
 /// m → in.
@@ -91,16 +97,16 @@ pub const QUANTITIES: [Quantity; 16] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
-        us: u("°F", 1.8, 32.0, 1),
+        us: u("°F", DEG_F_PER_K, DEG_F_AT_0_C, 1),
     },
     Quantity {
         id: "temperature_difference",
         si: u("K", 1.0, 0.0, 1),
-        us: u("°F", 1.8, 0.0, 1),
+        us: u("°F", DEG_F_PER_K, 0.0, 1),
     },
     Quantity {
         id: "thickness",
-        si: u("cm", 100.0, 0.0, 1),
+        si: u("cm", CM_PER_M, 0.0, 1),
         us: u("in", IN_PER_M, 0.0, 2),
     },
     Quantity {
