@@ -392,3 +392,61 @@ fn lake_ice_grows_within_the_published_range_of_stefan_coefficients() {
         "Stefan coefficient {alpha:.2} cm/(°C·d)^½"
     );
 }
+
+#[test]
+fn a_design_winter_drives_a_run_whose_air_freezing_index_is_the_one_asked_for() {
+    // The design winter is built so its freezing season integrates to the index asked for
+    // (climate module); a run under it must measure the same air freezing index (range of the
+    // cumulative degree-day curve, TM 5-852-6) to the resolution of hourly steps.
+    use hibernal::climate::Climate;
+    use hibernal::transient::run::{run, Initial, RunSpec, TopModel};
+    let climate = Climate::DesignWinter {
+        freezing_index_c_days: 1200.0,
+        season_days: 150.0,
+        mean_annual_c: 1.0,
+    };
+    let soil = material(1.8, 1.4, 2.0e6, 2.8e6, 1.0e8);
+    let spec = RunSpec {
+        thicknesses_m: vec![6.0],
+        materials: vec![soil],
+        curves: vec![None],
+        grid: GridSpec {
+            surface_cell_m: 0.01,
+            growth_ratio: 1.05,
+            max_cell_m: 0.25,
+        },
+        top: TopModel::NFactor {
+            freezing: 1.0,
+            thawing: 1.0,
+        },
+        bottom: BottomCondition::Flux { upward_w_m2: 0.0 },
+        initial: Initial::Uniform(3.0),
+        step_s: 3600.0,
+        duration_s: YEAR,
+        profile_every_s: DAY,
+    };
+    let r = run(&spec, &climate).unwrap();
+    assert_rel(
+        r.air_freezing_index_c_days,
+        1200.0,
+        2e-3,
+        "air freezing index",
+    );
+    // The surface is held at n × air with n = 1: the two indices agree.
+    assert_rel(
+        r.surface_freezing_index_c_days,
+        1200.0,
+        5e-3,
+        "surface freezing index",
+    );
+    // Stefan's law with the frozen properties is an upper bound on the frost depth
+    // (it ignores the sensible heat and the warm ground below).
+    let stefan = hibernal::analytic::stefan_depth_m(1.8, 1.0e8, 1200.0 * DAY);
+    assert!(
+        r.max_frost_depth_m > 0.3 * stefan && r.max_frost_depth_m < stefan,
+        "frost {} m, Stefan {} m",
+        r.max_frost_depth_m,
+        stefan
+    );
+    assert!((r.energy_imbalance_j_m2 / r.energy_throughput_j_m2).abs() < 1e-9);
+}

@@ -307,3 +307,21 @@ pub fn run(spec: &RunSpec, forcing: &dyn Forcing) -> Result<RunResult, Transient
         spin_up_years,
     })
 }
+
+/// Density assumed for recorded snow whose density is not given, kg/m³: settled snow
+/// (200–300 kg/m³ in Cuffey & Paterson, The Physics of Glaciers, Table 2.1; from memory).
+pub const DEFAULT_SNOW_DENSITY_KG_M3: f64 = 250.0;
+
+impl Forcing for crate::climate::Climate {
+    fn air_c(&self, t_s: f64) -> f64 {
+        self.air_temperature_c(t_s)
+    }
+    fn snow(&self, t_s: f64) -> Option<(f64, f64)> {
+        self.snow_at(t_s).map(|s| {
+            (
+                s.depth_m,
+                s.density_kg_m3.unwrap_or(DEFAULT_SNOW_DENSITY_KG_M3),
+            )
+        })
+    }
+}
