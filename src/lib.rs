@@ -19,6 +19,7 @@ pub mod units;
 pub mod chart;
 pub mod climate_csv;
 pub mod scenario;
+pub mod scenario_winter;
 
 #[cfg(target_arch = "wasm32")]
 pub mod web;

@@ -2,9 +2,10 @@
 //! its faces (page, CLI). These are serialisable mirrors of the core types: the core itself
 //! has no serde.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 1, ...}`, all values SI. A document
-//! from a newer version is refused with a message; older versions will be upgraded here as
-//! the format grows.
+//! Format: `{"format": "hibernal-scenario", "version": 2, ...}`, all values SI. Version 2
+//! adds the optional `winter` section (a transient run of the same stack,
+//! [`crate::scenario_winter`]); version 1 documents, which have none, still load. A document
+//! from a newer version is refused with a message.
 
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
@@ -17,7 +18,7 @@ use crate::steady::{self, SnowBand, SteadyResult};
 /// The `format` tag every scenario carries.
 pub const FORMAT_TAG: &str = "hibernal-scenario";
 /// The newest version this build reads and writes.
-pub const FORMAT_VERSION: u32 = 1;
+pub const FORMAT_VERSION: u32 = 2;
 /// Largest document accepted, bytes.
 pub const MAX_DOCUMENT_BYTES: usize = 1 << 20;
 /// Points per layer in the reported profile.
@@ -41,6 +42,9 @@ pub struct Scenario {
     pub top: BoundaryDoc,
     /// Conditions on the bottom face.
     pub bottom: BoundaryDoc,
+    /// A winter run of the same stack (version 2 and later).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub winter: Option<crate::scenario_winter::WinterDoc>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -266,6 +270,12 @@ impl Scenario {
                 )),
             );
         }
+        if self.version < 2 && self.winter.is_some() {
+            errs.push(
+                "winter",
+                InputErrorKind::Format("a winter section needs format version 2 or later".into()),
+            );
+        }
         if self.title.chars().count() > 200 {
             errs.push(
                 "title",
@@ -464,6 +474,9 @@ pub struct Report {
     pub zero_planes: Vec<ZeroPlaneDoc>,
     pub profile: Vec<[f64; 2]>,
     pub band: Option<BandDoc>,
+    /// The winter run, when the scenario has one and it was asked for.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub winter: Option<crate::scenario_winter::WinterReport>,
     pub warnings: Vec<ErrorDoc>,
 }
 
@@ -473,6 +486,8 @@ pub struct Computed {
     pub result: SteadyResult,
     pub band: Option<SnowBand>,
     pub depths_m: Vec<f64>,
+    /// Filled by [`compute_with_winter`] only.
+    pub winter: Option<crate::scenario_winter::WinterReport>,
 }
 
 /// Solve a scenario: the steady result and the band across snow regressions.
@@ -488,7 +503,17 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
         result,
         band,
         depths_m,
+        winter: None,
     })
+}
+
+/// [`compute`], plus the winter run when the scenario has a winter section.
+pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
+    let mut c = compute(s)?;
+    if let Some(w) = &s.winter {
+        c.winter = Some(crate::scenario_winter::run_winter(w, &c.result.stack)?);
+    }
+    Ok(c)
 }
 
 /// Build the report of a computed scenario.
@@ -589,6 +614,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             .map(|(z, t)| [z, t])
             .collect(),
         band,
+        winter: c.winter.clone(),
         warnings: r.warnings.iter().map(ErrorDoc::from).collect(),
     }
 }
@@ -603,7 +629,7 @@ pub struct Example {
 }
 
 /// The bundled examples; the page starts from the first.
-pub const EXAMPLES: [Example; 4] = [
+pub const EXAMPLES: [Example; 5] = [
     Example {
         id: "snow-over-foam-on-silt",
         summary: "40 cm of wind-packed snow over 50 mm of foam board over silty soil",
@@ -623,6 +649,11 @@ pub const EXAMPLES: [Example; 4] = [
         id: "bare-sand-path",
         summary: "A cleared garden path on sand: no snow, no insulation",
         json: include_str!("../scenarios/bare-sand-path.json"),
+    },
+    Example {
+        id: "silty-yard-design-winter",
+        summary: "Bare silty yard through a design winter of 1200 °C·days",
+        json: include_str!("../scenarios/silty-yard-design-winter.json"),
     },
 ];
 

@@ -304,3 +304,125 @@ mod never_panics {
         }
     }
 }
+
+#[test]
+fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
+    // The winter run of the bundled design-winter example, against the hand methods of
+    // US Army TM 5-852-6 / UFC 3-130-04 on the same silt: Stefan's law (an upper bound: it
+    // ignores sensible heat) and the modified Berggren method (λ from the Neumann-type
+    // equation, frozen/unfrozen means; within 10 %, the method's own approximations).
+    let s = scenario::parse(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+    assert_eq!(s.version, 2);
+    let c = scenario::compute_with_winter(&s).unwrap();
+    let w = c.winter.as_ref().expect("a winter report");
+    let silt = &c.result.stack.materials[0];
+    let (kf, ku) = (
+        silt.conductivity.frozen.k(-1.0),
+        silt.conductivity.unfrozen.k(1.0),
+    );
+    let l = silt.latent_j_per_m3;
+    let nf = 0.7 * 1200.0 * 86_400.0;
+    let stefan = hibernal::analytic::stefan_depth_m(kf, l, nf);
+    assert!(
+        w.max_frost_depth_m < stefan,
+        "{} < Stefan {stefan}",
+        w.max_frost_depth_m
+    );
+    let berggren = hibernal::analytic::modified_berggren_depth_m(
+        0.5 * (kf + ku),
+        l,
+        0.7,
+        1200.0 * 86_400.0,
+        2.0,
+        150.0 * 86_400.0,
+        0.5 * (silt.c_frozen_j_per_m3_k + silt.c_unfrozen_j_per_m3_k),
+    )
+    .unwrap();
+    assert_rel(
+        w.max_frost_depth_m,
+        berggren,
+        0.10,
+        "frost depth vs modified Berggren",
+    );
+    assert_rel(
+        w.surface_freezing_index_c_days,
+        0.7 * 1200.0,
+        1e-3,
+        "surface index = nF",
+    );
+    assert!(w.energy_imbalance_relative < 1e-9);
+    assert_eq!(w.daily.len(), 366, "day 0 and the end of each day");
+    // The report carries it; CSV export has a header with units and a row per day.
+    let r = scenario::report(&s, &c);
+    assert!(r.winter.is_some());
+    let csv = hibernal::scenario_winter::daily_csv(w);
+    assert!(csv.starts_with("day,air temperature [°C]"));
+    assert_eq!(csv.lines().count(), 367);
+}
+
+#[test]
+fn version_1_documents_load_and_a_winter_needs_version_2() {
+    let mut v = example_value();
+    assert_eq!(v["version"], 1);
+    assert!(
+        scenario::from_value(v.clone()).is_ok(),
+        "version 1 still loads"
+    );
+    let yard: serde_json::Value =
+        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+    v["winter"] = yard["winter"].clone();
+    let e = scenario::from_value(v.clone()).unwrap_err();
+    assert_eq!(e.0[0].field, "winter");
+    v["version"] = serde_json::json!(2);
+    v["winter"]["grid"] =
+        serde_json::json!({"surface_cell_m": 0.0001, "growth_ratio": 1.0, "max_cell_m": 0.0001});
+    let s = scenario::from_value(v).unwrap();
+    let e = scenario::compute_with_winter(&s).unwrap_err();
+    assert!(
+        e.0.iter().any(|x| x.field == "winter.grid.surface_cell_m"),
+        "{e}"
+    );
+}
+
+#[test]
+fn cli_writes_the_winter_series_as_csv() {
+    let dir = std::env::temp_dir().join(format!("hibernal-cli-winter-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("yard.json");
+    let out = cli()
+        .args(["example", "silty-yard-design-winter"])
+        .output()
+        .unwrap();
+    std::fs::write(&file, &out.stdout).unwrap();
+    let csv = dir.join("yard.csv");
+    let out = cli()
+        .args([
+            "run",
+            file.to_str().unwrap(),
+            "--csv",
+            csv.to_str().unwrap(),
+        ])
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert!(report["winter"]["max_frost_depth_m"].as_f64().unwrap() > 0.5);
+    assert_eq!(std::fs::read_to_string(csv).unwrap().lines().count(), 367);
+    // A scenario without a winter cannot export one.
+    let wall = dir.join("wall.json");
+    std::fs::write(&wall, scenario::example("snow-block-wall").unwrap().json).unwrap();
+    let out = cli()
+        .args([
+            "run",
+            wall.to_str().unwrap(),
+            "--csv",
+            dir.join("x.csv").to_str().unwrap(),
+        ])
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(2));
+}

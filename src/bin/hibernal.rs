@@ -33,13 +33,17 @@ mod cli {
 
     #[derive(Subcommand)]
     enum Command {
-        /// Compute a scenario file and print the report as JSON (SI units).
+        /// Compute a scenario file (and its winter run, if it has one) and print the report as
+        /// JSON (SI units).
         Run {
             /// Scenario file (JSON).
             file: PathBuf,
             /// Also write the temperature profile chart to this SVG file.
             #[arg(long, value_name = "OUT.svg")]
             svg: Option<PathBuf>,
+            /// Also write the winter run's daily series to this CSV file (units in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            csv: Option<PathBuf>,
             /// Units of the chart: si or us.
             #[arg(long, default_value = "si")]
             units: String,
@@ -87,7 +91,12 @@ mod cli {
                     ))
                 }
             },
-            Command::Run { file, svg, units } => {
+            Command::Run {
+                file,
+                svg,
+                csv,
+                units,
+            } => {
                 let Some(sys) = UnitSystem::from_id(&units) else {
                     return fail(format!("--units must be si or us, not {units:?}"));
                 };
@@ -99,7 +108,7 @@ mod cli {
                     Ok(s) => s,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
-                let computed = match scenario::compute(&sc) {
+                let computed = match scenario::compute_with_winter(&sc) {
                     Ok(c) => c,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
@@ -107,6 +116,14 @@ mod cli {
                 match serde_json::to_string_pretty(&report) {
                     Ok(s) => println!("{s}"),
                     Err(e) => return fail(e),
+                }
+                if let Some(out) = csv {
+                    let Some(w) = &computed.winter else {
+                        return fail("--csv needs a scenario with a winter section");
+                    };
+                    if let Err(e) = std::fs::write(&out, hibernal::scenario_winter::daily_csv(w)) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
                 }
                 if let Some(out) = svg {
                     let chart = match hibernal::chart::profile_svg(&computed, sys, 900, 640) {

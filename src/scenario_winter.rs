@@ -1,0 +1,456 @@
+//! The winter section of the scenario document (format version 2): what drives a transient
+//! run of the same stack, and the report of that run. Edge module (serde).
+
+use schemars::JsonSchema;
+use serde::{Deserialize, Serialize};
+
+use crate::climate::{Climate, DailySeries, DayRecord};
+use crate::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::scenario::SnowCorrelationDoc;
+use crate::stack::ResolvedStack;
+use crate::transient::grid::GridSpec;
+use crate::transient::run::{self, Initial, RunResult, RunSpec, TopModel};
+use crate::transient::BottomCondition;
+
+/// Most cells a winter run may use.
+pub const MAX_CELLS: usize = 2000;
+/// Longest run, days.
+pub const MAX_RUN_DAYS: f64 = 30.0 * 365.0;
+
+/// A winter run of the stack.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct WinterDoc {
+    pub climate: ClimateDoc,
+    pub surface: SurfaceDoc,
+    pub bottom: DeepDoc,
+    pub initial: InitialDoc,
+    #[serde(default)]
+    pub grid: Option<GridDoc>,
+    /// Time step, s (default one hour).
+    #[serde(default = "default_step")]
+    pub step_s: f64,
+    /// Length of the run, days (default: the climate's own length).
+    #[serde(default)]
+    pub duration_days: Option<f64>,
+}
+
+fn default_step() -> f64 {
+    3600.0
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum ClimateDoc {
+    /// A sinusoidal year of air temperature.
+    Sinusoid {
+        mean_c: f64,
+        amplitude_k: f64,
+        coldest_day_of_year: u32,
+    },
+    /// A design winter built from a freezing index and a season length.
+    DesignWinter {
+        freezing_index_c_days: f64,
+        season_days: f64,
+        mean_annual_c: f64,
+    },
+    /// Daily records (dates consecutive, YYYY-MM-DD).
+    Daily { days: Vec<DayDoc> },
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct DayDoc {
+    pub date: String,
+    pub mean_air_c: f64,
+    #[serde(default)]
+    pub snow_depth_m: Option<f64>,
+    #[serde(default)]
+    pub snow_density_kg_m3: Option<f64>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum SurfaceDoc {
+    /// Air through a film; recorded snow adds its resistance by the chosen regression.
+    Film {
+        film_w_m2k: f64,
+        snow_correlation: SnowCorrelationDoc,
+    },
+    /// Surface = n × air, freezing and thawing n-factors.
+    NFactor { freezing: f64, thawing: f64 },
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum DeepDoc {
+    /// Bottom face held at a temperature.
+    Temperature { temperature_c: f64 },
+    /// Heat entering from below (geothermal flux), W/m².
+    Flux { upward_w_m2: f64 },
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum InitialDoc {
+    Uniform {
+        temperature_c: f64,
+    },
+    /// Repeat the first year until it repeats itself (periodic steady state).
+    SpinUp {
+        start_c: f64,
+        max_years: u32,
+    },
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct GridDoc {
+    pub surface_cell_m: f64,
+    pub growth_ratio: f64,
+    pub max_cell_m: f64,
+}
+
+impl Default for GridDoc {
+    fn default() -> Self {
+        GridDoc {
+            surface_cell_m: 0.01,
+            growth_ratio: 1.05,
+            max_cell_m: 0.25,
+        }
+    }
+}
+
+impl WinterDoc {
+    fn climate(&self, errs: &mut InputErrors) -> Option<Climate> {
+        let f = "winter.climate";
+        let c = match &self.climate {
+            ClimateDoc::Sinusoid {
+                mean_c,
+                amplitude_k,
+                coldest_day_of_year,
+            } => Climate::Sinusoid {
+                mean_c: *mean_c,
+                amplitude_k: *amplitude_k,
+                coldest_day_of_year: *coldest_day_of_year,
+            },
+            ClimateDoc::DesignWinter {
+                freezing_index_c_days,
+                season_days,
+                mean_annual_c,
+            } => Climate::DesignWinter {
+                freezing_index_c_days: *freezing_index_c_days,
+                season_days: *season_days,
+                mean_annual_c: *mean_annual_c,
+            },
+            ClimateDoc::Daily { days } => {
+                let mut records = Vec::with_capacity(days.len());
+                for (i, d) in days.iter().enumerate() {
+                    match chrono::NaiveDate::parse_from_str(&d.date, "%Y-%m-%d") {
+                        Ok(date) => records.push(DayRecord {
+                            date,
+                            mean_air_c: d.mean_air_c,
+                            snow_depth_m: d.snow_depth_m,
+                            snow_density_kg_m3: d.snow_density_kg_m3,
+                        }),
+                        Err(_) => errs.push(
+                            format!("{f}.days[{i}].date"),
+                            InputErrorKind::Format(format!(
+                                "'{}' is not a date written YYYY-MM-DD",
+                                d.date.chars().take(40).collect::<String>()
+                            )),
+                        ),
+                    }
+                }
+                if !errs.is_empty() {
+                    return None;
+                }
+                match DailySeries::new(records) {
+                    Ok(s) => Climate::Series(s),
+                    Err(e) => {
+                        errs.0.extend(e.0.into_iter().map(|mut x| {
+                            x.field = format!("{f}.{}", x.field);
+                            x
+                        }));
+                        return None;
+                    }
+                }
+            }
+        };
+        match c.validate(f) {
+            Ok(()) => Some(c),
+            Err(e) => {
+                errs.0.extend(e.0);
+                None
+            }
+        }
+    }
+
+    /// Check the section and build the run for a resolved stack.
+    pub fn run_spec(&self, stack: &ResolvedStack) -> Result<(RunSpec, Climate), InputErrors> {
+        let mut errs = InputErrors::default();
+        let climate = self.climate(&mut errs);
+        let top = match self.surface {
+            SurfaceDoc::Film {
+                film_w_m2k,
+                snow_correlation,
+            } => {
+                check::within(
+                    &mut errs,
+                    "winter.surface.film_w_m2k",
+                    film_w_m2k,
+                    0.1,
+                    1000.0,
+                    "W/m²K",
+                );
+                TopModel::AirFilm {
+                    film_w_m2k,
+                    snow_correlation: snow_correlation.into(),
+                }
+            }
+            SurfaceDoc::NFactor { freezing, thawing } => {
+                check::within(
+                    &mut errs,
+                    "winter.surface.freezing",
+                    freezing,
+                    0.05,
+                    2.0,
+                    "",
+                );
+                check::within(&mut errs, "winter.surface.thawing", thawing, 0.05, 3.0, "");
+                TopModel::NFactor { freezing, thawing }
+            }
+        };
+        let bottom = match self.bottom {
+            DeepDoc::Temperature { temperature_c } => {
+                check::within(
+                    &mut errs,
+                    "winter.bottom.temperature_c",
+                    temperature_c,
+                    -60.0,
+                    60.0,
+                    "°C",
+                );
+                BottomCondition::Temperature { temperature_c }
+            }
+            DeepDoc::Flux { upward_w_m2 } => {
+                check::within(
+                    &mut errs,
+                    "winter.bottom.upward_w_m2",
+                    upward_w_m2,
+                    -10.0,
+                    10.0,
+                    "W/m²",
+                );
+                BottomCondition::Flux { upward_w_m2 }
+            }
+        };
+        let initial = match self.initial {
+            InitialDoc::Uniform { temperature_c } => {
+                check::within(
+                    &mut errs,
+                    "winter.initial.temperature_c",
+                    temperature_c,
+                    -60.0,
+                    60.0,
+                    "°C",
+                );
+                Initial::Uniform(temperature_c)
+            }
+            InitialDoc::SpinUp { start_c, max_years } => {
+                check::within(
+                    &mut errs,
+                    "winter.initial.start_c",
+                    start_c,
+                    -60.0,
+                    60.0,
+                    "°C",
+                );
+                if max_years == 0 || max_years > 30 {
+                    errs.push(
+                        "winter.initial.max_years",
+                        InputErrorKind::Count {
+                            count: max_years as usize,
+                            min: 1,
+                            max: 30,
+                        },
+                    );
+                }
+                Initial::SpinUp { start_c, max_years }
+            }
+        };
+        let g = self.grid.unwrap_or_default();
+        check::within(
+            &mut errs,
+            "winter.grid.surface_cell_m",
+            g.surface_cell_m,
+            1e-3,
+            1.0,
+            "m",
+        );
+        check::within(
+            &mut errs,
+            "winter.grid.growth_ratio",
+            g.growth_ratio,
+            1.0,
+            1.5,
+            "",
+        );
+        check::within(
+            &mut errs,
+            "winter.grid.max_cell_m",
+            g.max_cell_m,
+            g.surface_cell_m.max(1e-3),
+            2.0,
+            "m",
+        );
+        check::within(&mut errs, "winter.step_s", self.step_s, 60.0, 86_400.0, "s");
+        let duration_days = self
+            .duration_days
+            .or_else(|| climate.as_ref().map(|c| c.duration_s() / 86_400.0))
+            .unwrap_or(365.0);
+        check::within(
+            &mut errs,
+            "winter.duration_days",
+            duration_days,
+            1.0,
+            MAX_RUN_DAYS,
+            "days",
+        );
+        errs.clone().into_result()?;
+        let grid = GridSpec {
+            surface_cell_m: g.surface_cell_m,
+            growth_ratio: g.growth_ratio,
+            max_cell_m: g.max_cell_m,
+        };
+        let thicknesses: Vec<f64> = stack.layers.iter().map(|l| l.thickness_m).collect();
+        let cells: usize = crate::transient::grid::faces(&thicknesses, &grid)
+            .iter()
+            .map(|f| f.len() - 1)
+            .sum();
+        if cells > MAX_CELLS {
+            return Err(InputError::new(
+                "winter.grid",
+                InputErrorKind::Count {
+                    count: cells,
+                    min: 1,
+                    max: MAX_CELLS,
+                },
+            )
+            .into());
+        }
+        let climate = climate.ok_or_else(|| errs.clone())?;
+        Ok((
+            RunSpec {
+                thicknesses_m: thicknesses,
+                materials: stack.materials.clone(),
+                curves: vec![None; stack.materials.len()],
+                grid,
+                top,
+                bottom,
+                initial,
+                step_s: self.step_s,
+                duration_s: duration_days * 86_400.0,
+                profile_every_s: 86_400.0,
+            },
+            climate,
+        ))
+    }
+}
+
+/// One day of the winter report (values at the end of the day).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct WinterDay {
+    pub day: f64,
+    pub air_c: f64,
+    pub surface_c: f64,
+    pub frost_depth_m: f64,
+    pub thaw_depth_m: f64,
+    pub ground_flux_w_m2: f64,
+    pub snow_depth_m: f64,
+}
+
+/// The report of a winter run (SI).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct WinterReport {
+    pub max_frost_depth_m: f64,
+    pub max_frost_day: f64,
+    pub air_freezing_index_c_days: f64,
+    pub surface_freezing_index_c_days: f64,
+    pub cells: usize,
+    pub steps: u64,
+    pub iterations_per_step: f64,
+    pub split_steps: u64,
+    pub spin_up_years: u32,
+    pub energy_imbalance_relative: f64,
+    pub daily: Vec<WinterDay>,
+    /// Cell centres (m) with the lowest and highest temperature each reached.
+    pub envelope: Vec<[f64; 3]>,
+}
+
+/// Run the winter and build its report.
+pub fn run_winter(w: &WinterDoc, stack: &ResolvedStack) -> Result<WinterReport, InputErrors> {
+    let (spec, climate) = w.run_spec(stack)?;
+    let r: RunResult = run::run(&spec, &climate).map_err(|e| {
+        InputErrors::from(InputError::new(
+            "winter",
+            InputErrorKind::NotCovered(e.to_string()),
+        ))
+    })?;
+    let mut daily = Vec::new();
+    let mut next = 0.0;
+    for s in &r.samples {
+        if s.time_s >= next - 1e-6 {
+            daily.push(WinterDay {
+                day: s.time_s / 86_400.0,
+                air_c: s.air_c,
+                surface_c: s.surface_c,
+                frost_depth_m: s.frost_depth_m,
+                thaw_depth_m: s.thaw_depth_m,
+                ground_flux_w_m2: s.ground_flux_w_m2,
+                snow_depth_m: s.snow_depth_m,
+            });
+            next += 86_400.0;
+        }
+    }
+    Ok(WinterReport {
+        max_frost_depth_m: r.max_frost_depth_m,
+        max_frost_day: r.max_frost_time_s / 86_400.0,
+        air_freezing_index_c_days: r.air_freezing_index_c_days,
+        surface_freezing_index_c_days: r.surface_freezing_index_c_days,
+        cells: r.cells,
+        steps: r.steps,
+        iterations_per_step: r.iterations as f64 / r.steps.max(1) as f64,
+        split_steps: r.splits,
+        spin_up_years: r.spin_up_years,
+        energy_imbalance_relative: (r.energy_imbalance_j_m2 / r.energy_throughput_j_m2.max(1e-300))
+            .abs(),
+        daily,
+        envelope: r
+            .depths_m
+            .iter()
+            .zip(r.min_c.iter().zip(&r.max_c))
+            .map(|(&z, (&lo, &hi))| [z, lo, hi])
+            .collect(),
+    })
+}
+
+/// The daily series as CSV text, units in the header.
+pub fn daily_csv(r: &WinterReport) -> String {
+    let mut out = String::from(
+        "day,air temperature [°C],surface temperature [°C],frost depth [m],thaw depth [m],ground heat flux [W/m²],snow depth [m]\n",
+    );
+    for d in &r.daily {
+        out.push_str(&format!(
+            "{:.3},{:.3},{:.3},{:.4},{:.4},{:.3},{:.3}\n",
+            d.day,
+            d.air_c,
+            d.surface_c,
+            d.frost_depth_m,
+            d.thaw_depth_m,
+            d.ground_flux_w_m2,
+            d.snow_depth_m
+        ));
+    }
+    out
+}
