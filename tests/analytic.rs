@@ -22,20 +22,6 @@ fn problem(v: &Value) -> NeumannProblem {
     }
 }
 
-/// The Lunardini 1981 (after Jumikis 1966) soil example.
-fn lunardini_soil() -> NeumannProblem {
-    NeumannProblem {
-        surface_c: -10.0,
-        initial_c: 2.0,
-        freezing_c: 0.0,
-        k_frozen: 2.324,
-        k_unfrozen: 1.860,
-        c_frozen_j_m3k: 1.966e6,
-        c_unfrozen_j_m3k: 2.862e6,
-        latent_j_m3: 1.1045e8,
-    }
-}
-
 // ---------------------------------------------------------------------------------------
 // Error function
 // ---------------------------------------------------------------------------------------

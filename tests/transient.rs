@@ -276,20 +276,6 @@ fn freeze_from_surface(
     )
 }
 
-fn lunardini_soil() -> NeumannProblem {
-    // Lunardini 1981 (after Jumikis 1966), the model reference's published soil example.
-    NeumannProblem {
-        surface_c: -10.0,
-        initial_c: 2.0,
-        freezing_c: 0.0,
-        k_frozen: 2.324,
-        k_unfrozen: 1.860,
-        c_frozen_j_m3k: 1.966e6,
-        c_unfrozen_j_m3k: 2.862e6,
-        latent_j_m3: 1.1045e8,
-    }
-}
-
 #[test]
 fn soil_front_matches_the_neumann_solution_within_one_percent() {
     // Neumann two-phase solution (Carslaw & Jaeger 1959 §11.2), published soil example: front

@@ -39,3 +39,18 @@ pub fn assert_abs(a: f64, b: f64, tol: f64, what: &str) {
         "{what}: got {a}, expected {b} (tolerance {tol})"
     );
 }
+
+/// The published soil example of the model reference (Lunardini 1981, after Jumikis 1966):
+/// surface −10 °C over ground at +2 °C; front about 3.6 cm/h^½, ≈ 1.36 m after 60 days.
+pub fn lunardini_soil() -> hibernal::analytic::NeumannProblem {
+    hibernal::analytic::NeumannProblem {
+        surface_c: -10.0,
+        initial_c: 2.0,
+        freezing_c: 0.0,
+        k_frozen: 2.324,
+        k_unfrozen: 1.860,
+        c_frozen_j_m3k: 1.966e6,
+        c_unfrozen_j_m3k: 2.862e6,
+        latent_j_m3: 1.1045e8,
+    }
+}
