@@ -151,10 +151,10 @@ pub struct Solver {
     b: Vec<f64>,
     c: Vec<f64>,
     r: Vec<f64>,
-    cp: Vec<f64>,
     dp: Vec<f64>,
     /// Δz/Δt of each cell for the current step.
     cap: Vec<f64>,
+    lu: Tridiagonal,
 }
 
 /// The fronts read off the column at one instant.
@@ -191,9 +191,9 @@ impl Solver {
             b: vec![0.0; n],
             c: vec![0.0; n],
             r: vec![0.0; n],
-            cp: vec![0.0; n],
             dp: vec![0.0; n],
             cap: vec![0.0; n],
+            lu: Tridiagonal::new(n),
         };
         s.energy_start_j_m2 = s.stored_energy_j_m2();
         s
@@ -399,14 +399,8 @@ impl Solver {
                     0.0
                 };
             }
-            thomas(
-                &self.a,
-                &self.b,
-                &self.c,
-                &self.r,
-                &mut self.cp,
-                &mut self.dp,
-            );
+            self.lu
+                .solve(&self.a, &self.b, &self.c, &self.r, &mut self.dp);
             // Where T(H) has a kink (the edge of an unfrozen-water curve) a full Newton step
             // can cycle between two states; after a few passes, damp the step to break it.
             let damping = if iter < 12 { 1.0 } else { 0.5 };
@@ -463,21 +457,73 @@ impl Solver {
     }
 }
 
-/// Tridiagonal solve (Thomas algorithm): a x_{i−1} + b x_i + c x_{i+1} = r; result in `dp`.
-/// Diagonally dominant here (Δz/Δt on the diagonal), so no pivoting is needed.
-fn thomas(a: &[f64], b: &[f64], c: &[f64], r: &[f64], cp: &mut [f64], dp: &mut [f64]) {
-    let n = b.len();
-    // One reciprocal per row keeps a single division on the sequential chain.
-    let inv = 1.0 / b[0];
-    cp[0] = c[0] * inv;
-    dp[0] = r[0] * inv;
-    for i in 1..n {
-        let inv = 1.0 / (b[i] - a[i] * cp[i - 1]);
-        cp[i] = c[i] * inv;
-        dp[i] = (r[i] - a[i] * dp[i - 1]) * inv;
+/// Tridiagonal solver (Thomas algorithm) that eliminates from the bottom row up and keeps
+/// its factorisation. Row i's factors depend only on rows i..n, so when a new matrix
+/// differs from the last only in its upper rows (the freezing front and the surface, while
+/// the deep ground is unchanged), only those rows are factorised again; the sweep of the
+/// right-hand side then needs no division. Diagonally dominant here (Δz/Δt on the
+/// diagonal), so no pivoting is needed.
+#[derive(Debug, Clone)]
+struct Tridiagonal {
+    a: Vec<f64>,
+    b: Vec<f64>,
+    c: Vec<f64>,
+    /// a_i / d_i and 1 / d_i, d_i the pivot of row i.
+    ap: Vec<f64>,
+    inv: Vec<f64>,
+    rp: Vec<f64>,
+    valid: bool,
+}
+
+impl Tridiagonal {
+    fn new(n: usize) -> Self {
+        Tridiagonal {
+            a: vec![0.0; n],
+            b: vec![0.0; n],
+            c: vec![0.0; n],
+            ap: vec![0.0; n],
+            inv: vec![0.0; n],
+            rp: vec![0.0; n],
+            valid: false,
+        }
     }
-    for i in (0..n - 1).rev() {
-        dp[i] -= cp[i] * dp[i + 1];
+
+    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`.
+    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64]) {
+        let n = b.len();
+        // Lowest row (counting from the top) from which the cached factors still hold.
+        let mut keep = if self.valid { n } else { 0 };
+        while keep > 0 {
+            let i = keep - 1;
+            if a[i] != self.a[i] || b[i] != self.b[i] || c[i] != self.c[i] {
+                break;
+            }
+            keep -= 1;
+        }
+        // Factorise rows keep-1 .. 0 (bottom up).
+        for i in (0..keep.max(if self.valid { 0 } else { n })).rev() {
+            let below = if i + 1 < n {
+                c[i] * self.ap[i + 1]
+            } else {
+                0.0
+            };
+            let inv = 1.0 / (b[i] - below);
+            self.inv[i] = inv;
+            self.ap[i] = a[i] * inv;
+            self.a[i] = a[i];
+            self.b[i] = b[i];
+            self.c[i] = c[i];
+        }
+        self.valid = true;
+        // Right-hand side, bottom up, then back-substitute top down.
+        self.rp[n - 1] = r[n - 1] * self.inv[n - 1];
+        for i in (0..n - 1).rev() {
+            self.rp[i] = (r[i] - c[i] * self.rp[i + 1]) * self.inv[i];
+        }
+        x[0] = self.rp[0];
+        for i in 1..n {
+            x[i] = self.rp[i] - self.ap[i] * x[i - 1];
+        }
     }
 }
 
