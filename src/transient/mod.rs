@@ -550,3 +550,49 @@ pub fn cells_for(
     }
     cells
 }
+
+#[cfg(test)]
+mod tests {
+    use super::Tridiagonal;
+
+    fn residual(a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &[f64]) -> f64 {
+        let n = b.len();
+        (0..n)
+            .map(|i| {
+                let mut v = b[i] * x[i] - r[i];
+                if i > 0 {
+                    v += a[i] * x[i - 1];
+                }
+                if i + 1 < n {
+                    v += c[i] * x[i + 1];
+                }
+                v.abs()
+            })
+            .fold(0.0, f64::max)
+    }
+
+    #[test]
+    fn reused_factors_solve_a_matrix_changed_in_its_upper_rows_exactly() {
+        let n = 50;
+        let mut a: Vec<f64> = (0..n).map(|i| -0.3 - 0.01 * i as f64).collect();
+        let b: Vec<f64> = (0..n).map(|i| 2.0 + 0.02 * i as f64).collect();
+        let c: Vec<f64> = (0..n).map(|i| -0.4 + 0.003 * i as f64).collect();
+        let r: Vec<f64> = (0..n).map(|i| (i as f64).sin()).collect();
+        a[0] = 0.0;
+        let mut t = Tridiagonal::new(n);
+        let mut x = vec![0.0; n];
+        t.solve(&a, &b, &c, &r, &mut x);
+        assert!(residual(&a, &b, &c, &r, &x) < 1e-13);
+        // Change rows 3 and 7 only: the cached factors of rows 8.. are reused.
+        let mut b2 = b.clone();
+        b2[3] += 0.7;
+        b2[7] -= 0.2;
+        t.solve(&a, &b2, &c, &r, &mut x);
+        assert!(residual(&a, &b2, &c, &r, &x) < 1e-13);
+        // A change in the last row forces a full refactorisation.
+        let mut b3 = b2.clone();
+        b3[n - 1] += 1.0;
+        t.solve(&a, &b3, &c, &r, &mut x);
+        assert!(residual(&a, &b3, &c, &r, &x) < 1e-13);
+    }
+}
