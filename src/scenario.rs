@@ -90,6 +90,11 @@ pub enum MaterialDoc {
         /// Quartz share of the solids, 0–1 (Johansen 1975, Côté & Konrad 2005).
         #[serde(default = "default_quartz")]
         quartz_fraction: f64,
+        /// Freezing over a range in the winter run: unfrozen water w_u = α θ^β (fraction of
+        /// dry mass, θ in K below 0 °C; Anderson & Tice 1972). Absent: the water freezes
+        /// at 0 °C. The steady part always freezes at 0 °C.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        unfrozen_water: Option<UnfrozenWaterDoc>,
     },
     Insulation {
         board: BoardDoc,
@@ -113,6 +118,16 @@ pub enum MaterialDoc {
         density_kg_m3: f64,
         specific_heat_j_kg_k: f64,
     },
+}
+
+/// Anderson & Tice 1972 unfrozen-water parameters: w_u = α θ^β.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct UnfrozenWaterDoc {
+    /// α, fraction of dry mass at 1 K below 0 °C.
+    pub alpha: f64,
+    /// β, negative.
+    pub beta: f64,
 }
 
 fn default_quartz() -> f64 {
@@ -183,6 +198,7 @@ impl From<&MaterialDoc> for MaterialSpec {
                 dry_density_kg_m3,
                 water_content_pct,
                 quartz_fraction,
+                ..
             } => MaterialSpec::Soil(SoilInput {
                 texture: (*texture).into(),
                 model: (*model).into(),
@@ -511,7 +527,11 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
 pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
     let mut c = compute(s)?;
     if let Some(w) = &s.winter {
-        c.winter = Some(crate::scenario_winter::run_winter(w, &c.result.stack)?);
+        c.winter = Some(crate::scenario_winter::run_winter(
+            w,
+            &c.result.stack,
+            &s.layers,
+        )?);
     }
     Ok(c)
 }

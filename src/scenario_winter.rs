@@ -6,9 +6,10 @@ use serde::{Deserialize, Serialize};
 
 use crate::climate::{Climate, DailySeries, DayRecord};
 use crate::error::{check, InputError, InputErrorKind, InputErrors};
-use crate::scenario::SnowCorrelationDoc;
+use crate::scenario::{LayerDoc, MaterialDoc, SnowCorrelationDoc};
 use crate::stack::ResolvedStack;
 use crate::transient::grid::GridSpec;
+use crate::transient::phase::UnfrozenWater;
 use crate::transient::run::{self, Initial, RunResult, RunSpec, TopModel};
 use crate::transient::BottomCondition;
 
@@ -186,9 +187,15 @@ impl WinterDoc {
         }
     }
 
-    /// Check the section and build the run for a resolved stack.
-    pub fn run_spec(&self, stack: &ResolvedStack) -> Result<(RunSpec, Climate), InputErrors> {
+    /// Check the section and build the run for a resolved stack; `layers` are the
+    /// scenario's layers (for their unfrozen-water curves).
+    pub fn run_spec(
+        &self,
+        stack: &ResolvedStack,
+        layers: &[LayerDoc],
+    ) -> Result<(RunSpec, Climate), InputErrors> {
         let mut errs = InputErrors::default();
+        let curves = unfrozen_curves(layers, &mut errs);
         let climate = self.climate(&mut errs);
         let top = match self.surface {
             SurfaceDoc::Film {
@@ -344,7 +351,7 @@ impl WinterDoc {
             RunSpec {
                 thicknesses_m: thicknesses,
                 materials: stack.materials.clone(),
-                curves: vec![None; stack.materials.len()],
+                curves,
                 grid,
                 top,
                 bottom,
@@ -388,9 +395,38 @@ pub struct WinterReport {
     pub envelope: Vec<[f64; 3]>,
 }
 
+/// The unfrozen-water curve of each layer (soils that give one), checked.
+fn unfrozen_curves(layers: &[LayerDoc], errs: &mut InputErrors) -> Vec<Option<UnfrozenWater>> {
+    layers
+        .iter()
+        .enumerate()
+        .map(|(i, l)| match &l.material {
+            MaterialDoc::Soil {
+                water_content_pct,
+                unfrozen_water: Some(u),
+                ..
+            } => {
+                let f = format!("layers[{i}].material.unfrozen_water");
+                let ok_a = check::within(errs, &format!("{f}.alpha"), u.alpha, 1e-4, 2.0, "");
+                let ok_b = check::within(errs, &format!("{f}.beta"), u.beta, -3.0, -0.01, "");
+                (ok_a && ok_b && *water_content_pct > 0.0).then_some(UnfrozenWater {
+                    alpha: u.alpha,
+                    beta: u.beta,
+                    total: water_content_pct / 100.0,
+                })
+            }
+            _ => None,
+        })
+        .collect()
+}
+
 /// Run the winter and build its report.
-pub fn run_winter(w: &WinterDoc, stack: &ResolvedStack) -> Result<WinterReport, InputErrors> {
-    let (spec, climate) = w.run_spec(stack)?;
+pub fn run_winter(
+    w: &WinterDoc,
+    stack: &ResolvedStack,
+    layers: &[LayerDoc],
+) -> Result<WinterReport, InputErrors> {
+    let (spec, climate) = w.run_spec(stack, layers)?;
     let r: RunResult = run::run(&spec, &climate).map_err(|e| {
         InputErrors::from(InputError::new(
             "winter",

@@ -426,3 +426,31 @@ fn cli_writes_the_winter_series_as_csv() {
         .unwrap();
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn a_soil_can_freeze_over_a_range_in_the_winter_run() {
+    // Anderson & Tice 1972 form w_u = α θ^β (from memory; α 0.08, β −0.5 are invented
+    // values for a silt holding 20 %). Freezing over a range leaves water liquid below 0 °C,
+    // so the same winter releases less latent heat near the surface and the run differs
+    // from freezing at 0 °C; energy stays conserved.
+    let base: serde_json::Value =
+        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+    let run = |v: serde_json::Value| {
+        let s = scenario::from_value(v).unwrap();
+        scenario::compute_with_winter(&s).map(|c| c.winter.unwrap())
+    };
+    let sharp = run(base.clone()).unwrap();
+    let mut v = base.clone();
+    v["layers"][0]["material"]["unfrozen_water"] = serde_json::json!({"alpha": 0.08, "beta": -0.5});
+    let spread = run(v.clone()).unwrap();
+    assert!(spread.energy_imbalance_relative < 1e-9);
+    assert!(
+        (spread.max_frost_depth_m - sharp.max_frost_depth_m).abs() > 0.01,
+        "{} vs {}",
+        spread.max_frost_depth_m,
+        sharp.max_frost_depth_m
+    );
+    v["layers"][0]["material"]["unfrozen_water"]["beta"] = serde_json::json!(0.5);
+    let e = run(v).unwrap_err();
+    assert_eq!(e.0[0].field, "layers[0].material.unfrozen_water.beta");
+}
