@@ -289,3 +289,165 @@ pub fn profile_svg(
     }
     Ok(out)
 }
+
+/// Draw frost and thaw depth against time for a winter run: the frozen ground shaded
+/// between the thaw front and the frost front, the deepest frost marked. `scale` as in
+/// [`draw_profile`].
+pub fn draw_frost_depth<DB: DrawingBackend>(
+    root: &DrawingArea<DB, Shift>,
+    w: &crate::scenario_winter::WinterReport,
+    sys: UnitSystem,
+    scale: f64,
+) -> Result<(), ChartError> {
+    let scale = if scale.is_finite() {
+        scale.clamp(0.5, 4.0)
+    } else {
+        1.0
+    };
+    let px = |v: f64| (v * scale).round() as u32;
+    let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
+    let z = |si: f64| zq.show(sys, si);
+    let font = |size: f64| ("sans-serif", size * scale).into_font().color(&INK);
+    root.fill(&WHITE).map_err(err)?;
+    let days = w.daily.last().map_or(1.0, |d| d.day).max(1.0);
+    let deepest = w
+        .daily
+        .iter()
+        .map(|d| d.frost_depth_m)
+        .fold(w.max_frost_depth_m, f64::max);
+    let y_max = z(deepest.max(0.05)) * 1.15;
+    let mut chart = ChartBuilder::on(root)
+        .margin(px(12.0))
+        .caption("Frost in the ground through the run", font(17.0))
+        .x_label_area_size(px(44.0))
+        .y_label_area_size(px(64.0))
+        .build_cartesian_2d(0.0..days, -y_max..0.0)
+        .map_err(err)?;
+    chart
+        .configure_mesh()
+        .light_line_style(RGBColor(235, 235, 235))
+        .x_desc("Day of the run")
+        .y_desc(format!("Depth below the surface ({})", zq.unit(sys).symbol))
+        .y_label_formatter(&|v| format!("{:.2}", v.abs()))
+        .x_label_formatter(&|v| format!("{v:.0}"))
+        .label_style(font(12.0))
+        .axis_desc_style(font(13.0))
+        .draw()
+        .map_err(err)?;
+    // Frozen ground: between the thaw front (or the surface) and the frost front.
+    let mut poly: Vec<(f64, f64)> = w
+        .daily
+        .iter()
+        .map(|d| (d.day, -z(d.frost_depth_m)))
+        .collect();
+    poly.extend(w.daily.iter().rev().map(|d| (d.day, -z(d.thaw_depth_m))));
+    chart
+        .draw_series(std::iter::once(Polygon::new(poly, BAND.mix(0.45).filled())))
+        .map_err(err)?
+        .label("Frozen ground")
+        .legend(move |(x, y)| {
+            Rectangle::new(
+                [
+                    (x, y - px(5.0) as i32),
+                    (x + px(18.0) as i32, y + px(5.0) as i32),
+                ],
+                BAND.mix(0.45).filled(),
+            )
+        });
+    // Each front is drawn only over the spells when it exists (frost: frozen ground below
+    // the surface; thaw: ground thawed from the surface above frozen ground).
+    let spells = |depth: &dyn Fn(&crate::scenario_winter::WinterDay) -> f64| {
+        let mut out: Vec<Vec<(f64, f64)>> = Vec::new();
+        let mut current: Vec<(f64, f64)> = Vec::new();
+        for d in &w.daily {
+            if depth(d) > 0.0 {
+                current.push((d.day, -z(depth(d))));
+            } else if !current.is_empty() {
+                out.push(std::mem::take(&mut current));
+            }
+        }
+        if !current.is_empty() {
+            out.push(current);
+        }
+        out
+    };
+    type Runs = Vec<Vec<(f64, f64)>>;
+    let fronts: [(&str, RGBColor, f64, Runs); 2] = [
+        ("Frost depth", PROFILE, 2.5, spells(&|d| d.frost_depth_m)),
+        (
+            "Thawed from the surface",
+            ZERO,
+            1.5,
+            spells(&|d| d.thaw_depth_m),
+        ),
+    ];
+    for (label, colour, width, runs) in fronts {
+        for (i, run) in runs.into_iter().enumerate() {
+            let series = chart
+                .draw_series(LineSeries::new(run, colour.stroke_width(px(width))))
+                .map_err(err)?;
+            if i == 0 {
+                series.label(label).legend(move |(x, y)| {
+                    PathElement::new(
+                        vec![(x, y), (x + px(18.0) as i32, y)],
+                        colour.stroke_width(px(width)),
+                    )
+                });
+            }
+        }
+    }
+    let (mx, my) = (w.max_frost_day, -z(w.max_frost_depth_m));
+    chart
+        .draw_series(std::iter::once(Circle::new(
+            (mx, my),
+            px(4.0),
+            PROFILE.filled(),
+        )))
+        .map_err(err)?;
+    let right_side = mx < 0.6 * days;
+    chart
+        .draw_series(std::iter::once(Text::new(
+            format!(
+                "deepest {:.2} {} on day {:.0}",
+                -my,
+                zq.unit(sys).symbol,
+                mx
+            ),
+            (
+                mx + if right_side { 0.015 } else { -0.015 } * days,
+                my - 0.02 * y_max,
+            ),
+            font(12.0).pos(Pos::new(
+                if right_side { HPos::Left } else { HPos::Right },
+                VPos::Top,
+            )),
+        )))
+        .map_err(err)?;
+    chart
+        .configure_series_labels()
+        .position(SeriesLabelPosition::UpperRight)
+        .legend_area_size(px(28.0))
+        .margin(px(10.0))
+        .background_style(WHITE.mix(0.85))
+        .border_style(RGBColor(200, 200, 200))
+        .label_font(font(12.0))
+        .draw()
+        .map_err(err)?;
+    root.present().map_err(err)?;
+    Ok(())
+}
+
+/// The frost-depth chart of a winter run as an SVG document.
+pub fn frost_depth_svg(
+    w: &crate::scenario_winter::WinterReport,
+    sys: UnitSystem,
+    width: u32,
+    height: u32,
+) -> Result<String, ChartError> {
+    let mut out = String::new();
+    {
+        let root = SVGBackend::with_string(&mut out, (width, height)).into_drawing_area();
+        draw_frost_depth(&root, w, sys, 1.0)?;
+    }
+    Ok(out)
+}

@@ -395,12 +395,17 @@ fn cli_writes_the_winter_series_as_csv() {
         .unwrap();
     std::fs::write(&file, &out.stdout).unwrap();
     let csv = dir.join("yard.csv");
+    let svg = dir.join("yard-frost.svg");
     let out = cli()
         .args([
             "run",
             file.to_str().unwrap(),
             "--csv",
             csv.to_str().unwrap(),
+            "--winter-svg",
+            svg.to_str().unwrap(),
+            "--units",
+            "us",
         ])
         .output()
         .unwrap();
@@ -412,6 +417,9 @@ fn cli_writes_the_winter_series_as_csv() {
     let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert!(report["winter"]["max_frost_depth_m"].as_f64().unwrap() > 0.5);
     assert_eq!(std::fs::read_to_string(csv).unwrap().lines().count(), 367);
+    let svg = std::fs::read_to_string(svg).unwrap();
+    assert!(svg.starts_with("<svg") && svg.contains("Frost depth") && svg.contains("deepest"));
+    assert!(svg.contains("(ft)"), "the chart follows --units us");
     // A scenario without a winter cannot export one.
     let wall = dir.join("wall.json");
     std::fs::write(&wall, scenario::example("snow-block-wall").unwrap().json).unwrap();

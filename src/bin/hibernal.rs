@@ -41,6 +41,9 @@ mod cli {
             /// Also write the temperature profile chart to this SVG file.
             #[arg(long, value_name = "OUT.svg")]
             svg: Option<PathBuf>,
+            /// Also write the winter run's frost-depth chart to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            winter_svg: Option<PathBuf>,
             /// Also write the winter run's daily series to this CSV file (units in the header).
             #[arg(long, value_name = "OUT.csv")]
             csv: Option<PathBuf>,
@@ -94,6 +97,7 @@ mod cli {
             Command::Run {
                 file,
                 svg,
+                winter_svg,
                 csv,
                 units,
             } => {
@@ -116,6 +120,18 @@ mod cli {
                 match serde_json::to_string_pretty(&report) {
                     Ok(s) => println!("{s}"),
                     Err(e) => return fail(e),
+                }
+                if let Some(out) = winter_svg {
+                    let Some(w) = &computed.winter else {
+                        return fail("--winter-svg needs a scenario with a winter section");
+                    };
+                    let chart = match hibernal::chart::frost_depth_svg(w, sys, 900, 520) {
+                        Ok(s) => s,
+                        Err(e) => return fail(e),
+                    };
+                    if let Err(e) = std::fs::write(&out, chart) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
                 }
                 if let Some(out) = csv {
                     let Some(w) = &computed.winter else {

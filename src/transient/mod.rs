@@ -260,21 +260,25 @@ impl Solver {
         let f = self.frozen_fraction(deepest).clamp(0.0, 1.0);
         let frost = c.top_m + f * c.dz_m;
         // Thaw from the top: the first freezable cell not fully frozen, above frozen ground.
-        let mut thaw = 0.0;
+        let mut thaw: f64 = 0.0;
         for i in (0..=deepest).filter(|&i| freezes(i)) {
             let fi = self.frozen_fraction(i).clamp(0.0, 1.0);
             if fi >= 1.0 - 1e-9 {
                 break;
             }
             let ci = &self.cells[i];
+            if i == deepest {
+                // The last frozen lens lies inside this one cell: its ice is taken to sit
+                // just above the frost front, so the thaw front is the cell's top.
+                thaw = ci.top_m;
+                break;
+            }
             thaw = ci.top_m + (1.0 - fi) * ci.dz_m;
             if fi > 1e-9 {
                 break;
             }
         }
-        if thaw >= frost {
-            thaw = 0.0;
-        }
+        let thaw = thaw.min(frost);
         Fronts {
             frost_depth_m: frost,
             thaw_depth_m: thaw,
