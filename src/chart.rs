@@ -1,6 +1,7 @@
 //! Charts, written once against plotters' generic [`DrawingBackend`]: the page draws them on
 //! its canvas (plotters-canvas), the CLI and the tests to SVG.
 
+use plotters::coord::types::RangedCoordf64;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
@@ -261,16 +262,7 @@ pub fn draw_profile<DB: DrawingBackend>(
             .map_err(err)?;
     }
 
-    chart
-        .configure_series_labels()
-        .position(SeriesLabelPosition::LowerLeft)
-        .legend_area_size(px(28.0))
-        .margin(px(10.0))
-        .background_style(WHITE.mix(0.85))
-        .border_style(RGBColor(200, 200, 200))
-        .label_font(font(12.0))
-        .draw()
-        .map_err(err)?;
+    draw_legend(&mut chart, SeriesLabelPosition::LowerLeft, scale)?;
     root.present().map_err(err)?;
     Ok(())
 }
@@ -282,12 +274,40 @@ pub fn profile_svg(
     width: u32,
     height: u32,
 ) -> Result<String, ChartError> {
+    svg_document(width, height, |root| draw_profile(root, c, sys, 1.0))
+}
+
+/// Render a chart into an SVG document string.
+fn svg_document(
+    width: u32,
+    height: u32,
+    draw: impl FnOnce(&DrawingArea<SVGBackend<'_>, Shift>) -> Result<(), ChartError>,
+) -> Result<String, ChartError> {
     let mut out = String::new();
     {
         let root = SVGBackend::with_string(&mut out, (width, height)).into_drawing_area();
-        draw_profile(&root, c, sys, 1.0)?;
+        draw(&root)?;
     }
     Ok(out)
+}
+
+/// The legend box shared by the charts.
+fn draw_legend<'a, DB: DrawingBackend + 'a>(
+    chart: &mut ChartContext<'a, DB, Cartesian2d<RangedCoordf64, RangedCoordf64>>,
+    position: SeriesLabelPosition,
+    scale: f64,
+) -> Result<(), ChartError> {
+    let px = |v: f64| (v * scale).round() as u32;
+    chart
+        .configure_series_labels()
+        .position(position)
+        .legend_area_size(px(28.0))
+        .margin(px(10.0))
+        .background_style(WHITE.mix(0.85))
+        .border_style(RGBColor(200, 200, 200))
+        .label_font(("sans-serif", 12.0 * scale).into_font().color(&INK))
+        .draw()
+        .map_err(err)
 }
 
 /// Draw frost and thaw depth against time for a winter run: the frozen ground shaded
@@ -423,16 +443,7 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
             )),
         )))
         .map_err(err)?;
-    chart
-        .configure_series_labels()
-        .position(SeriesLabelPosition::UpperRight)
-        .legend_area_size(px(28.0))
-        .margin(px(10.0))
-        .background_style(WHITE.mix(0.85))
-        .border_style(RGBColor(200, 200, 200))
-        .label_font(font(12.0))
-        .draw()
-        .map_err(err)?;
+    draw_legend(&mut chart, SeriesLabelPosition::UpperRight, scale)?;
     root.present().map_err(err)?;
     Ok(())
 }
@@ -444,10 +455,5 @@ pub fn frost_depth_svg(
     width: u32,
     height: u32,
 ) -> Result<String, ChartError> {
-    let mut out = String::new();
-    {
-        let root = SVGBackend::with_string(&mut out, (width, height)).into_drawing_area();
-        draw_frost_depth(&root, w, sys, 1.0)?;
-    }
-    Ok(out)
+    svg_document(width, height, |root| draw_frost_depth(root, w, sys, 1.0))
 }

@@ -289,10 +289,7 @@ impl Solver {
         let n = self.cells.len();
         // Half-cell resistances Δz/2k, then face conductances 1/(r_above + r_below).
         for i in 0..n {
-            let k = self.cells[i]
-                .phase
-                .conductivity(self.enthalpy[i], self.temperature[i]);
-            self.k[i] = 0.5 * self.cells[i].dz_m / k;
+            self.k[i] = self.half_resistance(i);
         }
         self.g[0] = match *top {
             TopCondition::Air {
@@ -319,10 +316,7 @@ impl Solver {
         let n = self.cells.len();
         let mut settled = true;
         for i in 0..n {
-            let k = self.cells[i]
-                .phase
-                .conductivity(self.enthalpy[i], self.temperature[i]);
-            let half = 0.5 * self.cells[i].dz_m / k;
+            let half = self.half_resistance(i);
             if (half - self.k[i]).abs() > 1e-4 * self.k[i] {
                 settled = false;
                 break;
@@ -332,6 +326,21 @@ impl Solver {
             self.update_conductances(top, bottom);
         }
         settled
+    }
+
+    /// Half-cell resistance Δz/2k of cell i at its current state, m²K/W.
+    fn half_resistance(&self, i: usize) -> f64 {
+        let k = self.cells[i]
+            .phase
+            .conductivity(self.enthalpy[i], self.temperature[i]);
+        0.5 * self.cells[i].dz_m / k
+    }
+
+    /// Record a converged step's face fluxes and the energy they carried in.
+    fn book(&mut self, q_top: f64, q_bot: f64, dt: f64) {
+        self.last_top_flux_w_m2 = q_top;
+        self.last_bottom_flux_w_m2 = q_bot;
+        self.energy_in_j_m2 += (q_top + q_bot) * dt;
     }
 
     /// Fluxes into the column through the top and bottom faces, W/m².
@@ -408,9 +417,7 @@ impl Solver {
                     continue;
                 }
                 // Book the energy with the conductances and temperatures of this state.
-                self.last_top_flux_w_m2 = q_top;
-                self.last_bottom_flux_w_m2 = q_bot;
-                self.energy_in_j_m2 += (q_top + q_bot) * dt;
+                self.book(q_top, q_bot, dt);
                 return Ok(iter.max(1));
             }
             if iter == self.tolerances.max_iterations {
@@ -459,9 +466,7 @@ impl Solver {
             // Newton step solved the step's equations exactly (to round-off).
             if same_regime && self.linear_pieces && self.conductances_settled(top, bottom) {
                 let (q_top, q_bot) = self.fluxes(top, bottom);
-                self.last_top_flux_w_m2 = q_top;
-                self.last_bottom_flux_w_m2 = q_bot;
-                self.energy_in_j_m2 += (q_top + q_bot) * dt;
+                self.book(q_top, q_bot, dt);
                 return Ok(iter + 1);
             }
         }
