@@ -393,6 +393,33 @@ pub struct WinterReport {
     pub daily: Vec<WinterDay>,
     /// Cell centres (m) with the lowest and highest temperature each reached.
     pub envelope: Vec<[f64; 3]>,
+    /// Depths of the layer faces from the top face down, m (first 0, last the bottom).
+    pub layer_faces_m: Vec<f64>,
+    pub layer_names: Vec<String>,
+    /// The temperature of each cell (centres in `envelope`) at the end of each day; left out
+    /// of the JSON report (the CLI writes it as CSV on request).
+    #[serde(skip)]
+    pub profiles: Vec<DayProfile>,
+}
+
+/// The temperature profile at one instant.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DayProfile {
+    pub day: f64,
+    /// °C, one per cell, top down.
+    pub temperature_c: Vec<f64>,
+}
+
+impl WinterReport {
+    /// The profile kept nearest to `day`.
+    pub fn profile_near(&self, day: f64) -> Option<&DayProfile> {
+        self.profiles.iter().min_by(|a, b| {
+            (a.day - day)
+                .abs()
+                .partial_cmp(&(b.day - day).abs())
+                .unwrap_or(std::cmp::Ordering::Equal)
+        })
+    }
 }
 
 /// The unfrozen-water curve of each layer (soils that give one), checked.
@@ -420,19 +447,74 @@ fn unfrozen_curves(layers: &[LayerDoc], errs: &mut InputErrors) -> Vec<Option<Un
         .collect()
 }
 
+/// A winter run under way, advanced a slice at a time (the page shows its progress and
+/// stays responsive); [`run_winter`] drives one to the end.
+#[derive(Debug, Clone)]
+pub struct WinterJob {
+    run: run::Run,
+    climate: Climate,
+    faces_m: Vec<f64>,
+    layer_names: Vec<String>,
+}
+
+fn run_error(e: crate::transient::TransientError) -> InputErrors {
+    InputErrors::from(InputError::new(
+        "winter",
+        InputErrorKind::NotCovered(e.to_string()),
+    ))
+}
+
+impl WinterJob {
+    /// Check the winter section against the resolved stack and set the run up.
+    pub fn new(
+        w: &WinterDoc,
+        stack: &ResolvedStack,
+        layers: &[LayerDoc],
+    ) -> Result<WinterJob, InputErrors> {
+        let (spec, climate) = w.run_spec(stack, layers)?;
+        let run = run::Run::new(&spec).map_err(run_error)?;
+        let mut faces_m = vec![0.0];
+        for l in &stack.layers {
+            faces_m.push(faces_m.last().copied().unwrap_or(0.0) + l.thickness_m);
+        }
+        Ok(WinterJob {
+            run,
+            climate,
+            faces_m,
+            layer_names: stack.layers.iter().map(|l| l.name.clone()).collect(),
+        })
+    }
+
+    /// Advance by at most `max_steps` time steps; the share of the work done (0–1) and
+    /// whether the run has finished.
+    pub fn advance(&mut self, max_steps: usize) -> Result<run::Progress, InputErrors> {
+        self.run
+            .advance(&self.climate, max_steps)
+            .map_err(run_error)
+    }
+
+    pub fn progress(&self) -> run::Progress {
+        self.run.progress()
+    }
+
+    /// The report (of the part run, if called before the end).
+    pub fn finish(self) -> WinterReport {
+        report_of(self.run.finish(), self.faces_m, self.layer_names)
+    }
+}
+
 /// Run the winter and build its report.
 pub fn run_winter(
     w: &WinterDoc,
     stack: &ResolvedStack,
     layers: &[LayerDoc],
 ) -> Result<WinterReport, InputErrors> {
-    let (spec, climate) = w.run_spec(stack, layers)?;
-    let r: RunResult = run::run(&spec, &climate).map_err(|e| {
-        InputErrors::from(InputError::new(
-            "winter",
-            InputErrorKind::NotCovered(e.to_string()),
-        ))
-    })?;
+    let mut job = WinterJob::new(w, stack, layers)?;
+    while !job.advance(usize::MAX)?.finished {}
+    Ok(job.finish())
+}
+
+fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> WinterReport {
     let mut daily = Vec::new();
     let mut next = 0.0;
     for s in &r.samples {
@@ -449,7 +531,7 @@ pub fn run_winter(
             next += 86_400.0;
         }
     }
-    Ok(WinterReport {
+    WinterReport {
         max_frost_depth_m: r.max_frost_depth_m,
         max_frost_day: r.max_frost_time_s / 86_400.0,
         air_freezing_index_c_days: r.air_freezing_index_c_days,
@@ -468,7 +550,17 @@ pub fn run_winter(
             .zip(r.min_c.iter().zip(&r.max_c))
             .map(|(&z, (&lo, &hi))| [z, lo, hi])
             .collect(),
-    })
+        layer_faces_m: faces_m,
+        layer_names,
+        profiles: r
+            .profiles
+            .into_iter()
+            .map(|(t, temperature_c)| DayProfile {
+                day: t / 86_400.0,
+                temperature_c,
+            })
+            .collect(),
+    }
 }
 
 /// The daily series as CSV text, units in the header.

@@ -436,3 +436,60 @@ fn a_design_winter_drives_a_run_whose_air_freezing_index_is_the_one_asked_for() 
     );
     assert!((r.energy_imbalance_j_m2 / r.energy_throughput_j_m2).abs() < 1e-9);
 }
+
+#[test]
+fn a_run_advanced_in_slices_gives_the_same_results_as_one_call() {
+    // The page advances a run a slice at a time; slicing must not change a single number
+    // (the same steps are taken in the same order). Spin-up is sliced too.
+    use hibernal::climate::Climate;
+    use hibernal::transient::run::{run, Initial, Run, RunSpec, TopModel};
+    let climate = Climate::Sinusoid {
+        mean_c: 1.0,
+        amplitude_k: 14.0,
+        coldest_day_of_year: 20,
+    };
+    let soil = material(1.8, 1.4, 2.0e6, 2.8e6, 1.0e8);
+    let spec = RunSpec {
+        thicknesses_m: vec![4.0],
+        materials: vec![soil],
+        curves: vec![None],
+        grid: GridSpec {
+            surface_cell_m: 0.02,
+            growth_ratio: 1.1,
+            max_cell_m: 0.3,
+        },
+        top: TopModel::NFactor {
+            freezing: 0.8,
+            thawing: 1.2,
+        },
+        bottom: BottomCondition::Flux { upward_w_m2: 0.05 },
+        initial: Initial::SpinUp {
+            start_c: 2.0,
+            max_years: 3,
+        },
+        step_s: 6.0 * 3600.0,
+        duration_s: YEAR,
+        profile_every_s: DAY,
+    };
+    let whole = run(&spec, &climate).unwrap();
+    let mut sliced = Run::new(&spec).unwrap();
+    let mut calls = 0;
+    let mut last = 0.0;
+    loop {
+        let p = sliced.advance(&climate, 97).unwrap();
+        calls += 1;
+        assert!(p.fraction >= last, "progress never goes back");
+        last = p.fraction;
+        if p.finished {
+            break;
+        }
+    }
+    assert!(calls > 10, "the run was sliced ({calls} calls)");
+    assert_eq!(last, 1.0);
+    let sliced = sliced.finish();
+    assert_eq!(sliced.spin_up_years, whole.spin_up_years);
+    assert_eq!(sliced.samples, whole.samples);
+    assert_eq!(sliced.profiles, whole.profiles);
+    assert_eq!(sliced.max_frost_depth_m, whole.max_frost_depth_m);
+    assert_eq!(sliced.min_c, whole.min_c);
+}

@@ -164,148 +164,266 @@ fn top_condition(spec: &RunSpec, forcing: &dyn Forcing, t: f64) -> (TopCondition
     }
 }
 
-fn run_span(
-    s: &mut Solver,
-    spec: &RunSpec,
-    forcing: &dyn Forcing,
-    t0: f64,
-    duration: f64,
-    mut on_step: impl FnMut(&Solver, f64, f64, f64),
-) -> Result<(), TransientError> {
-    let n_steps = (duration / spec.step_s).ceil().max(1.0) as usize;
-    let dt = duration / n_steps as f64;
-    for k in 1..=n_steps {
-        let t = t0 + dt * k as f64;
-        let (top, air, snow) = top_condition(spec, forcing, t);
-        s.step(dt, &top, &spec.bottom)?;
-        on_step(s, air, snow, dt);
-    }
-    Ok(())
+/// A run in progress, advanced a slice at a time so that a caller (the page) can show
+/// progress and stay responsive. [`run`] drives one to the end in a single call.
+///
+/// The forcing is passed to each call rather than held, so a run owns no borrowed data.
+#[derive(Debug, Clone)]
+pub struct Run {
+    spec: RunSpec,
+    solver: Solver,
+    /// Spin-up years done, and the state at the start of the year under way.
+    spin_up_years: u32,
+    spinning: Option<Vec<f64>>,
+    /// Steps of the main run done, out of `n_steps`, each `dt` long.
+    done: usize,
+    n_steps: usize,
+    dt: f64,
+    /// Steps per spin-up year and their length.
+    year_steps: usize,
+    year_dt: f64,
+    spin_step: usize,
+    min_c: Vec<f64>,
+    max_c: Vec<f64>,
+    samples: Vec<Sample>,
+    profiles: Vec<(f64, Vec<f64>)>,
+    next_profile: f64,
+    air_dd: DegreeDays,
+    surf_dd: DegreeDays,
+    throughput: f64,
+    max_frost: (f64, f64),
+    started: bool,
 }
 
-/// Run the column under the forcing.
-pub fn run(spec: &RunSpec, forcing: &dyn Forcing) -> Result<RunResult, TransientError> {
-    if spec.materials.is_empty() || spec.thicknesses_m.len() != spec.materials.len() {
-        return Err(TransientError::Input {
-            field: "layers".into(),
-            message: "a run needs at least one layer".into(),
-        });
+/// How far a run has got.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Progress {
+    /// Share of the work done, 0–1 (spin-up counted as its year budget, then the run).
+    pub fraction: f64,
+    pub finished: bool,
+}
+
+fn steps_for(duration: f64, step_s: f64) -> (usize, f64) {
+    let n = (duration / step_s).ceil().max(1.0) as usize;
+    (n, duration / n as f64)
+}
+
+impl Run {
+    /// Check the spec and set the column up in its initial state.
+    pub fn new(spec: &RunSpec) -> Result<Run, TransientError> {
+        if spec.materials.is_empty() || spec.thicknesses_m.len() != spec.materials.len() {
+            return Err(TransientError::Input {
+                field: "layers".into(),
+                message: "a run needs at least one layer".into(),
+            });
+        }
+        if !(spec.step_s > 0.0 && spec.duration_s > 0.0 && spec.duration_s / spec.step_s <= 5.0e6) {
+            return Err(TransientError::Input {
+                field: "run.step_s".into(),
+                message: "the step must be positive and the run at most 5 million steps".into(),
+            });
+        }
+        let cells = cells_for(
+            &spec.thicknesses_m,
+            &spec.materials,
+            &spec.grid,
+            &spec.curves,
+        );
+        let start = match spec.initial {
+            Initial::Uniform(t) | Initial::SpinUp { start_c: t, .. } => t,
+        };
+        let solver = Solver::new(cells, start);
+        let (n_steps, dt) = steps_for(spec.duration_s, spec.step_s);
+        let (year_steps, year_dt) = steps_for(365.0 * 86_400.0, spec.step_s);
+        let spinning = match spec.initial {
+            Initial::SpinUp { max_years, .. } if max_years > 0 => Some(solver.temperature.clone()),
+            _ => None,
+        };
+        Ok(Run {
+            spec: spec.clone(),
+            min_c: solver.temperature.clone(),
+            max_c: solver.temperature.clone(),
+            samples: Vec::with_capacity(n_steps + 1),
+            profiles: Vec::new(),
+            next_profile: spec.profile_every_s,
+            air_dd: DegreeDays::default(),
+            surf_dd: DegreeDays::default(),
+            throughput: 0.0,
+            max_frost: (0.0, 0.0),
+            solver,
+            spin_up_years: 0,
+            spinning,
+            done: 0,
+            n_steps,
+            dt,
+            year_steps,
+            year_dt,
+            spin_step: 0,
+            started: false,
+        })
     }
-    if !(spec.step_s > 0.0 && spec.duration_s > 0.0 && spec.duration_s / spec.step_s <= 5.0e6) {
-        return Err(TransientError::Input {
-            field: "run.step_s".into(),
-            message: "the step must be positive and the run at most 5 million steps".into(),
-        });
+
+    /// Cell centres, m.
+    pub fn depths_m(&self) -> Vec<f64> {
+        self.solver.cells.iter().map(|c| c.center_m()).collect()
     }
-    let cells = cells_for(
-        &spec.thicknesses_m,
-        &spec.materials,
-        &spec.grid,
-        &spec.curves,
-    );
-    let start = match spec.initial {
-        Initial::Uniform(t) | Initial::SpinUp { start_c: t, .. } => t,
-    };
-    let mut s = Solver::new(cells, start);
-    let mut spin_up_years = 0;
-    if let Initial::SpinUp { max_years, .. } = spec.initial {
-        let year = 365.0 * 86_400.0;
-        for _ in 0..max_years {
-            let before = s.temperature.clone();
-            s.time_s = 0.0;
-            run_span(&mut s, spec, forcing, 0.0, year, |_, _, _, _| {})?;
-            spin_up_years += 1;
-            let change = before
-                .iter()
-                .zip(&s.temperature)
-                .map(|(a, b)| (a - b).abs())
-                .fold(0.0, f64::max);
-            if change < 0.01 {
-                break;
+
+    pub fn progress(&self) -> Progress {
+        let spin_budget = match self.spec.initial {
+            Initial::SpinUp { max_years, .. } => max_years as f64 * self.year_steps as f64,
+            Initial::Uniform(_) => 0.0,
+        };
+        let spin_done = if self.spinning.is_some() {
+            self.spin_up_years as f64 * self.year_steps as f64 + self.spin_step as f64
+        } else {
+            spin_budget
+        };
+        let total = spin_budget + self.n_steps as f64;
+        Progress {
+            fraction: ((spin_done + self.done as f64) / total).min(1.0),
+            finished: self.done >= self.n_steps,
+        }
+    }
+
+    /// Advance by at most `max_steps` time steps (spin-up steps count).
+    pub fn advance(
+        &mut self,
+        forcing: &dyn Forcing,
+        max_steps: usize,
+    ) -> Result<Progress, TransientError> {
+        let mut budget = max_steps.max(1);
+        while budget > 0 && self.spinning.is_some() {
+            self.spin_step += 1;
+            budget -= 1;
+            let t = self.year_dt * self.spin_step as f64;
+            let (top, _, _) = top_condition(&self.spec, forcing, t);
+            self.solver.step(self.year_dt, &top, &self.spec.bottom)?;
+            if self.spin_step >= self.year_steps {
+                self.end_spin_up_year();
             }
         }
-        s.time_s = 0.0;
-        s.energy_start_j_m2 = s.stored_energy_j_m2();
-        s.energy_in_j_m2 = 0.0;
-        s.work = Default::default();
+        if self.spinning.is_some() {
+            return Ok(self.progress());
+        }
+        if !self.started {
+            self.begin_main(forcing);
+        }
+        while budget > 0 && self.done < self.n_steps {
+            budget -= 1;
+            self.done += 1;
+            let t = self.dt * self.done as f64;
+            let (top, air, snow) = top_condition(&self.spec, forcing, t);
+            self.solver.step(self.dt, &top, &self.spec.bottom)?;
+            self.record(air, snow);
+        }
+        Ok(self.progress())
     }
-    let n = s.cells.len();
-    let depths_m: Vec<f64> = s.cells.iter().map(|c| c.center_m()).collect();
-    let mut min_c = s.temperature.clone();
-    let mut max_c = s.temperature.clone();
-    let mut samples = Vec::with_capacity((spec.duration_s / spec.step_s) as usize + 1);
-    let mut profiles = vec![(0.0, s.temperature.clone())];
-    let mut next_profile = spec.profile_every_s;
-    let (mut air_dd, mut surf_dd) = (DegreeDays::default(), DegreeDays::default());
-    let mut throughput = 0.0;
-    let mut max_frost = (0.0, 0.0);
-    let f0 = s.fronts();
-    samples.push(Sample {
-        time_s: 0.0,
-        air_c: forcing.air_c(0.0),
-        surface_c: s.temperature[0],
-        frost_depth_m: f0.frost_depth_m,
-        thaw_depth_m: f0.thaw_depth_m,
-        ground_flux_w_m2: 0.0,
-        snow_depth_m: forcing.snow(0.0).map_or(0.0, |x| x.0),
-    });
-    run_span(
-        &mut s,
-        spec,
-        forcing,
-        0.0,
-        spec.duration_s,
-        |s, air, snow, dt| {
-            for i in 0..n {
-                min_c[i] = min_c[i].min(s.temperature[i]);
-                max_c[i] = max_c[i].max(s.temperature[i]);
-            }
-            let fr = s.fronts();
-            if fr.frost_depth_m > max_frost.0 {
-                max_frost = (fr.frost_depth_m, s.time_s);
-            }
-            // Surface temperature: extrapolate the top cell through its half-cell.
-            let surface = s.temperature[0]
-                + s.last_top_flux_w_m2 * 0.5 * s.cells[0].dz_m
-                    / s.cells[0]
-                        .phase
-                        .conductivity(s.enthalpy[0], s.temperature[0]);
-            air_dd.add(air, dt);
-            surf_dd.add(surface, dt);
-            throughput += (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt;
-            samples.push(Sample {
-                time_s: s.time_s,
-                air_c: air,
-                surface_c: surface,
-                frost_depth_m: fr.frost_depth_m,
-                thaw_depth_m: fr.thaw_depth_m,
-                ground_flux_w_m2: s.last_top_flux_w_m2,
-                snow_depth_m: snow,
-            });
-            if s.time_s >= next_profile - 1e-6 {
-                profiles.push((s.time_s, s.temperature.clone()));
-                next_profile += spec.profile_every_s;
-            }
-        },
-    )?;
-    Ok(RunResult {
-        samples,
-        depths_m,
-        profiles,
-        min_c,
-        max_c,
-        max_frost_depth_m: max_frost.0,
-        max_frost_time_s: max_frost.1,
-        air_freezing_index_c_days: air_dd.range,
-        surface_freezing_index_c_days: surf_dd.range,
-        energy_imbalance_j_m2: s.energy_imbalance_j_m2(),
-        energy_throughput_j_m2: throughput,
-        steps: s.work.steps,
-        iterations: s.work.iterations,
-        splits: s.work.splits,
-        cells: n,
-        spin_up_years,
-    })
+
+    fn end_spin_up_year(&mut self) {
+        let Initial::SpinUp { max_years, .. } = self.spec.initial else {
+            return;
+        };
+        self.spin_up_years += 1;
+        self.spin_step = 0;
+        self.solver.time_s = 0.0;
+        let before = self.spinning.take().unwrap_or_default();
+        let change = before
+            .iter()
+            .zip(&self.solver.temperature)
+            .map(|(a, b)| (a - b).abs())
+            .fold(0.0, f64::max);
+        if change >= 0.01 && self.spin_up_years < max_years {
+            self.spinning = Some(self.solver.temperature.clone());
+        } else {
+            let s = &mut self.solver;
+            s.energy_start_j_m2 = s.stored_energy_j_m2();
+            s.energy_in_j_m2 = 0.0;
+            s.work = Default::default();
+        }
+    }
+
+    fn begin_main(&mut self, forcing: &dyn Forcing) {
+        self.started = true;
+        let s = &self.solver;
+        self.min_c = s.temperature.clone();
+        self.max_c = s.temperature.clone();
+        self.profiles = vec![(0.0, s.temperature.clone())];
+        let f0 = s.fronts();
+        self.samples.push(Sample {
+            time_s: 0.0,
+            air_c: forcing.air_c(0.0),
+            surface_c: s.temperature[0],
+            frost_depth_m: f0.frost_depth_m,
+            thaw_depth_m: f0.thaw_depth_m,
+            ground_flux_w_m2: 0.0,
+            snow_depth_m: forcing.snow(0.0).map_or(0.0, |x| x.0),
+        });
+    }
+
+    fn record(&mut self, air: f64, snow: f64) {
+        let s = &self.solver;
+        let dt = self.dt;
+        for i in 0..s.cells.len() {
+            self.min_c[i] = self.min_c[i].min(s.temperature[i]);
+            self.max_c[i] = self.max_c[i].max(s.temperature[i]);
+        }
+        let fr = s.fronts();
+        if fr.frost_depth_m > self.max_frost.0 {
+            self.max_frost = (fr.frost_depth_m, s.time_s);
+        }
+        // Surface temperature: extrapolate the top cell through its half-cell.
+        let surface = s.temperature[0]
+            + s.last_top_flux_w_m2 * 0.5 * s.cells[0].dz_m
+                / s.cells[0]
+                    .phase
+                    .conductivity(s.enthalpy[0], s.temperature[0]);
+        self.air_dd.add(air, dt);
+        self.surf_dd.add(surface, dt);
+        self.throughput += (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt;
+        self.samples.push(Sample {
+            time_s: s.time_s,
+            air_c: air,
+            surface_c: surface,
+            frost_depth_m: fr.frost_depth_m,
+            thaw_depth_m: fr.thaw_depth_m,
+            ground_flux_w_m2: s.last_top_flux_w_m2,
+            snow_depth_m: snow,
+        });
+        if s.time_s >= self.next_profile - 1e-6 {
+            self.profiles.push((s.time_s, s.temperature.clone()));
+            self.next_profile += self.spec.profile_every_s;
+        }
+    }
+
+    /// The results; call once [`Progress::finished`] (earlier, they cover the part run).
+    pub fn finish(self) -> RunResult {
+        let s = &self.solver;
+        RunResult {
+            depths_m: self.depths_m(),
+            energy_imbalance_j_m2: s.energy_imbalance_j_m2(),
+            energy_throughput_j_m2: self.throughput,
+            steps: s.work.steps,
+            iterations: s.work.iterations,
+            splits: s.work.splits,
+            cells: s.cells.len(),
+            samples: self.samples,
+            profiles: self.profiles,
+            min_c: self.min_c,
+            max_c: self.max_c,
+            max_frost_depth_m: self.max_frost.0,
+            max_frost_time_s: self.max_frost.1,
+            air_freezing_index_c_days: self.air_dd.range,
+            surface_freezing_index_c_days: self.surf_dd.range,
+            spin_up_years: self.spin_up_years,
+        }
+    }
+}
+
+/// Run the column under the forcing, to the end.
+pub fn run(spec: &RunSpec, forcing: &dyn Forcing) -> Result<RunResult, TransientError> {
+    let mut r = Run::new(spec)?;
+    while !r.advance(forcing, usize::MAX)?.finished {}
+    Ok(r.finish())
 }
 
 /// Density assumed for recorded snow whose density is not given, kg/m³: settled snow
