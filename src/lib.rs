@@ -4,7 +4,8 @@
 //! [`climate`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
 //! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
 //! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
-//! from CSV text), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32
+//! from CSV text), [`climate_import`] (that record brought into a scenario, with its
+//! winters' freezing indices and design values), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32
 //! only).
 
 pub mod analytic;
@@ -18,6 +19,7 @@ pub mod units;
 
 pub mod chart;
 pub mod climate_csv;
+pub mod climate_import;
 pub mod scenario;
 pub mod scenario_winter;
 

@@ -563,22 +563,46 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
     }
 }
 
-/// The daily series as CSV text, units in the header.
+/// The daily series as CSV text in SI, units in the header.
 pub fn daily_csv(r: &WinterReport) -> String {
-    let mut out = String::from(
-        "day,air temperature [°C],surface temperature [°C],frost depth [m],thaw depth [m],ground heat flux [W/m²],snow depth [m]\n",
-    );
+    daily_csv_in(r, crate::units::UnitSystem::Si)
+}
+
+/// The daily series as CSV text in the chosen units, units in the header. Values carry a
+/// few more decimals than the page shows, so a spreadsheet can redo its sums.
+pub fn daily_csv_in(r: &WinterReport, sys: crate::units::UnitSystem) -> String {
+    use crate::units::quantity;
+    let cols: [(&str, &str); 6] = [
+        ("air temperature", "temperature"),
+        ("surface temperature", "temperature"),
+        ("frost depth", "depth"),
+        ("thaw depth", "depth"),
+        ("ground heat flux", "heat_flux"),
+        ("snow depth", "depth"),
+    ];
+    let mut out = String::from("day");
+    for (name, q) in cols {
+        let sym = quantity(q).map_or("", |q| q.unit(sys).symbol);
+        out.push_str(&format!(",{name} [{sym}]"));
+    }
+    out.push('\n');
     for d in &r.daily {
-        out.push_str(&format!(
-            "{:.3},{:.3},{:.3},{:.4},{:.4},{:.3},{:.3}\n",
-            d.day,
+        let values = [
             d.air_c,
             d.surface_c,
             d.frost_depth_m,
             d.thaw_depth_m,
             d.ground_flux_w_m2,
-            d.snow_depth_m
-        ));
+            d.snow_depth_m,
+        ];
+        out.push_str(&format!("{:.3}", d.day));
+        for ((_, q), v) in cols.iter().zip(values) {
+            let (shown, places) = quantity(q).map_or((v, 3), |q| {
+                (q.show(sys, v), usize::from(q.unit(sys).decimals) + 2)
+            });
+            out.push_str(&format!(",{shown:.places$}"));
+        }
+        out.push('\n');
     }
     out
 }

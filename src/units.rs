@@ -93,7 +93,7 @@ pub const BTU_FT3_F_PER_J_M3K: f64 = 1.0 / 67_066.1;
 pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 16] = [
+pub const QUANTITIES: [Quantity; 19] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -173,6 +173,23 @@ pub const QUANTITIES: [Quantity; 16] = [
         id: "latent_vol",
         si: u("MJ/m³", 1e-6, 0.0, 1),
         us: u("Btu/ft³", BTU_FT3_PER_J_M3, 0.0, 0),
+    },
+    Quantity {
+        id: "degree_days",
+        // A temperature interval times a time: 1 K = 1.8 °F (NIST SP 811, B.8).
+        si: u("°C·days", 1.0, 0.0, 0),
+        us: u("°F·days", DEG_F_PER_K, 0.0, 0),
+    },
+    Quantity {
+        id: "days",
+        si: u("days", 1.0, 0.0, 0),
+        us: u("days", 1.0, 0.0, 0),
+    },
+    Quantity {
+        id: "step",
+        // Stored in seconds, shown in hours.
+        si: u("h", 1.0 / 3600.0, 0.0, 2),
+        us: u("h", 1.0 / 3600.0, 0.0, 2),
     },
 ];
 

@@ -77,6 +77,14 @@ struct PresetInfo {
 }
 
 #[derive(Serialize)]
+struct NFactorInfo {
+    id: &'static str,
+    name: &'static str,
+    freezing: f64,
+    source: &'static str,
+}
+
+#[derive(Serialize)]
 struct UnitInfo {
     symbol: &'static str,
     factor: f64,
@@ -100,6 +108,9 @@ struct Catalogue {
     boards: Vec<BoardInfo>,
     surface_presets: Vec<PresetInfo>,
     material_kinds: Vec<IdName>,
+    n_factor_presets: Vec<NFactorInfo>,
+    /// Kinds of starting state a winter run accepts.
+    initial_kinds: Vec<&'static str>,
     units: std::collections::BTreeMap<&'static str, QuantityInfo>,
 }
 
@@ -178,6 +189,16 @@ pub fn catalogue() -> JsValue {
         .into_iter()
         .map(|(id, name)| IdName { id, name })
         .collect(),
+        n_factor_presets: crate::climate::Surface::ALL
+            .iter()
+            .map(|s| NFactorInfo {
+                id: s.id(),
+                name: s.name(),
+                freezing: s.freezing_n_factor(),
+                source: s.source(),
+            })
+            .collect(),
+        initial_kinds: vec!["uniform", "spin-up"],
         units: QUANTITIES
             .iter()
             .map(|q| {
@@ -360,5 +381,221 @@ pub fn benchmark_reference_year() -> JsValue {
             max_frost_depth_m: r.max_frost_depth_m,
         }),
         Err(e) => JsValue::from_str(&e.to_string()),
+    }
+}
+
+/// Read a daily climate record from CSV text with the units chosen
+/// (`{temperature, snow_depth?, snow_density?, skip_bad_lines?, fill_gaps_days?,
+/// season_start_month?}`): `{ok, days, summary, problems, errors}`; every problem names its
+/// line.
+#[wasm_bindgen]
+pub fn import_climate_csv(text: &str, options: JsValue) -> JsValue {
+    match serde_wasm_bindgen::from_value::<crate::climate_import::ImportOptions>(options) {
+        Ok(o) => to_js(&crate::climate_import::import_csv(text, &o)),
+        Err(e) => to_js(&crate::climate_import::ImportOutcome {
+            ok: false,
+            problems: Vec::new(),
+            more_problems: 0,
+            errors: vec![ErrorDoc::plain("import", e.to_string())],
+            summary: None,
+            days: Vec::new(),
+        }),
+    }
+}
+
+#[derive(Serialize)]
+struct SummaryOutcome {
+    ok: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    summary: Option<crate::climate_import::ImportSummary>,
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    errors: Vec<ErrorDoc>,
+}
+
+/// Summarise daily records already in a scenario (`[{date, mean_air_c, …}]`): their span,
+/// each winter's freezing index and the design values: `{ok, summary}` or `{ok, errors}`.
+#[wasm_bindgen]
+pub fn summarise_days(days: JsValue, season_start_month: u32) -> JsValue {
+    let out = match serde_wasm_bindgen::from_value::<Vec<crate::scenario_winter::DayDoc>>(days) {
+        Ok(d) => match crate::climate_import::summarise_days(&d, season_start_month) {
+            Ok(s) => SummaryOutcome {
+                ok: true,
+                summary: Some(s),
+                errors: Vec::new(),
+            },
+            Err(errors) => SummaryOutcome {
+                ok: false,
+                summary: None,
+                errors,
+            },
+        },
+        Err(e) => SummaryOutcome {
+            ok: false,
+            summary: None,
+            errors: vec![ErrorDoc::plain("winter.climate.days", e.to_string())],
+        },
+    };
+    to_js(&out)
+}
+
+#[derive(Serialize)]
+struct Step<'a> {
+    ok: bool,
+    fraction: f64,
+    finished: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    errors: Option<&'a [ErrorDoc]>,
+}
+
+/// A winter run of a scenario, advanced a slice at a time so that the page can show
+/// progress and stay responsive. Never throws: a scenario that cannot run is reported by
+/// [`WinterRun::errors`], and a run that fails by `advance`.
+#[wasm_bindgen]
+pub struct WinterRun {
+    job: Option<crate::scenario_winter::WinterJob>,
+    report: Option<crate::scenario_winter::WinterReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+fn clock_ms() -> f64 {
+    web_sys::window()
+        .and_then(|w| w.performance())
+        .map_or(0.0, |p| p.now())
+}
+
+#[wasm_bindgen]
+impl WinterRun {
+    /// Check the scenario (stack and winter section) and set the run up.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> WinterRun {
+        let fail = |errors: Vec<ErrorDoc>| WinterRun {
+            job: None,
+            report: None,
+            errors,
+        };
+        let (s, c) = match computed(scenario_value) {
+            Ok(v) => v,
+            Err(e) => return fail(e),
+        };
+        let Some(w) = &s.winter else {
+            return fail(vec![ErrorDoc::plain(
+                "winter",
+                "the scenario has no winter section",
+            )]);
+        };
+        match crate::scenario_winter::WinterJob::new(w, &c.result.stack, &s.layers) {
+            Ok(job) => WinterRun {
+                job: Some(job),
+                report: None,
+                errors: Vec::new(),
+            },
+            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+        }
+    }
+
+    /// Why the run cannot go on (`[]` while it can).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
+    pub fn advance(&mut self, budget_ms: f64) -> JsValue {
+        let t0 = clock_ms();
+        let budget = if budget_ms.is_finite() {
+            budget_ms.clamp(1.0, 10_000.0)
+        } else {
+            16.0
+        };
+        while let Some(job) = self.job.as_mut() {
+            match job.advance(48) {
+                Ok(p) if p.finished => {
+                    self.report = self.job.take().map(|j| j.finish());
+                    break;
+                }
+                Ok(_) => {
+                    if clock_ms() - t0 >= budget {
+                        break;
+                    }
+                }
+                Err(e) => {
+                    self.errors = e.0.iter().map(ErrorDoc::from).collect();
+                    self.job = None;
+                }
+            }
+        }
+        let (fraction, finished) = match (&self.job, &self.report) {
+            (Some(j), _) => (j.progress().fraction, false),
+            (None, Some(_)) => (1.0, true),
+            (None, None) => (0.0, false),
+        };
+        to_js(&Step {
+            ok: self.errors.is_empty(),
+            fraction,
+            finished,
+            errors: (!self.errors.is_empty()).then_some(&self.errors[..]),
+        })
+    }
+
+    /// The report once finished (daily series, envelope, indices; no profiles), or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+
+    /// The daily series as CSV text in the chosen units (units in the header); empty before
+    /// the end.
+    pub fn csv(&self, unit_system: &str) -> String {
+        let sys = UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si);
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_winter::daily_csv_in(r, sys)
+        })
+    }
+
+    /// Draw frost and thaw depth against time on a canvas.
+    pub fn draw_frost_depth(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, w| {
+            crate::chart::draw_frost_depth(
+                root,
+                w,
+                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
+                pixel_ratio,
+            )
+        })
+    }
+}
+
+impl WinterRun {
+    fn draw(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        f: impl FnOnce(
+            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &crate::scenario_winter::WinterReport,
+        ) -> Result<(), crate::chart::ChartError>,
+    ) -> JsValue {
+        let fail = |m: String| {
+            to_js(&DrawOutcome {
+                ok: false,
+                message: Some(m),
+            })
+        };
+        let Some(w) = &self.report else {
+            return fail("the run has not finished".into());
+        };
+        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+            return fail("the canvas has no 2D context".into());
+        };
+        use plotters::prelude::IntoDrawingArea;
+        match f(&backend.into_drawing_area(), w) {
+            Ok(()) => to_js(&DrawOutcome {
+                ok: true,
+                message: None,
+            }),
+            Err(e) => fail(e.to_string()),
+        }
     }
 }

@@ -899,3 +899,86 @@ proptest! {
         }
     }
 }
+
+#[test]
+fn a_record_brought_into_a_scenario_carries_its_winters_and_design_values() {
+    // The page's import: the invented five-winter record (tools/climate_examples.py) read
+    // with the units its header names. Its design values must be those of the climate
+    // module's own design_freezing_index on the same series (the TM 5-852-6 definitions:
+    // mean of the three coldest winters, the coldest), and its days the series' days in SI.
+    use hibernal::climate_import::{import_csv, ImportOptions};
+    let text = include_str!("../scenarios/climate/cold-inland-valley-five-winters.csv");
+    let o = ImportOptions {
+        temperature: "°C".into(),
+        snow_depth: Some("cm".into()),
+        snow_density: Some("kg/m³".into()),
+        skip_bad_lines: false,
+        fill_gaps_days: 0,
+        season_start_month: Some(7),
+    };
+    let out = import_csv(text, &o);
+    assert!(out.ok, "{:?}", out.problems);
+    let s = out.summary.as_ref().unwrap();
+    let direct = read_daily_csv(
+        text,
+        &CsvOptions {
+            snow_depth: DepthUnit::Centimetre,
+            ..CsvOptions::default()
+        },
+    )
+    .unwrap();
+    let d = hibernal::climate::design_freezing_index(
+        &direct.series,
+        &hibernal::climate::DesignOptions::default(),
+    )
+    .unwrap();
+    let design = s
+        .design
+        .as_ref()
+        .expect("five complete winters give design values");
+    assert_eq!(design.complete_winters, d.winters.len());
+    assert_eq!(
+        design.mean_of_three_coldest_c_days,
+        d.mean_of_three_coldest_c_days
+    );
+    assert_eq!(design.coldest_c_days, d.coldest_c_days);
+    assert_eq!(out.days.len(), direct.series.len());
+    assert!(s.has_snow);
+    // Snow in cm became metres.
+    let (doc, rec) = out
+        .days
+        .iter()
+        .zip(direct.series.days())
+        .find(|(x, _)| x.snow_depth_m.unwrap_or(0.0) > 0.0)
+        .unwrap();
+    assert_eq!(doc.snow_depth_m, rec.snow_depth_m);
+    // The same records summarised again (a scenario opened later) give the same summary.
+    let again = hibernal::climate_import::summarise_days(&out.days, 7).unwrap();
+    assert_eq!(again.winters, s.winters);
+}
+
+#[test]
+fn a_bad_record_is_refused_line_by_line_and_a_bad_unit_by_its_option() {
+    use hibernal::climate_import::{import_csv, ImportOptions};
+    let o = |t: &str| ImportOptions {
+        temperature: t.into(),
+        snow_depth: None,
+        snow_density: None,
+        skip_bad_lines: false,
+        fill_gaps_days: 0,
+        season_start_month: None,
+    };
+    let text = "date,temperature\n2021-01-01,-3\n2021-01-02,abc\n2021-01-03,-4\n";
+    let out = import_csv(text, &o("°C"));
+    assert!(!out.ok);
+    assert_eq!(out.problems.len(), 1);
+    assert_eq!(out.problems[0].line, Some(3));
+    assert!(
+        out.problems[0].message.starts_with("line 3"),
+        "{}",
+        out.problems[0].message
+    );
+    let out = import_csv(text, &o("kelvin"));
+    assert!(!out.ok);
+    assert_eq!(out.errors[0].field, "import.temperature");
+}

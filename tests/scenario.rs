@@ -358,6 +358,29 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
     let csv = hibernal::scenario_winter::daily_csv(w);
     assert!(csv.starts_with("day,air temperature [°C]"));
     assert_eq!(csv.lines().count(), 367);
+    // In US units: °F and ft in the header, and each value the SI one converted
+    // (°F = 1.8 °C + 32, ft = m / 0.3048: NIST SP 811 B.8).
+    let us = hibernal::scenario_winter::daily_csv_in(w, hibernal::units::UnitSystem::Us);
+    let head = us.lines().next().unwrap();
+    assert!(
+        head.contains("air temperature [°F]") && head.contains("frost depth [ft]"),
+        "{head}"
+    );
+    let deepest = w
+        .daily
+        .iter()
+        .enumerate()
+        .max_by(|a, b| a.1.frost_depth_m.total_cmp(&b.1.frost_depth_m))
+        .unwrap();
+    let row: Vec<f64> = us
+        .lines()
+        .nth(deepest.0 + 1)
+        .unwrap()
+        .split(',')
+        .map(|x| x.parse().unwrap())
+        .collect();
+    assert!((row[1] - (deepest.1.air_c * 1.8 + 32.0)).abs() < 1e-3);
+    assert!((row[3] - deepest.1.frost_depth_m / 0.3048).abs() < 1e-4);
 }
 
 #[test]

@@ -399,6 +399,7 @@
     renderMeta();
     renderLayers();
     renderFaces();
+    renderWinter();
     for (const e of document.querySelectorAll('[data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
     for (const e of document.querySelectorAll('.freeze-t')) e.textContent = freezeT();
   }
@@ -496,6 +497,7 @@
     state.scenario.layers.forEach((L, i) => add(L, 'layers[' + i + '].'));
     add(state.scenario.top, 'top.');
     add(state.scenario.bottom, 'bottom.');
+    for (const [owner, prefix] of winterOwners()) add(owner, prefix);
     return out;
   }
 
@@ -522,6 +524,8 @@
         if (!placeMessage(e.field, 'enter a number', 'error')) generalError(describePath(e.field) + ': enter a number');
       }
       setStale(true);
+      cancelWinter();
+      if (state.scenario.winter) setWinterStale(true);
       finish();
       return;
     }
@@ -542,6 +546,8 @@
       }
       if (!errors.length) generalError('The inputs could not be used.');
       setStale(true);
+      cancelWinter();
+      if (state.scenario.winter) setWinterStale(true);
       finish();
       return;
     }
@@ -549,6 +555,7 @@
     setStale(false);
     renderReport();
     drawChart();
+    scheduleWinter();
     finish();
   }
   function finish() {
@@ -738,6 +745,577 @@
     c.dataset.draws = String(Number(c.dataset.draws || 0) + 1);
   }
 
+  // ---------- winter (transient) ----------
+  // The winter section of the scenario (SI, as the core reads it), its inputs, and the run:
+  // a WinterRun in the core advanced a slice at a time from timers, so the page stays
+  // responsive and shows progress. A newer input cancels the run under way.
+  const WINTER_DEBOUNCE_MS = 200;
+  const SLICE_MS = 14;
+  const winter = {
+    job: null, // the WinterRun that finished last (drawn from), or null
+    running: null, // the WinterRun under way
+    generation: 0,
+    timer: 0,
+    report: null,
+    day: null, // the day the profile chart shows
+    past: {}, // earlier sub-sections by kind, so switching back restores them
+    summary: null, // summary of a daily record: { first_date, winters, design, ... }
+  };
+
+  function defaultSnowSeason(kind) {
+    // Invented defaults: for a calendar year (day 0 = 1 January) snow from mid-November to
+    // mid-April; for a design winter (day 0 = freeze-up) from day 10 to day 160.
+    return kind === 'design-winter'
+      ? { start_day: 10, peak_day: 100, end_day: 160, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 }
+      : { start_day: 320, peak_day: 50, end_day: 105, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 };
+  }
+  function defaultClimate(kind) {
+    switch (kind) {
+      case 'design-winter': return { kind, freezing_index_c_days: 1000, season_days: 150, mean_annual_c: 3 };
+      case 'daily': return { kind, days: [] };
+      default: return { kind: 'sinusoid', mean_c: 3, amplitude_k: 14, coldest_day_of_year: 20 };
+    }
+  }
+  function defaultWinter() {
+    const corr = CAT.snow_correlations[0] ? CAT.snow_correlations[0].id : 'sturm-1997-quadratic';
+    return {
+      climate: defaultClimate('sinusoid'),
+      // Film coefficient of open ground in light wind, 20 W/m²K (common practice, no source);
+      // geothermal flux 0.06 W/m² (a typical continental value, from memory).
+      surface: { kind: 'film', film_w_m2k: 20, snow_correlation: corr },
+      bottom: { kind: 'flux', upward_w_m2: 0.06 },
+      initial: { kind: 'spin-up', start_c: 4, max_years: 10 },
+      step_s: 3600,
+    };
+  }
+
+  const W_SUB = {
+    surface: {
+      film: (w) => ({ kind: 'film', film_w_m2k: 20, snow_correlation: CAT.snow_correlations[0].id }),
+      'n-factor': () => ({ kind: 'n-factor', freezing: 0.7, thawing: 1.0 }),
+    },
+    bottom: {
+      flux: () => ({ kind: 'flux', upward_w_m2: 0.06 }),
+      temperature: () => ({ kind: 'temperature', temperature_c: 4 }),
+    },
+    initial: {
+      'spin-up': () => ({ kind: 'spin-up', start_c: 4, max_years: 10 }),
+      uniform: () => ({ kind: 'uniform', temperature_c: 4 }),
+      periodic: () => ({ kind: 'periodic' }),
+    },
+  };
+
+  function switchSub(part, kind, make) {
+    const w = state.scenario.winter;
+    const past = (winter.past[part] = winter.past[part] || {});
+    past[w[part].kind] = w[part];
+    w[part] = past[kind] || make();
+    badText.delete(w[part]);
+  }
+
+  function numField(owner, key, path, label, q, extra) {
+    return field(Object.assign({
+      path, label, q, owner, key,
+      get: () => owner[key], set: (v) => { owner[key] = v; },
+    }, extra || {}));
+  }
+
+  function renderWinter() {
+    const w = state.scenario.winter;
+    $('winter-off').hidden = !!w;
+    $('winter-on').hidden = !w;
+    if (!w) return;
+    const rerender = (focus) => () => { renderWinter(); if (focus) { const f = document.querySelector('[data-field="' + CSS.escape(focus) + '"]'); if (f) f.focus(); } run(); };
+
+    // climate
+    const c = w.climate;
+    const box = $('w-climate');
+    clear(box);
+    const kinds = [
+      { value: 'sinusoid', text: 'A year of sine-shaped air temperature' },
+      { value: 'design-winter', text: 'A design winter from a freezing index' },
+      { value: 'daily', text: 'Daily records from a CSV file' },
+    ];
+    const grid = el('div', { class: 'w-fields' });
+    grid.append(field({
+      path: 'winter.climate.kind', label: 'Climate from', options: kinds, cls: 'wide',
+      get: () => c.kind,
+      set: (v) => {
+        const past = (winter.past.climate = winter.past.climate || {});
+        past[c.kind] = c;
+        w.climate = past[v] || defaultClimate(v);
+        badText.delete(w.climate);
+      },
+      after: rerender('winter.climate.kind'),
+    }));
+    if (c.kind === 'sinusoid') {
+      grid.append(
+        numField(c, 'mean_c', 'winter.climate.mean_c', 'Mean annual air temperature', 'temperature'),
+        numField(c, 'amplitude_k', 'winter.climate.amplitude_k', 'Swing either side of the mean', 'temperature_difference'),
+        numField(c, 'coldest_day_of_year', 'winter.climate.coldest_day_of_year', 'Coldest day of the year (1 = 1 January)', 'days'),
+      );
+    } else if (c.kind === 'design-winter') {
+      grid.append(
+        numField(c, 'freezing_index_c_days', 'winter.climate.freezing_index_c_days', 'Air freezing index', 'degree_days'),
+        numField(c, 'season_days', 'winter.climate.season_days', 'Length of the freezing season', 'days'),
+        numField(c, 'mean_annual_c', 'winter.climate.mean_annual_c', 'Mean annual air temperature', 'temperature'),
+      );
+    }
+    box.append(grid);
+    box.append(el('span', { class: 'field-msg block', 'data-msg-for': 'winter.climate' }));
+    $('w-import').hidden = c.kind !== 'daily';
+    renderClimateSummary();
+
+    // snow season (the daily record carries its own snow)
+    const sb = $('w-snow');
+    clear(sb);
+    if (c.kind !== 'daily') {
+      const on = !!c.snow;
+      const check = el('input', { type: 'checkbox', id: 'w-snow-on', 'data-field': 'winter.climate.snow', checked: on });
+      check.addEventListener('change', () => {
+        if (check.checked) c.snow = (winter.past.snow && winter.past.snow[c.kind]) || defaultSnowSeason(c.kind);
+        else { winter.past.snow = winter.past.snow || {}; winter.past.snow[c.kind] = c.snow; delete c.snow; }
+        rerender('winter.climate.snow')();
+      });
+      sb.append(el('label', { class: 'check', for: 'w-snow-on' }, check, ' Snow lies on the ground'));
+      if (on) {
+        const s = c.snow;
+        const dayHint = c.kind === 'design-winter' ? 'days after freeze-up' : 'day of the year, 0 = 1 January';
+        const g = el('div', { class: 'w-fields' });
+        g.append(
+          numField(s, 'start_day', 'winter.climate.snow.start_day', 'First snow', 'days', { hint: dayHint }),
+          numField(s, 'peak_day', 'winter.climate.snow.peak_day', 'Deepest on', 'days'),
+          numField(s, 'end_day', 'winter.climate.snow.end_day', 'Melted by', 'days'),
+          numField(s, 'peak_depth_m', 'winter.climate.snow.peak_depth_m', 'Greatest depth', 'thickness'),
+          numField(s, 'fresh_density_kg_m3', 'winter.climate.snow.fresh_density_kg_m3', 'Density when fresh', 'density'),
+          numField(s, 'settled_density_kg_m3', 'winter.climate.snow.settled_density_kg_m3', 'Density when settled', 'density'),
+        );
+        sb.append(g, el('p', { class: 'hint', text: 'Depth rises in a straight line from the first snow to the deepest day, then falls to nothing; density rises from fresh to settled over the season. The snow is simulated as layers of its own above the ground.' }));
+      }
+      sb.append(el('span', { class: 'field-msg block', 'data-msg-for': 'winter.climate.snow' }));
+    }
+
+    // surface
+    const su = $('w-surface');
+    clear(su);
+    const sg = el('div', { class: 'w-fields' });
+    sg.append(field({
+      path: 'winter.surface.kind', label: 'Top of the ground meets the weather', cls: 'wide',
+      options: [
+        { value: 'film', text: 'Through an air film (snow adds its own layers)' },
+        { value: 'n-factor', text: 'Surface temperature = n-factor × air temperature' },
+      ],
+      get: () => w.surface.kind,
+      set: (v) => switchSub('surface', v, W_SUB.surface[v]),
+      after: rerender('winter.surface.kind'),
+    }));
+    if (w.surface.kind === 'film') {
+      sg.append(
+        numField(w.surface, 'film_w_m2k', 'winter.surface.film_w_m2k', 'Film coefficient', 'film'),
+        field({
+          path: 'winter.surface.snow_correlation', label: 'Snow conductivity from', cls: 'wide',
+          options: CAT.snow_correlations.map((x) => ({ value: x.id, text: x.name, title: x.citation })),
+          get: () => w.surface.snow_correlation, set: (v) => { w.surface.snow_correlation = v; },
+        }),
+      );
+    } else {
+      const presets = CAT.n_factor_presets || [];
+      const same = (p) => p && Math.abs(p.freezing - w.surface.freezing) < 1e-9;
+      const chosen = presets.find((p) => p.id === winter.nPreset);
+      const match = same(chosen) ? chosen : presets.find(same);
+      sg.append(
+        field({
+          path: 'winter.surface.preset', label: 'Surface (freezing n-factor)', cls: 'wide',
+          options: [{ value: '', text: 'Own value' }].concat(presets.map((p) => ({ value: p.id, text: p.name + ' — ' + p.freezing, title: p.source }))),
+          get: () => (match ? match.id : ''),
+          set: (v) => { const p = presets.find((x) => x.id === v); winter.nPreset = v; if (p) { w.surface.freezing = p.freezing; badText.delete(w.surface); } },
+          after: rerender('winter.surface.preset'),
+        }),
+        numField(w.surface, 'freezing', 'winter.surface.freezing', 'Freezing n-factor', 'fraction'),
+        numField(w.surface, 'thawing', 'winter.surface.thawing', 'Thawing n-factor', 'fraction'),
+      );
+      su.append(sg, el('p', { class: 'hint', text: 'Freezing n-factors: ' + ((presets[0] && presets[0].source) || '') + '. With n-factors, snow cover is taken as part of the factor and not simulated.' }));
+    }
+    if (!su.contains(sg)) su.append(sg);
+
+    // bottom and start
+    const bo = $('w-bottom');
+    clear(bo);
+    const bg = el('div', { class: 'w-fields' });
+    bg.append(field({
+      path: 'winter.bottom.kind', label: 'At the bottom face', cls: 'wide',
+      options: [
+        { value: 'flux', text: 'Heat rising from deep ground (geothermal flux)' },
+        { value: 'temperature', text: 'Held at a fixed temperature' },
+      ],
+      get: () => w.bottom.kind,
+      set: (v) => switchSub('bottom', v, W_SUB.bottom[v]),
+      after: rerender('winter.bottom.kind'),
+    }));
+    if (w.bottom.kind === 'flux') bg.append(numField(w.bottom, 'upward_w_m2', 'winter.bottom.upward_w_m2', 'Heat flux from below', 'heat_flux'));
+    else bg.append(numField(w.bottom, 'temperature_c', 'winter.bottom.temperature_c', 'Bottom temperature', 'temperature'));
+    bo.append(bg);
+
+    const ini = $('w-initial');
+    clear(ini);
+    const ig = el('div', { class: 'w-fields' });
+    const initialKinds = [
+      { value: 'spin-up', text: 'Repeat the year until it repeats itself' },
+      { value: 'uniform', text: 'Uniform temperature' },
+    ];
+    if (CAT.initial_kinds && CAT.initial_kinds.includes('periodic')) initialKinds.push({ value: 'periodic', text: 'Yearly cycle from the mean annual temperature' });
+    ig.append(field({
+      path: 'winter.initial.kind', label: 'The ground starts', cls: 'wide', options: initialKinds,
+      get: () => w.initial.kind,
+      set: (v) => switchSub('initial', v, W_SUB.initial[v]),
+      after: rerender('winter.initial.kind'),
+    }));
+    if (w.initial.kind === 'uniform') ig.append(numField(w.initial, 'temperature_c', 'winter.initial.temperature_c', 'Temperature everywhere', 'temperature'));
+    if (w.initial.kind === 'spin-up') {
+      ig.append(
+        numField(w.initial, 'start_c', 'winter.initial.start_c', 'First guess, everywhere', 'temperature'),
+        numField(w.initial, 'max_years', 'winter.initial.max_years', 'At most this many years', 'fraction'),
+      );
+    }
+    ini.append(ig);
+
+    // run
+    const ru = $('w-run');
+    clear(ru);
+    const rg = el('div', { class: 'w-fields' });
+    rg.append(
+      numField(w, 'step_s', 'winter.step_s', 'Time step', 'step'),
+      numField(w, 'duration_days', 'winter.duration_days', 'Length of the run', 'days', {
+        optional: true, placeholder: () => (c.kind === 'daily' ? 'the whole record' : '365'),
+      }),
+    );
+    ru.append(rg);
+    const grd = w.grid || { surface_cell_m: 0.01, growth_ratio: 1.05, max_cell_m: 0.25 };
+    const det = el('details', { class: 'grid-opts' }, el('summary', { text: 'Grid' }));
+    const gg = el('div', { class: 'w-fields' });
+    const ensureGrid = () => { if (!w.grid) w.grid = grd; };
+    gg.append(
+      numField(grd, 'surface_cell_m', 'winter.grid.surface_cell_m', 'Cell at the surface', 'thickness', { after: ensureGrid }),
+      numField(grd, 'growth_ratio', 'winter.grid.growth_ratio', 'Growth from cell to cell', 'fraction', { after: ensureGrid }),
+      numField(grd, 'max_cell_m', 'winter.grid.max_cell_m', 'Largest cell', 'thickness', { after: ensureGrid }),
+    );
+    det.append(gg);
+    ru.append(det);
+    for (const e of document.querySelectorAll('#winter [data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
+  }
+
+  function winterOwners() {
+    const w = state.scenario.winter;
+    if (!w) return [];
+    const out = [[w.climate, 'winter.climate.'], [w.surface, 'winter.surface.'], [w.bottom, 'winter.bottom.'], [w.initial, 'winter.initial.'], [w, 'winter.']];
+    if (w.climate.snow) out.push([w.climate.snow, 'winter.climate.snow.']);
+    if (w.grid) out.push([w.grid, 'winter.grid.']);
+    return out;
+  }
+
+  // ---------- a daily record ----------
+  function importOptions() {
+    return {
+      temperature: $('imp-temp').value,
+      snow_depth: $('imp-depth').value,
+      snow_density: $('imp-density').value,
+      skip_bad_lines: $('imp-skip').checked,
+      fill_gaps_days: $('imp-fill').checked ? 7 : 0,
+      season_start_month: Number($('imp-month').value),
+    };
+  }
+
+  function importCsv(ev) {
+    const file = ev.target.files && ev.target.files[0];
+    const list = $('imp-problems');
+    clear(list); list.hidden = true;
+    if (!file) return;
+    const reader = new FileReader();
+    reader.onload = () => {
+      const res = W.import_climate_csv(String(reader.result), importOptions());
+      ev.target.value = '';
+      if (!res.ok) {
+        for (const e of res.errors || []) list.append(el('li', { text: e.message }));
+        for (const p of res.problems || []) list.append(el('li', { text: p.message }));
+        if (res.more_problems) list.append(el('li', { text: '… and ' + res.more_problems + ' more' }));
+        list.prepend(el('li', { class: 'lead', text: file.name + ' was not read:' }));
+        list.hidden = false;
+        return;
+      }
+      state.scenario.winter.climate = { kind: 'daily', days: res.days };
+      delete state.scenario.winter.duration_days;
+      winter.summary = Object.assign({ file: file.name }, res.summary);
+      if (res.problems && res.problems.length) {
+        list.append(el('li', { class: 'lead', text: 'Read, leaving out ' + res.summary.skipped_lines + ' bad line(s):' }));
+        for (const p of res.problems) list.append(el('li', { text: p.message }));
+        list.hidden = false;
+      }
+      renderWinter();
+      run();
+    };
+    reader.onerror = () => { list.append(el('li', { text: 'The file could not be read.' })); list.hidden = false; };
+    reader.readAsText(file);
+  }
+
+  function renderClimateSummary() {
+    const box = $('w-climate-summary');
+    clear(box);
+    const c = state.scenario.winter.climate;
+    if (c.kind !== 'daily') { winter.summary = null; return; }
+    const days = c.days || [];
+    if (!days.length) { box.append(el('p', { class: 'hint', text: 'No records yet: read a CSV file.' })); return; }
+    let s = winter.summary;
+    if (!s || s.first_date !== days[0].date || s.days !== days.length) {
+      const r = W.summarise_days(days, Number($('imp-month').value));
+      s = winter.summary = r && r.ok ? r.summary : null;
+      if (!s) { box.append(el('p', { class: 'msg error', text: (r && r.errors && r.errors.map((e) => e.message).join('; ')) || 'The records could not be summarised.' })); return; }
+    }
+    box.append(el('p', { id: 'w-record-span', text: (s.file ? s.file + ': ' : '') + s.days + ' days, ' + s.first_date + ' to ' + s.last_date + (s.has_snow ? ', with snow depths' : ', no snow depths') + (s.filled_days ? '; ' + s.filled_days + ' missing days filled in' : '') + '.' }));
+    const t = el('table', { class: 'data', id: 'w-winters' });
+    t.append(el('caption', { class: 'sr-only', text: 'Freezing index of each winter in the record' }));
+    t.append(el('thead', null, el('tr', null, el('th', { text: 'Winter' }), headCell('Freezing index', 'degree_days'), el('th', { text: 'Complete' }))));
+    const tb = el('tbody');
+    for (const x of s.winters) {
+      tb.append(el('tr', null, el('td', { text: x.start.slice(0, 4) + '–' + x.end.slice(0, 4) }), el('td', { class: 'num', text: fmt('degree_days', x.freezing_index_c_days) }), el('td', { text: x.complete ? 'yes' : 'part (' + x.days_present + ' days)' })));
+    }
+    t.append(tb);
+    box.append(el('div', { class: 'table-wrap' }, t));
+    const d = el('p', { id: 'w-design' });
+    if (s.design) {
+      d.append(el('strong', { text: 'Design freezing index: ' }), 'mean of the three coldest winters ' + fmtU('degree_days', s.design.mean_of_three_coldest_c_days) + '; the coldest winter ' + fmtU('degree_days', s.design.coldest_c_days) + ' (of ' + s.design.complete_winters + ' complete winters).');
+      for (const wmsg of s.design.warnings) d.append(el('span', { class: 'msg warning block', text: ' ' + wmsg }));
+      const useBtn = el('button', { type: 'button', class: 'btn small', id: 'w-use-design', text: 'Build a design winter from the mean of the three coldest' });
+      useBtn.addEventListener('click', () => {
+        const w = state.scenario.winter;
+        (winter.past.climate = winter.past.climate || {}).daily = w.climate;
+        const mean = days.reduce((a, x) => a + x.mean_air_c, 0) / days.length;
+        w.climate = { kind: 'design-winter', freezing_index_c_days: Math.round(s.design.mean_of_three_coldest_c_days), season_days: 150, mean_annual_c: Math.round(mean * 10) / 10 };
+        renderWinter(); run();
+      });
+      box.append(d, useBtn);
+    } else {
+      d.append(el('span', { class: 'hint', text: 'No design values: ' + (s.design_note || 'too few complete winters') + '.' }));
+      box.append(d);
+    }
+  }
+
+  // ---------- running ----------
+  function cancelWinter() {
+    clearTimeout(winter.timer);
+    winter.generation++;
+    if (winter.running) { winter.running.free(); winter.running = null; }
+  }
+
+  function scheduleWinter() {
+    cancelWinter();
+    const res = $('winter-results');
+    if (!state.scenario.winter) { res.dataset.state = 'idle'; return; }
+    res.dataset.state = 'pending';
+    winter.timer = setTimeout(startWinter, WINTER_DEBOUNCE_MS);
+  }
+
+  function winterErrors(errors) {
+    const list = $('w-errors');
+    for (const e of errors) {
+      if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
+    }
+    list.hidden = !list.firstChild;
+  }
+
+  function describeWinterPath(path) {
+    if (/^winter\.climate\.days/.test(path || '')) return 'Daily records';
+    if (path === 'winter') return 'Winter run';
+    return describePath(path);
+  }
+
+  function setWinterStale(stale, why) {
+    const res = $('winter-results');
+    res.classList.toggle('is-stale', stale);
+    if (stale) { res.dataset.state = 'stale'; $('w-status').textContent = why || 'Out of date: fix the marked inputs.'; }
+  }
+
+  function startWinter() {
+    const res = $('winter-results');
+    const list = $('w-errors');
+    clear(list); list.hidden = true;
+    for (const m of document.querySelectorAll('#winter .field-msg')) clear(m);
+    const gen = ++winter.generation;
+    let job;
+    try {
+      job = new W.WinterRun(state.scenario);
+    } catch (err) {
+      console.error(err);
+      generalError('The winter run failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const errs = job.errors();
+    if (errs.length) {
+      job.free();
+      winterErrors(errs);
+      setWinterStale(true);
+      return;
+    }
+    winter.running = job;
+    res.dataset.state = 'running';
+    const t0 = performance.now();
+    const slice = () => {
+      if (gen !== winter.generation) return;
+      const st = job.advance(SLICE_MS);
+      $('w-progress').value = st.fraction;
+      if (!st.ok) {
+        winter.running = null;
+        job.free();
+        winterErrors(st.errors || []);
+        setWinterStale(true, 'The run stopped.');
+        return;
+      }
+      if (!st.finished) {
+        $('w-status').textContent = 'Running… ' + Math.round(st.fraction * 100) + ' %';
+        winter.timer = setTimeout(slice, 0);
+        return;
+      }
+      winter.running = null;
+      if (winter.job) winter.job.free();
+      winter.job = job;
+      winter.report = job.report();
+      const ms = performance.now() - t0;
+      res.classList.remove('is-stale');
+      res.dataset.state = 'done';
+      res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
+      $('w-status').textContent = 'Done in ' + (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s') + '.';
+      renderWinterReport();
+      drawWinter();
+    };
+    $('w-status').textContent = 'Running…';
+    $('w-progress').value = 0;
+    slice();
+  }
+
+  // A day of the run in words: a date for a record, the calendar for a sine year.
+  const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+  function dayWords(day, scen) {
+    const c = (scen || state.scenario).winter.climate;
+    const n = Math.round(day);
+    if (c.kind === 'daily' && c.days && c.days.length) {
+      const d0 = new Date(c.days[0].date + 'T00:00:00Z');
+      const d = new Date(d0.getTime() + n * 86400000);
+      return d.toISOString().slice(0, 10) + ' (day ' + n + ')';
+    }
+    if (c.kind === 'sinusoid') {
+      const d = new Date(Date.UTC(2001, 0, 1) + (n % 365) * 86400000);
+      return 'day ' + n + ' (about ' + d.getUTCDate() + ' ' + MONTHS[d.getUTCMonth()] + ')';
+    }
+    return 'day ' + n + ' after freeze-up';
+  }
+
+  function layerAt(depth, rep) {
+    const f = rep.layer_faces_m;
+    for (let i = 0; i + 1 < f.length; i++) if (depth <= f[i + 1] + 1e-9) return i;
+    return f.length - 2;
+  }
+
+  function renderWinterReport() {
+    const rep = winter.report;
+    if (!rep) return;
+    const mf = rep.max_frost_depth_m;
+    $('w-max-frost').textContent = mf > 0 ? fmtU('depth', mf) : 'None';
+    if (mf > 0) {
+      const i = layerAt(mf, rep);
+      $('w-max-frost-when').textContent = 'On ' + dayWords(rep.max_frost_day) + ', in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ').';
+    } else {
+      $('w-max-frost-when').textContent = 'The ground does not freeze in this run.';
+    }
+    $('w-air-fi').textContent = fmtU('degree_days', rep.air_freezing_index_c_days);
+    $('w-surf-fi').textContent = fmtU('degree_days', rep.surface_freezing_index_c_days);
+    const ratio = rep.air_freezing_index_c_days > 0 ? rep.surface_freezing_index_c_days / rep.air_freezing_index_c_days : null;
+    $('w-air-fi-sub').textContent = 'Range of the cumulative degree-day curve of the air.';
+    $('w-surf-fi-sub').textContent = ratio != null ? 'At the ground surface: ' + fmtNum(ratio, 2) + ' × the air index.' : '';
+    $('w-solver').textContent = rep.cells + ' cells, ' + rep.steps + ' steps, ' + fmtNum(rep.iterations_per_step, 2) + ' passes per step' +
+      (rep.split_steps ? ', ' + rep.split_steps + ' steps split' : '') + (rep.spin_up_years ? ', ' + rep.spin_up_years + ' years to settle' : '') +
+      '; energy balance closes to ' + rep.energy_imbalance_relative.toExponential(1) + ' of the heat through the faces.';
+    const days = rep.daily.length ? rep.daily[rep.daily.length - 1].day : 0;
+    const slider = $('w-day');
+    slider.max = String(Math.max(0, Math.floor(days)));
+    if (winter.day == null || winter.day > days) winter.day = Math.min(Math.round(rep.max_frost_day), Math.floor(days));
+    slider.value = String(winter.day);
+    $('w-day-out').textContent = dayWords(winter.day);
+    $('w-csv').disabled = false;
+  }
+
+  function sizeCanvas(c) {
+    const dpr = window.devicePixelRatio || 1;
+    const rect = c.getBoundingClientRect();
+    if (rect.width < 2 || rect.height < 2) return null;
+    c.width = Math.max(1, Math.round(rect.width * dpr));
+    c.height = Math.max(1, Math.round(rect.height * dpr));
+    return dpr;
+  }
+
+  function winterChart(id, draw) {
+    const c = $(id);
+    const dpr = sizeCanvas(c);
+    if (!dpr || !winter.job) return;
+    let r;
+    try { r = draw(c, dpr); } catch (err) { console.error(err); r = { ok: false, message: String(err && err.message || err) }; }
+    let msg = c.parentElement.querySelector('.chart-msg');
+    if (!msg) { msg = el('p', { class: 'msg error chart-msg', role: 'status' }); c.after(msg); }
+    msg.textContent = r && r.ok ? '' : 'The chart could not be drawn: ' + ((r && r.message) || 'unknown reason');
+    c.dataset.draws = String(Number(c.dataset.draws || 0) + 1);
+  }
+
+  function drawDayChart() {
+    if (!winter.job || typeof winter.job.draw_day_profile !== 'function') return;
+    winterChart('day-chart', (c, dpr) => winter.job.draw_day_profile(c, winter.day || 0, state.units, dpr));
+  }
+
+  function drawWinter() {
+    if (!winter.job) return;
+    winterChart('frost-chart', (c, dpr) => winter.job.draw_frost_depth(c, state.units, dpr));
+    drawDayChart();
+    if (typeof winter.job.draw_series === 'function') winterChart('series-chart', (c, dpr) => winter.job.draw_series(c, state.units, dpr));
+  }
+
+  function downloadCsv() {
+    if (!winter.job) return;
+    const text = winter.job.csv(state.units);
+    const blob = new Blob([text], { type: 'text/csv' });
+    const url = URL.createObjectURL(blob);
+    const name = (state.scenario.title || 'winter').replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || 'winter';
+    const a = el('a', { href: url, download: name + '-daily.csv' });
+    document.body.append(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 5000);
+  }
+
+  function setUpWinter() {
+    $('winter-add').addEventListener('click', () => {
+      state.scenario.winter = winter.past.whole || defaultWinter();
+      renderWinter();
+      run();
+      const f = document.querySelector('[data-field="winter.climate.kind"]');
+      if (f) f.focus();
+    });
+    $('winter-remove').addEventListener('click', () => {
+      winter.past.whole = state.scenario.winter;
+      delete state.scenario.winter;
+      cancelWinter();
+      if (winter.job) { winter.job.free(); winter.job = null; }
+      winter.report = null;
+      renderWinter();
+      run();
+      $('winter-add').focus();
+    });
+    $('imp-file').addEventListener('change', importCsv);
+    $('imp-month').addEventListener('change', () => { winter.summary = null; if (state.scenario.winter) renderClimateSummary(); });
+    $('w-day').addEventListener('input', (e) => {
+      winter.day = Number(e.target.value);
+      $('w-day-out').textContent = dayWords(winter.day);
+      drawDayChart();
+    });
+    $('w-csv').addEventListener('click', downloadCsv);
+  }
+
   // ---------- scenario in and out ----------
   function adopt(scenario) {
     state.scenario = scenario;
@@ -746,6 +1324,13 @@
     state.preset.top = guessPreset(scenario.top);
     state.preset.bottom = guessPreset(scenario.bottom);
     state.lastGood = null;
+    cancelWinter();
+    if (winter.job) { winter.job.free(); winter.job = null; }
+    winter.report = null;
+    winter.day = null;
+    winter.past = {};
+    winter.summary = null;
+    $('w-csv').disabled = true;
     renderInputs();
     run();
   }
@@ -858,6 +1443,7 @@
         renderSources();
         // Shown at once in the new units; run() then recomputes if the inputs allow.
         if (state.lastGood) { renderReport(); drawChart(); }
+        if (winter.report) { renderWinterReport(); drawWinter(); }
         run();
       });
     }
@@ -870,11 +1456,12 @@
     $('add-layer').addEventListener('click', addLayer);
     $('save-file').addEventListener('click', saveFile);
     $('open-file').addEventListener('change', openFile);
+    setUpWinter();
 
     let resizeTimer = 0;
     window.addEventListener('resize', () => {
       clearTimeout(resizeTimer);
-      resizeTimer = setTimeout(drawChart, 120);
+      resizeTimer = setTimeout(() => { drawChart(); drawWinter(); }, 120);
     });
 
     renderSources();
