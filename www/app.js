@@ -1131,7 +1131,11 @@
   function setWinterStale(stale, why) {
     const res = $('winter-results');
     res.classList.toggle('is-stale', stale);
-    if (stale) { res.dataset.state = 'stale'; $('w-status').textContent = why || 'Out of date: fix the marked inputs.'; }
+    if (stale) {
+      res.dataset.state = 'stale';
+      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
+      $('w-status').textContent = why || 'Out of date: fix the marked inputs.';
+    }
   }
 
   function startWinter() {
@@ -1182,6 +1186,7 @@
       res.classList.remove('is-stale');
       res.dataset.state = 'done';
       res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
+      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
       $('w-status').textContent = 'Done in ' + (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s') + '.';
       renderWinterReport();
       drawWinter();
@@ -1291,6 +1296,8 @@
   function setUpWinter() {
     $('winter-add').addEventListener('click', () => {
       state.scenario.winter = winter.past.whole || defaultWinter();
+      // A winter section needs the current format version (older files load without one).
+      state.scenario.version = CAT.format_version;
       renderWinter();
       run();
       const f = document.querySelector('[data-field="winter.climate.kind"]');

@@ -1,0 +1,176 @@
+// End-to-end tests of the winter section of dist/hibernal.html (file://, network refused).
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import { readFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { REPO, launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor, parseShown } from './helpers.mjs';
+
+let browser;
+before(async () => { browser = await launch(); });
+after(async () => { if (browser) await browser.close(); });
+
+async function withPage(body, viewport) {
+  const { context, page, problems } = await openPage(browser, viewport);
+  try {
+    await body(page, problems);
+    assertNoProblems(problems);
+  } finally {
+    await context.close();
+  }
+}
+
+// Winter runs that ended (finished or refused) so far.
+const winterRuns = (page) => page.evaluate(() => Number(document.querySelector('#winter-results').dataset.outcomes || 0));
+
+// Waits for the next winter run after `before` to end; 'done' or 'stale' (refused).
+async function winterDone(page, before, timeout = 60000) {
+  await page.waitForFunction((b) => {
+    const r = document.querySelector('#winter-results');
+    return Number(r.dataset.outcomes || 0) > b && (r.dataset.state === 'done' || r.dataset.state === 'stale');
+  }, before, { timeout });
+  return page.evaluate(() => document.querySelector('#winter-results').dataset.state);
+}
+
+async function pickExample(page, id, hasWinter = true) {
+  const before = await winterRuns(page);
+  await andRecompute(page, () => page.selectOption('#example-pick', id));
+  if (hasWinter) assert.equal(await winterDone(page, before), 'done', 'the winter run finishes');
+}
+
+const inked = (page, id) => page.evaluate((id) => {
+  const c = document.getElementById(id);
+  const { data } = c.getContext('2d').getImageData(0, 0, c.width, c.height);
+  const [r0, g0, b0] = data;
+  let n = 0;
+  for (let i = 0; i < data.length; i += 4) if (Math.abs(data[i] - r0) + Math.abs(data[i + 1] - g0) + Math.abs(data[i + 2] - b0) > 24) n++;
+  return n;
+}, id);
+
+test('a design winter runs on the page: indices as asked and a frost chart drawn', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  // The design winter is built to have the air freezing index asked for (1200 °C·days), and
+  // the n-factor method makes the surface index n × the air index (UFC 3-130-04): 0.7 × 1200.
+  const air = await shown(page, '#w-air-fi');
+  const surf = await shown(page, '#w-surf-fi');
+  assert.ok(Math.abs(air.value - 1200) <= 3, `air index ${air.value}`);
+  assert.ok(Math.abs(surf.value - 840) <= 3, `surface index ${surf.value}`);
+  const frost = await shown(page, '#w-max-frost');
+  assert.match(await page.locator('#w-max-frost').textContent(), /\bm$/);
+  // Stefan's law with the frozen silt's properties bounds the depth from above (models.md §4).
+  assert.ok(frost.value > 0.3 && frost.value < 3, `frost depth ${frost.value} m`);
+  assert.match(await page.locator('#w-max-frost-when').textContent(), /day \d+ after freeze-up, in layer \d/);
+  assert.ok(await inked(page, 'frost-chart') > 2000, 'the frost-depth chart is drawn');
+  assert.match(await page.locator('#w-solver').textContent(), /energy balance closes to \d\.\de-\d+/);
+  // US units: the same depth in feet, the index in °F·days (× 1.8, NIST SP 811).
+  await page.check('#units-us');
+  await page.waitForFunction(() => /ft$/.test(document.querySelector('#w-max-frost').textContent));
+  const ft = await shown(page, '#w-max-frost');
+  assert.ok(Math.abs(ft.value - frost.value / 0.3048) < 0.01, `${ft.value} ft vs ${frost.value} m`);
+  const airF = await shown(page, '#w-air-fi');
+  assert.ok(Math.abs(airF.value - air.value * 1.8) <= 2, `${airF.value} °F·days`);
+}));
+
+test('more insulation under a winter moves the deepest frost up', () => withPage(async (page) => {
+  await pickExample(page, 'snow-over-foam-on-silt', false);
+  // Add a winter to this steady example, then thicken its insulation board.
+  if (await page.locator('#winter-add').isVisible()) {
+    const b = await winterRuns(page);
+    await page.click('#winter-add');
+    assert.equal(await winterDone(page, b), 'done');
+  }
+  const first = (await shown(page, '#w-max-frost')).value;
+  const layers = await page.evaluate(() => document.querySelectorAll('#layer-list > li').length);
+  let foam = -1;
+  for (let i = 0; i < layers; i++) {
+    if (await field(page, `layers[${i}].material.kind`).inputValue() === 'insulation') { foam = i; break; }
+  }
+  assert.ok(foam >= 0, 'the example has an insulation layer');
+  const b = await winterRuns(page);
+  await field(page, `layers[${foam}].thickness_m`).fill('20'); // cm
+  assert.equal(await winterDone(page, b), 'done');
+  const thicker = (await shown(page, '#w-max-frost')).value;
+  assert.ok(thicker < first, `frost ${thicker} m with 200 mm of board, ${first} m before`);
+}));
+
+test('a bad winter input is marked beside its field and stops the run', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  const b = await winterRuns(page);
+  await field(page, 'winter.climate.season_days').fill('500');
+  assert.equal(await winterDone(page, b), 'stale');
+  assert.notEqual((await msgFor(page, 'winter.climate.season_days').textContent()).trim(), '');
+  await field(page, 'winter.climate.season_days').fill('abc');
+  await page.waitForFunction(() => /enter a number/.test(document.querySelector('[data-msg-for="winter.climate.season_days"]').textContent));
+  const b2 = await winterRuns(page);
+  await field(page, 'winter.climate.season_days').fill('150');
+  assert.equal(await winterDone(page, b2), 'done');
+}));
+
+// Freezing index of a daily series, computed here independently: the range of the
+// cumulative freezing degree-day curve (TM 5-852-6 definition, models.md §4).
+function freezingIndex(temps) {
+  let c = 0, max = 0, range = 0;
+  for (const t of temps) { c += t; max = Math.max(max, c); range = Math.max(range, max - c); }
+  return range;
+}
+
+test('a daily record in °F and inches is read, its winter indexed, and run', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  await field(page, 'winter.climate.kind').selectOption('daily');
+  await page.selectOption('#imp-temp', '°F');
+  await page.selectOption('#imp-depth', 'in');
+  const path = resolve(REPO, 'scenarios/climate/windswept-upland-one-winter-fahrenheit.csv');
+  const rows = readFileSync(path, 'utf8').split('\n').filter((l) => /^\d{4}-/.test(l));
+  const temps = rows.map((l) => (Number(l.split(',')[1]) - 32) / 1.8);
+  const b = await winterRuns(page);
+  await page.setInputFiles('#imp-file', path);
+  await page.waitForSelector('#w-record-span');
+  assert.match(await page.locator('#w-record-span').textContent(), new RegExp(rows.length + ' days'));
+  const fiText = await page.locator('#w-winters tbody tr td.num').first().textContent();
+  const fi = parseShown(fiText).value;
+  assert.ok(Math.abs(fi - freezingIndex(temps)) <= 1, `index ${fi}, computed ${freezingIndex(temps)}`);
+  assert.equal(await winterDone(page, b), 'done');
+  // Dates of the record name the day of the deepest frost.
+  assert.match(await page.locator('#w-max-frost-when').textContent(), /On \d{4}-\d\d-\d\d/);
+}));
+
+test('a record with a bad line is refused, naming the line', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  await field(page, 'winter.climate.kind').selectOption('daily');
+  await page.setInputFiles('#imp-file', { name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('date,temperature\n2021-01-01,-3\n2021-01-02,cold\n') });
+  await page.waitForSelector('#imp-problems:not([hidden])');
+  assert.match(await page.locator('#imp-problems').textContent(), /line 3, mean air temperature/);
+}));
+
+test('the daily series downloads as CSV in the units shown', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  await page.check('#units-us');
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#w-csv')]);
+  const text = readFileSync(await dl.path(), 'utf8');
+  const lines = text.trim().split('\n');
+  assert.match(lines[0], /^day,air temperature \[°F\].*frost depth \[ft\]/);
+  assert.equal(lines.length, 1 + 366, 'a header and a row per day (days 0 to 365)');
+}));
+
+test('a long run shows progress and leaves the page responsive', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  // Thirty years of spin-up at a short step: long enough to need many slices.
+  await field(page, 'winter.initial.max_years').fill('30');
+  await field(page, 'winter.step_s').fill('0.25');
+  await page.evaluate(() => {
+    window.__gaps = [];
+    let last = performance.now();
+    window.__tick = setInterval(() => { const t = performance.now(); window.__gaps.push(t - last); last = t; }, 20);
+  });
+  await page.waitForFunction(() => document.querySelector('#winter-results').dataset.state === 'running');
+  await page.waitForFunction(() => { const v = document.querySelector('#w-progress').value; return v > 0.05 && v < 1; });
+  assert.match(await page.locator('#w-status').textContent(), /Running… \d+ %/);
+  await page.waitForTimeout(1000);
+  const worst = await page.evaluate(() => Math.max(...window.__gaps));
+  // Slices are 14 ms; a timer every 20 ms must never wait longer than a few slices.
+  assert.ok(worst < 250, `longest pause of the page ${worst.toFixed(0)} ms`);
+  // A change cancels the long run and starts a fresh one.
+  const b = await winterRuns(page);
+  await field(page, 'winter.step_s').fill('6');
+  await field(page, 'winter.initial.max_years').fill('3');
+  assert.equal(await winterDone(page, b), 'done');
+}));
