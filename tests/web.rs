@@ -113,3 +113,60 @@ fn the_panic_hook_shows_its_message_on_the_page() {
         Some("Internal error: test message")
     );
 }
+
+#[wasm_bindgen_test]
+fn a_winter_run_advances_in_slices_and_never_throws() {
+    // No winter section, junk, and a bad winter field: errors, not exceptions.
+    for junk in [JsValue::NULL, JsValue::from_str("x"), example("snow-block-wall")] {
+        let r = web::WinterRun::new(junk);
+        let errs: Array = r.errors().dyn_into().unwrap();
+        assert!(errs.length() > 0);
+    }
+    let s = example("silty-yard-design-winter");
+    let climate = get(&get(&s, "winter"), "climate");
+    Reflect::set(&climate, &"season_days".into(), &JsValue::from_f64(400.0)).unwrap();
+    let r = web::WinterRun::new(s);
+    let errs: Array = r.errors().dyn_into().unwrap();
+    assert_eq!(
+        get(&errs.get(0), "field").as_string().as_deref(),
+        Some("winter.climate.season_days")
+    );
+
+    let mut r = web::WinterRun::new(example("silty-yard-design-winter"));
+    assert_eq!(Array::from(&r.errors()).length(), 0);
+    let mut slices = 0;
+    let mut last = 0.0;
+    loop {
+        let st = r.advance(2.0);
+        slices += 1;
+        assert_eq!(get(&st, "ok").as_bool(), Some(true));
+        let f = get(&st, "fraction").as_f64().unwrap();
+        assert!(f >= last);
+        last = f;
+        if get(&st, "finished").as_bool() == Some(true) {
+            break;
+        }
+        assert!(slices < 100_000);
+    }
+    assert!(slices > 3, "a 2 ms budget takes several slices ({slices})");
+    let rep = r.report();
+    // The design winter's air freezing index is the one it was built from.
+    let fi = get(&rep, "air_freezing_index_c_days").as_f64().unwrap();
+    assert!((fi - 1200.0).abs() < 3.0, "{fi}");
+    let csv = r.csv("si");
+    assert!(csv.starts_with("day,air temperature [°C]"));
+    // Finished runs stay finished.
+    assert_eq!(get(&r.advance(5.0), "finished").as_bool(), Some(true));
+}
+
+#[wasm_bindgen_test]
+fn a_climate_record_imports_with_its_lines_named() {
+    let o = js_sys::Object::new();
+    Reflect::set(&o, &"temperature".into(), &"°F".into()).unwrap();
+    let out = web::import_climate_csv("date,temperature\n2021-01-01,20\n2021-01-02,x\n", o.into());
+    assert_eq!(get(&out, "ok").as_bool(), Some(false));
+    let p: Array = get(&out, "problems").dyn_into().unwrap();
+    assert_eq!(get(&p.get(0), "line").as_f64(), Some(3.0));
+    let bad = web::import_climate_csv("date,temperature\n", JsValue::from_str("nonsense"));
+    assert_eq!(get(&bad, "ok").as_bool(), Some(false));
+}
