@@ -91,9 +91,12 @@ pub const BTU_H_FT2_PER_W_M2: f64 = 1.0 / 3.154_591;
 pub const BTU_FT3_F_PER_J_M3K: f64 = 1.0 / 67_066.1;
 /// J/m³ → Btu/ft³ (1 Btu/ft³ = 37 258.9 J/m³).
 pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
+/// °C·days → °F·days: a degree-day sum is a temperature interval times a time, so it
+/// converts as a temperature interval (1 K = 1.8 °F, NIST SP 811 B.9), with no offset.
+pub const DEG_F_DAYS_PER_DEG_C_DAYS: f64 = DEG_F_PER_K;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 16] = [
+pub const QUANTITIES: [Quantity; 17] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -173,6 +176,11 @@ pub const QUANTITIES: [Quantity; 16] = [
         id: "latent_vol",
         si: u("MJ/m³", 1e-6, 0.0, 1),
         us: u("Btu/ft³", BTU_FT3_PER_J_M3, 0.0, 0),
+    },
+    Quantity {
+        id: "degree_days",
+        si: u("°C·days", 1.0, 0.0, 0),
+        us: u("°F·days", DEG_F_DAYS_PER_DEG_C_DAYS, 0.0, 0),
     },
 ];
 
