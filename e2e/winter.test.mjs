@@ -174,3 +174,20 @@ test('a long run shows progress and leaves the page responsive', () => withPage(
   await field(page, 'winter.initial.max_years').fill('3');
   assert.equal(await winterDone(page, b), 'done');
 }));
+
+test('the day slider redraws the profile chart live, and the series chart is drawn', () => withPage(async (page) => {
+  await pickExample(page, 'silty-yard-design-winter');
+  assert.ok(await inked(page, 'day-chart') > 2000, 'the day profile is drawn');
+  assert.ok(await inked(page, 'series-chart') > 2000, 'the series chart is drawn');
+  const digest = () => page.evaluate(() => document.getElementById('day-chart').toDataURL().length + ':' + document.getElementById('day-chart').dataset.draws);
+  const before = await digest();
+  const draws = Number(before.split(':')[1]);
+  // Move the slider as a user would: several input events, each one redraws.
+  await page.locator('#w-day').focus();
+  for (let i = 0; i < 5; i++) await page.keyboard.press('ArrowLeft');
+  await page.waitForFunction((d) => Number(document.getElementById('day-chart').dataset.draws) >= d + 5, draws);
+  assert.notEqual(await digest(), before);
+  assert.match(await page.locator('#w-day-out').textContent(), /day \d+ after freeze-up/);
+  const day = Number(await page.locator('#w-day').inputValue());
+  assert.match(await page.locator('#w-day-out').textContent(), new RegExp('day ' + day + ' '));
+}));

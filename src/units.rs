@@ -91,6 +91,9 @@ pub const BTU_H_FT2_PER_W_M2: f64 = 1.0 / 3.154_591;
 pub const BTU_FT3_F_PER_J_M3K: f64 = 1.0 / 67_066.1;
 /// J/m³ → Btu/ft³ (1 Btu/ft³ = 37 258.9 J/m³).
 pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
+/// °C·days → °F·days: a degree-day sum is a temperature interval times a time, so it
+/// converts as a temperature interval (1 K = 1.8 °F, NIST SP 811 B.9), with no offset.
+pub const DEG_F_DAYS_PER_DEG_C_DAYS: f64 = DEG_F_PER_K;
 
 /// Every quantity the page and CLI show.
 pub const QUANTITIES: [Quantity; 19] = [
@@ -176,9 +179,8 @@ pub const QUANTITIES: [Quantity; 19] = [
     },
     Quantity {
         id: "degree_days",
-        // A temperature interval times a time: 1 K = 1.8 °F (NIST SP 811, B.8).
         si: u("°C·days", 1.0, 0.0, 0),
-        us: u("°F·days", DEG_F_PER_K, 0.0, 0),
+        us: u("°F·days", DEG_F_DAYS_PER_DEG_C_DAYS, 0.0, 0),
     },
     Quantity {
         id: "days",

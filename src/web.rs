@@ -566,6 +566,43 @@ impl WinterRun {
             )
         })
     }
+
+    /// Draw the ground temperature against depth on a day of the run (the profile kept
+    /// nearest to it), over the envelope of the whole run.
+    pub fn draw_day_profile(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        day: f64,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, w| {
+            crate::chart::draw_winter_profile(
+                root,
+                w,
+                day,
+                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
+                pixel_ratio,
+            )
+        })
+    }
+
+    /// Draw air and surface temperature and the ground heat flux against time.
+    pub fn draw_series(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, w| {
+            crate::chart::draw_ground_series(
+                root,
+                w,
+                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
+                pixel_ratio,
+            )
+        })
+    }
 }
 
 impl WinterRun {

@@ -117,7 +117,11 @@ fn the_panic_hook_shows_its_message_on_the_page() {
 #[wasm_bindgen_test]
 fn a_winter_run_advances_in_slices_and_never_throws() {
     // No winter section, junk, and a bad winter field: errors, not exceptions.
-    for junk in [JsValue::NULL, JsValue::from_str("x"), example("snow-block-wall")] {
+    for junk in [
+        JsValue::NULL,
+        JsValue::from_str("x"),
+        example("snow-block-wall"),
+    ] {
         let r = web::WinterRun::new(junk);
         let errs: Array = r.errors().dyn_into().unwrap();
         assert!(errs.length() > 0);

@@ -18,7 +18,8 @@ mod cli {
 
     use clap::{Parser, Subcommand};
     use hibernal::scenario;
-    use hibernal::units::UnitSystem;
+    use hibernal::scenario_winter::WinterReport;
+    use hibernal::units::{quantity, UnitSystem};
 
     #[derive(Parser)]
     #[command(
@@ -47,7 +48,28 @@ mod cli {
             /// Also write the winter run's daily series to this CSV file (units in the header).
             #[arg(long, value_name = "OUT.csv")]
             csv: Option<PathBuf>,
-            /// Units of the chart: si or us.
+            /// Also write the winter run's ground temperature on one day (see --profile-day)
+            /// to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            profile_svg: Option<PathBuf>,
+            /// The day of the run that --profile-svg draws (the profile kept nearest to it;
+            /// default: the day of the deepest frost).
+            #[arg(
+                long,
+                value_name = "DAY",
+                requires = "profile_svg",
+                allow_negative_numbers = true
+            )]
+            profile_day: Option<f64>,
+            /// Also write the winter run's daily air and surface temperatures and ground heat
+            /// flux to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            series_svg: Option<PathBuf>,
+            /// Also write the winter run's ground temperature at every cell centre, one row per
+            /// day, to this CSV file (in the units of --units, named in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            profiles_csv: Option<PathBuf>,
+            /// Units of the charts and of --profiles-csv: si or us.
             #[arg(long, default_value = "si")]
             units: String,
         },
@@ -63,6 +85,45 @@ mod cli {
     fn fail(msg: impl std::fmt::Display) -> ExitCode {
         eprintln!("hibernal: {msg}");
         ExitCode::from(2)
+    }
+
+    /// The daily profiles of a winter run as CSV: one row per kept profile (the day of the
+    /// run, then the temperature of each cell), one column per cell centre, its depth and
+    /// both units in the header.
+    fn profiles_csv_text(w: &WinterReport, sys: UnitSystem) -> String {
+        let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
+            return String::new();
+        };
+        let (tu, zu) = (tq.unit(sys).symbol, zq.unit(sys).symbol);
+        let depths: Vec<f64> = w.envelope.iter().map(|e| zq.show(sys, e[0])).collect();
+        // Enough decimals that no two cell centres share a heading.
+        let mut decimals = 4;
+        let heading = |d: f64, n: usize| format!("temperature [{tu}] at {d:.n$} {zu}");
+        while decimals < 9 {
+            let mut names: Vec<String> = depths.iter().map(|&d| heading(d, decimals)).collect();
+            names.dedup();
+            if names.len() == depths.len() {
+                break;
+            }
+            decimals += 1;
+        }
+        let mut out = String::from("day");
+        for &d in &depths {
+            out.push(',');
+            out.push_str(&heading(d, decimals));
+        }
+        out.push('\n');
+        for p in &w.profiles {
+            out.push_str(&format!("{:.3}", p.day));
+            for i in 0..depths.len() {
+                out.push(',');
+                if let Some(&tc) = p.temperature_c.get(i) {
+                    out.push_str(&format!("{:.3}", tq.show(sys, tc)));
+                }
+            }
+            out.push('\n');
+        }
+        out
     }
 
     pub fn main() -> ExitCode {
@@ -99,6 +160,10 @@ mod cli {
                 svg,
                 winter_svg,
                 csv,
+                profile_svg,
+                profile_day,
+                series_svg,
+                profiles_csv,
                 units,
             } => {
                 let Some(sys) = UnitSystem::from_id(&units) else {
@@ -138,6 +203,42 @@ mod cli {
                         return fail("--csv needs a scenario with a winter section");
                     };
                     if let Err(e) = std::fs::write(&out, hibernal::scenario_winter::daily_csv(w)) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
+                if let Some(out) = profile_svg {
+                    let Some(w) = &computed.winter else {
+                        return fail("--profile-svg needs a scenario with a winter section");
+                    };
+                    let day = profile_day.unwrap_or(w.max_frost_day);
+                    if !day.is_finite() {
+                        return fail(format!("--profile-day must be a number of days, not {day}"));
+                    }
+                    let chart = match hibernal::chart::winter_profile_svg(w, day, sys, 760, 720) {
+                        Ok(s) => s,
+                        Err(e) => return fail(e),
+                    };
+                    if let Err(e) = std::fs::write(&out, chart) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
+                if let Some(out) = series_svg {
+                    let Some(w) = &computed.winter else {
+                        return fail("--series-svg needs a scenario with a winter section");
+                    };
+                    let chart = match hibernal::chart::ground_series_svg(w, sys, 960, 520) {
+                        Ok(s) => s,
+                        Err(e) => return fail(e),
+                    };
+                    if let Err(e) = std::fs::write(&out, chart) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
+                if let Some(out) = profiles_csv {
+                    let Some(w) = &computed.winter else {
+                        return fail("--profiles-csv needs a scenario with a winter section");
+                    };
+                    if let Err(e) = std::fs::write(&out, profiles_csv_text(w, sys)) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
                 }
