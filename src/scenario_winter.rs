@@ -114,7 +114,8 @@ pub enum SurfaceDoc {
         film_w_m2k: f64,
         snow_correlation: SnowCorrelationDoc,
     },
-    /// Surface = n × air, freezing and thawing n-factors.
+    /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
+    /// cover, snow included, so snow in the climate is not used.
     NFactor { freezing: f64, thawing: f64 },
 }
 

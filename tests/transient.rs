@@ -1142,3 +1142,117 @@ fn spin_up_from_the_periodic_start_needs_fewer_years_than_from_uniform() {
         "the same frost depth",
     );
 }
+
+#[test]
+fn a_snow_cell_stores_heat_as_its_ice() {
+    // Dry snow stores heat as its ice (model reference §1): H = ρ ∫₀ᵀ c_ice dθ below 0 °C
+    // with the c_ice fit of materials::ice (c = 152.5 + 7.122 T_K, checked against IAPWS
+    // R10-06 in tests/materials.rs), exact at the 2 K band edges and within ρ c₁ B²/8 between;
+    // the latent heat ρ L_f (L_f = 333.4 kJ/kg, IAPWS) at 0 °C; T(H) inverts H(T).
+    use hibernal::transient::phase::{Phase, SNOW_CAPACITY_BAND_K};
+    let rho = 280.0;
+    let p = Phase::Snow {
+        density_kg_m3: rho,
+        conductivity: 0.2,
+    };
+    let c0 = 152.5 + 7.122 * 273.15;
+    let exact = |t: f64| rho * (c0 * t + 0.5 * 7.122 * t * t);
+    for k in 0..30 {
+        let t = -(k as f64) * SNOW_CAPACITY_BAND_K;
+        assert_rel(p.enthalpy(t) - 1.0, exact(t) - 1.0, 1e-12, "band edge");
+    }
+    let worst_between = rho * 7.122 * SNOW_CAPACITY_BAND_K.powi(2) / 8.0;
+    for i in 0..600 {
+        let t = -0.1 * i as f64 - 0.037;
+        let h = p.enthalpy(t);
+        assert!(
+            (h - exact(t)).abs() <= worst_between * (1.0 + 1e-9),
+            "H at {t}"
+        );
+        assert_abs(p.temperature(h), t, 1e-10, "T(H(T))");
+        assert!(p.dt_dh(h, t) > 0.0 && p.conductivity(h, t) == 0.2);
+    }
+    assert_eq!(p.enthalpy(0.0), 0.0, "snow at 0 °C is frozen");
+    assert_rel(
+        p.latent_j_m3(),
+        rho * 333.4e3,
+        1e-15,
+        "latent heat of its ice",
+    );
+    let half = 0.5 * p.latent_j_m3();
+    assert_eq!(p.temperature(half), 0.0);
+    assert_eq!(p.dt_dh(half, 0.0), 0.0);
+    assert_abs(p.liquid_share(half, 0.0), 0.5, 1e-15, "half melted");
+    // Beyond its latent heat: its water, at c_w = 4219 J/kg/K (IAPWS-95).
+    assert_abs(
+        p.temperature(p.latent_j_m3() + rho * 4219.0),
+        1.0,
+        1e-12,
+        "meltwater",
+    );
+}
+
+#[test]
+fn an_erratic_snow_record_runs_to_the_end_and_conserves_energy() {
+    // Conservation of energy under the hardest forcing a record can give: three years of
+    // daily values (an invented, deterministic sequence) with air from −28 to +12 °C, snow
+    // that comes and goes from one day to the next, depths up to 0.8 m and densities from 60
+    // to 480 kg/m³. The run must finish (step halving where needed) and close its energy
+    // balance with the snow-mass term to 1e-9.
+    use hibernal::climate::{DailySeries, DayRecord};
+    let mut seed: u64 = 12345;
+    let mut next = move || {
+        seed = seed
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (seed >> 11) as f64 / (1u64 << 53) as f64
+    };
+    let start = chrono::NaiveDate::from_ymd_opt(2001, 7, 1).unwrap();
+    let days: Vec<DayRecord> = (0..3 * 365)
+        .map(|i| {
+            let season = -(2.0 * PI * i as f64 / 365.0).cos();
+            let air = -8.0 * season + 2.0 + 10.0 * (next() - 0.5) * 2.0;
+            let snowy = next() < 0.5 + 0.5 * season;
+            let depth = if snowy { 0.8 * next() } else { 0.0 };
+            DayRecord {
+                date: start + chrono::Days::new(i as u64),
+                mean_air_c: air.clamp(-28.0, 12.0),
+                snow_depth_m: Some(depth),
+                snow_density_kg_m3: Some(60.0 + 420.0 * next()),
+            }
+        })
+        .collect();
+    let climate = Climate::Series(DailySeries::new(days).unwrap());
+    let spec = RunSpec {
+        thicknesses_m: vec![3.0, 5.0],
+        materials: vec![silt(), material(2.0, 1.6, 1.9e6, 2.6e6, 6.0e7)],
+        curves: vec![None, None],
+        grid: GridSpec {
+            surface_cell_m: 0.01,
+            growth_ratio: 1.05,
+            max_cell_m: 0.25,
+        },
+        top: TopModel::AirFilm {
+            film_w_m2k: 25.0,
+            snow_correlation: SnowCorrelation::Jordan1991,
+        },
+        bottom: BottomCondition::Flux { upward_w_m2: 0.06 },
+        initial: Initial::Periodic(climate.annual_wave()),
+        step_s: 3600.0,
+        duration_s: climate.duration_s(),
+        profile_every_s: DAY,
+    };
+    let r = hibernal::transient::run::run(&spec, &climate).unwrap();
+    let rel = (r.energy_imbalance_j_m2 / r.energy_throughput_j_m2).abs();
+    println!(
+        "erratic record: imbalance {rel:e}, {:.2} iterations/step, {} splits",
+        r.iterations as f64 / r.steps as f64,
+        r.splits
+    );
+    assert!(rel < 1e-9, "relative imbalance {rel:e}");
+    assert_eq!(r.max_snow_cells, 8);
+    assert!(r
+        .samples
+        .iter()
+        .all(|s| s.surface_c.is_finite() && s.frost_depth_m >= 0.0));
+}
