@@ -466,7 +466,7 @@ pub struct WinterReport {
 }
 
 /// The temperature profile at one instant.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct DayProfile {
     pub day: f64,
     /// °C, one per ground cell, top down.

@@ -575,6 +575,11 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
         s.step(DAY, &top, &bottom).unwrap();
     }
     let q = exact.heat_flux_w_per_m2;
+    println!(
+        "held air under snow: flux {:.6} W/m² vs steady {q:.6} ({:.1e} relative)",
+        s.last_top_flux_w_m2,
+        ((s.last_top_flux_w_m2 - q) / q).abs()
+    );
     assert_rel(
         s.last_top_flux_w_m2,
         q,
