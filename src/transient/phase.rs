@@ -106,6 +106,14 @@ pub enum Phase {
         latent: f64,
         law: ConductivityLaw,
     },
+    /// Water that freezes over a range of temperature.
+    Range {
+        c_frozen: f64,
+        c_unfrozen: f64,
+        latent: f64,
+        law: ConductivityLaw,
+        curve: UnfrozenWater,
+    },
     /// A cell of the snow cover: ice (with air, which stores a negligible share of the heat)
     /// of bulk density ρ, conductivity `conductivity` from the run's snow regression.
     ///
@@ -130,14 +138,6 @@ pub enum Phase {
     Snow {
         density_kg_m3: f64,
         conductivity: f64,
-    },
-    /// Water that freezes over a range of temperature.
-    Range {
-        c_frozen: f64,
-        c_unfrozen: f64,
-        latent: f64,
-        law: ConductivityLaw,
-        curve: UnfrozenWater,
     },
 }
 
