@@ -501,6 +501,8 @@ pub enum Climate {
         mean_c: f64,
         amplitude_k: f64,
         coldest_day_of_year: u32,
+        /// Snow on the ground, if any ([`SnowSeason`]).
+        snow: Option<SnowSeason>,
     },
     /// A daily record, interpolated as in [`DailySeries::air_temperature_c`]. The natural run
     /// is the record's length.
@@ -522,7 +524,220 @@ pub enum Climate {
         freezing_index_c_days: f64,
         season_days: f64,
         mean_annual_c: f64,
+        /// Snow on the ground, if any ([`SnowSeason`]).
+        snow: Option<SnowSeason>,
     },
+}
+
+/// Snow depths accepted in a [`SnowSeason`], m.
+pub const SEASON_SNOW_DEPTH_RANGE_M: (f64, f64) = (0.0, 5.0);
+/// Snow densities accepted in a [`SnowSeason`], kg/m³ (new snow to old wind-packed snow
+/// and beyond: Cuffey & Paterson, The Physics of Glaciers, Table 2.1, from memory).
+pub const SEASON_SNOW_DENSITY_RANGE_KG_M3: (f64, f64) = (50.0, 600.0);
+/// Days of a [`SnowSeason`] accepted: within the first two years of the run.
+pub const SEASON_DAY_RANGE: (f64, f64) = (0.0, 730.0);
+
+/// A snow season for the synthetic climates: a shape of this tool (no source), for runs
+/// where no snow record exists. Days are days of the run (0-based, fractional), and the
+/// season repeats every 365 days, like the climates it belongs to.
+///
+/// - Depth rises linearly from 0 at `start_day` to `peak_depth_m` at `peak_day`, then falls
+///   linearly to 0 at `end_day`.
+/// - Density rises linearly from `fresh_density_kg_m3` at `start_day` to
+///   `settled_density_kg_m3` at `end_day` (settling over the winter).
+/// - A season may run across the end of the year: either `end_day` beyond 365
+///   (300 → 465), or `start_day` after `end_day` (300 → 100, the same season). It lasts at
+///   most 365 days. On any day the time since the start is taken modulo 365 days, so the
+///   first days of a run that starts in midwinter carry the previous winter's snow.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SnowSeason {
+    pub start_day: f64,
+    pub peak_day: f64,
+    pub end_day: f64,
+    pub peak_depth_m: f64,
+    pub fresh_density_kg_m3: f64,
+    pub settled_density_kg_m3: f64,
+}
+
+impl SnowSeason {
+    /// Days from the start to the peak and to the end, with the season unwrapped.
+    fn offsets(&self) -> (f64, f64) {
+        let mut end = self.end_day - self.start_day;
+        if end <= 0.0 {
+            end += DAYS_PER_YEAR;
+        }
+        let mut peak = self.peak_day - self.start_day;
+        if peak < 0.0 {
+            peak += DAYS_PER_YEAR;
+        }
+        (peak, end)
+    }
+
+    /// Check every value; field paths start with `field` (e.g. `winter.climate.snow`).
+    pub fn validate(&self, field: &str, errs: &mut InputErrors) {
+        let (dlo, dhi) = SEASON_DAY_RANGE;
+        let mut days_ok = true;
+        for (key, v) in [
+            ("start_day", self.start_day),
+            ("peak_day", self.peak_day),
+            ("end_day", self.end_day),
+        ] {
+            days_ok &= check::within(errs, &format!("{field}.{key}"), v, dlo, dhi, "days");
+        }
+        let (zlo, zhi) = SEASON_SNOW_DEPTH_RANGE_M;
+        check::within(
+            errs,
+            &format!("{field}.peak_depth_m"),
+            self.peak_depth_m,
+            zlo,
+            zhi,
+            "m",
+        );
+        let (rlo, rhi) = SEASON_SNOW_DENSITY_RANGE_KG_M3;
+        let fresh = check::within(
+            errs,
+            &format!("{field}.fresh_density_kg_m3"),
+            self.fresh_density_kg_m3,
+            rlo,
+            rhi,
+            "kg/m³",
+        );
+        let settled = check::within(
+            errs,
+            &format!("{field}.settled_density_kg_m3"),
+            self.settled_density_kg_m3,
+            rlo,
+            rhi,
+            "kg/m³",
+        );
+        if fresh && settled && self.settled_density_kg_m3 < self.fresh_density_kg_m3 {
+            errs.push(
+                format!("{field}.settled_density_kg_m3"),
+                InputErrorKind::NotCovered(format!(
+                    "settled snow ({} kg/m³) must not be lighter than fresh snow ({} kg/m³)",
+                    self.settled_density_kg_m3, self.fresh_density_kg_m3
+                )),
+            );
+        }
+        if days_ok {
+            let (peak, end) = self.offsets();
+            if end > DAYS_PER_YEAR {
+                errs.push(
+                    format!("{field}.end_day"),
+                    InputErrorKind::NotCovered(format!(
+                        "a snow season lasts at most {DAYS_PER_YEAR} days (this one {end} days)"
+                    )),
+                );
+            } else if peak > end {
+                errs.push(
+                    format!("{field}.peak_day"),
+                    InputErrorKind::NotCovered(format!(
+                        "the peak (day {}) must fall within the season, from day {} to day {}",
+                        self.peak_day, self.start_day, self.end_day
+                    )),
+                );
+            }
+        }
+    }
+
+    /// Snow on the ground at `t_s` (s from the start of the run), `None` outside the season
+    /// or at zero depth.
+    pub fn at(&self, t_s: f64) -> Option<SnowCover> {
+        let (peak, end) = self.offsets();
+        let since = (t_s / SECONDS_PER_DAY - self.start_day).rem_euclid(DAYS_PER_YEAR);
+        if since.is_nan() || since > end {
+            return None;
+        }
+        let depth = if since <= peak {
+            if peak > 0.0 {
+                self.peak_depth_m * since / peak
+            } else {
+                self.peak_depth_m
+            }
+        } else if end > peak {
+            self.peak_depth_m * (end - since) / (end - peak)
+        } else {
+            0.0
+        };
+        let density = self.fresh_density_kg_m3
+            + (self.settled_density_kg_m3 - self.fresh_density_kg_m3) * (since / end).min(1.0);
+        (depth > 0.0).then_some(SnowCover {
+            depth_m: depth,
+            density_kg_m3: Some(density),
+        })
+    }
+}
+
+/// The annual wave of a climate's air temperature, its mean and first harmonic:
+/// T ≈ mean − amplitude · cos(2π (t − coldest) / 365 d). What the periodic start of a
+/// winter run is built from.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct AnnualWave {
+    pub mean_c: f64,
+    pub amplitude_k: f64,
+    /// Time of the coldest moment of the wave, s from the start of the run, in [0, 365 d).
+    pub coldest_s: f64,
+}
+
+/// Least-squares fit of T(t) ≈ m + a cos ωt + b sin ωt (ω = 2π / 365 d) to samples, turned
+/// into an [`AnnualWave`] (a = −A cos ωt_c, b = −A sin ωt_c). Over whole years of evenly
+/// spaced samples the fit is the projection onto the first harmonic (the Fourier
+/// coefficients, standard); on shorter spans it is still the least-squares wave. With too
+/// few samples to fix a wave (fewer than 3, or all at one phase), the mean with no wave.
+pub fn fit_annual_wave(times_s: &[f64], values_c: &[f64]) -> AnnualWave {
+    let omega = 2.0 * std::f64::consts::PI / (DAYS_PER_YEAR * SECONDS_PER_DAY);
+    let n = times_s.len().min(values_c.len());
+    let mean = if n == 0 {
+        0.0
+    } else {
+        values_c[..n].iter().sum::<f64>() / n as f64
+    };
+    // Normal equations of the basis (1, cos, sin).
+    let mut m = [[0.0; 3]; 3];
+    let mut rhs = [0.0; 3];
+    for (&t, &v) in times_s.iter().zip(values_c).take(n) {
+        let basis = [1.0, (omega * t).cos(), (omega * t).sin()];
+        for i in 0..3 {
+            for j in 0..3 {
+                m[i][j] += basis[i] * basis[j];
+            }
+            rhs[i] += basis[i] * v;
+        }
+    }
+    let det = |m: &[[f64; 3]; 3]| {
+        m[0][0] * (m[1][1] * m[2][2] - m[1][2] * m[2][1])
+            - m[0][1] * (m[1][0] * m[2][2] - m[1][2] * m[2][0])
+            + m[0][2] * (m[1][0] * m[2][1] - m[1][1] * m[2][0])
+    };
+    let d = det(&m);
+    let flat = AnnualWave {
+        mean_c: mean,
+        amplitude_k: 0.0,
+        coldest_s: 0.0,
+    };
+    if n < 3 || d.is_nan() || d.abs() <= 1e-9 * (n as f64).powi(3) {
+        return flat;
+    }
+    // Cramer's rule.
+    let solve = |col: usize| {
+        let mut mm = m;
+        for (row, r) in mm.iter_mut().zip(&rhs) {
+            row[col] = *r;
+        }
+        det(&mm) / d
+    };
+    let (m0, a, b) = (solve(0), solve(1), solve(2));
+    let amplitude = a.hypot(b);
+    let coldest = if amplitude > 0.0 {
+        ((-b).atan2(-a) / omega).rem_euclid(DAYS_PER_YEAR * SECONDS_PER_DAY)
+    } else {
+        0.0
+    };
+    AnnualWave {
+        mean_c: m0,
+        amplitude_k: amplitude,
+        coldest_s: coldest,
+    }
 }
 
 /// Amplitudes (A, B) in K of the two halves of a [`Climate::DesignWinter`] (see there):
@@ -564,7 +779,11 @@ impl Climate {
                 mean_c,
                 amplitude_k,
                 coldest_day_of_year,
+                snow,
             } => {
+                if let Some(s) = snow {
+                    s.validate(&format!("{field}.snow"), &mut errs);
+                }
                 let m = check::within(
                     &mut errs,
                     &format!("{field}.mean_c"),
@@ -608,7 +827,11 @@ impl Climate {
                 freezing_index_c_days,
                 season_days,
                 mean_annual_c,
+                snow,
             } => {
+                if let Some(s) = snow {
+                    s.validate(&format!("{field}.snow"), &mut errs);
+                }
                 let (flo, fhi) = DESIGN_FREEZING_INDEX_RANGE_C_DAYS;
                 let (slo, shi) = DESIGN_SEASON_DAYS_RANGE;
                 let f = check::within(
@@ -680,6 +903,7 @@ impl Climate {
                 mean_c,
                 amplitude_k,
                 coldest_day_of_year,
+                ..
             } => {
                 let t_c = (f64::from(*coldest_day_of_year) - 0.5) * SECONDS_PER_DAY;
                 let period = DAYS_PER_YEAR * SECONDS_PER_DAY;
@@ -690,6 +914,7 @@ impl Climate {
                 freezing_index_c_days,
                 season_days,
                 mean_annual_c,
+                ..
             } => {
                 let (a, b) = design_winter_amplitudes_k(
                     *freezing_index_c_days,
@@ -707,11 +932,57 @@ impl Climate {
         }
     }
 
-    /// Snow on the ground at `t_s`: only a series that carries snow depths knows it.
+    /// Snow on the ground at `t_s`: a series that carries snow depths, or the snow season
+    /// of a sinusoid or design winter.
     pub fn snow_at(&self, t_s: f64) -> Option<SnowCover> {
         match self {
             Climate::Series(s) => s.snow_at(t_s),
-            _ => None,
+            Climate::Sinusoid { snow, .. } | Climate::DesignWinter { snow, .. } => {
+                snow.as_ref().and_then(|s| s.at(t_s))
+            }
+        }
+    }
+
+    /// The mean and first harmonic of the air temperature ([`AnnualWave`]):
+    /// - a sinusoid: its own mean, amplitude and coldest moment (noon of its coldest day);
+    /// - a design winter: its mean M (exact by construction) and the first harmonic of the
+    ///   constructed curve, fitted ([`fit_annual_wave`]) to 24 samples a day over its year
+    ///   (each at the middle of its hour; the curve's two kinks at 0 °C make the error of
+    ///   that quadrature about 1e-7 K);
+    /// - a daily series: fitted to the daily means (at noon of their day) over as many whole
+    ///   years of 365 days as the series holds from its first day, or over the whole series
+    ///   if it is shorter than a year.
+    pub fn annual_wave(&self) -> AnnualWave {
+        let year = DAYS_PER_YEAR * SECONDS_PER_DAY;
+        match self {
+            Climate::Sinusoid {
+                mean_c,
+                amplitude_k,
+                coldest_day_of_year,
+                ..
+            } => AnnualWave {
+                mean_c: *mean_c,
+                amplitude_k: *amplitude_k,
+                coldest_s: ((f64::from(*coldest_day_of_year) - 0.5) * SECONDS_PER_DAY)
+                    .rem_euclid(year),
+            },
+            Climate::DesignWinter { mean_annual_c, .. } => {
+                let n = (DAYS_PER_YEAR * 24.0) as usize;
+                let times: Vec<f64> = (0..n).map(|i| (i as f64 + 0.5) * 3600.0).collect();
+                let values: Vec<f64> = times.iter().map(|&t| self.air_temperature_c(t)).collect();
+                AnnualWave {
+                    mean_c: *mean_annual_c,
+                    ..fit_annual_wave(&times, &values)
+                }
+            }
+            Climate::Series(s) => {
+                let days = s.days();
+                let whole = (days.len() / DAYS_PER_YEAR as usize) * DAYS_PER_YEAR as usize;
+                let n = if whole > 0 { whole } else { days.len() };
+                let times: Vec<f64> = (0..n).map(|i| (i as f64 + 0.5) * SECONDS_PER_DAY).collect();
+                let values: Vec<f64> = days[..n].iter().map(|d| d.mean_air_c).collect();
+                fit_annual_wave(&times, &values)
+            }
         }
     }
 

@@ -649,7 +649,7 @@ pub struct Example {
 }
 
 /// The bundled examples; the page starts from the first.
-pub const EXAMPLES: [Example; 5] = [
+pub const EXAMPLES: [Example; 6] = [
     Example {
         id: "snow-over-foam-on-silt",
         summary: "40 cm of wind-packed snow over 50 mm of foam board over silty soil",
@@ -674,6 +674,11 @@ pub const EXAMPLES: [Example; 5] = [
         id: "silty-yard-design-winter",
         summary: "Bare silty yard through a design winter of 1200 °C·days",
         json: include_str!("../scenarios/silty-yard-design-winter.json"),
+    },
+    Example {
+        id: "cabin-porch-slab-snowy-winter",
+        summary: "A cabin's porch slab on foam board, gravel and silt through a snowy winter: change the board and watch the deepest frost move",
+        json: include_str!("../scenarios/cabin-porch-slab-snowy-winter.json"),
     },
 ];
 

@@ -4,7 +4,7 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::climate::{Climate, DailySeries, DayRecord};
+use crate::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
 use crate::error::{check, InputError, InputErrorKind, InputErrors};
 use crate::scenario::{LayerDoc, MaterialDoc, SnowCorrelationDoc};
 use crate::stack::ResolvedStack;
@@ -48,15 +48,50 @@ pub enum ClimateDoc {
         mean_c: f64,
         amplitude_k: f64,
         coldest_day_of_year: u32,
+        /// Snow on the ground over a season, if any.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        snow: Option<SnowSeasonDoc>,
     },
     /// A design winter built from a freezing index and a season length.
     DesignWinter {
         freezing_index_c_days: f64,
         season_days: f64,
         mean_annual_c: f64,
+        /// Snow on the ground over a season, if any.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        snow: Option<SnowSeasonDoc>,
     },
     /// Daily records (dates consecutive, YYYY-MM-DD).
     Daily { days: Vec<DayDoc> },
+}
+
+/// A snow season (days of the run, 0-based; see [`SnowSeason`]): depth rising linearly
+/// from 0 at `start_day` to `peak_depth_m` at `peak_day` and falling to 0 at `end_day`;
+/// density rising linearly from fresh to settled between start and end. A season may run
+/// across the year end (`end_day` beyond 365, or `start_day` after `end_day`); it repeats
+/// every 365 days.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct SnowSeasonDoc {
+    pub start_day: f64,
+    pub peak_day: f64,
+    pub end_day: f64,
+    pub peak_depth_m: f64,
+    pub fresh_density_kg_m3: f64,
+    pub settled_density_kg_m3: f64,
+}
+
+impl From<SnowSeasonDoc> for SnowSeason {
+    fn from(d: SnowSeasonDoc) -> Self {
+        SnowSeason {
+            start_day: d.start_day,
+            peak_day: d.peak_day,
+            end_day: d.end_day,
+            peak_depth_m: d.peak_depth_m,
+            fresh_density_kg_m3: d.fresh_density_kg_m3,
+            settled_density_kg_m3: d.settled_density_kg_m3,
+        }
+    }
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -73,12 +108,14 @@ pub struct DayDoc {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
 #[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
 pub enum SurfaceDoc {
-    /// Air through a film; recorded snow adds its resistance by the chosen regression.
+    /// Air through a film; snow on the ground (recorded, or a snow season) lies under the
+    /// film as layers of its own, with conductivity from the chosen regression.
     Film {
         film_w_m2k: f64,
         snow_correlation: SnowCorrelationDoc,
     },
-    /// Surface = n × air, freezing and thawing n-factors.
+    /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
+    /// cover, snow included, so snow in the climate is not used.
     NFactor { freezing: f64, thawing: f64 },
 }
 
@@ -97,11 +134,17 @@ pub enum InitialDoc {
     Uniform {
         temperature_c: f64,
     },
-    /// Repeat the first year until it repeats itself (periodic steady state).
+    /// Repeat the first year until it repeats itself (periodic steady state), from a
+    /// uniform `start_c` or, with `from_periodic`, from the periodic start.
     SpinUp {
         start_c: f64,
         max_years: u32,
+        #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+        from_periodic: bool,
     },
+    /// The periodic profile of conduction (no freezing) under the climate's mean annual
+    /// temperature and annual wave, the surface model and the deep boundary.
+    Periodic {},
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -130,19 +173,23 @@ impl WinterDoc {
                 mean_c,
                 amplitude_k,
                 coldest_day_of_year,
+                snow,
             } => Climate::Sinusoid {
                 mean_c: *mean_c,
                 amplitude_k: *amplitude_k,
                 coldest_day_of_year: *coldest_day_of_year,
+                snow: snow.map(SnowSeason::from),
             },
             ClimateDoc::DesignWinter {
                 freezing_index_c_days,
                 season_days,
                 mean_annual_c,
+                snow,
             } => Climate::DesignWinter {
                 freezing_index_c_days: *freezing_index_c_days,
                 season_days: *season_days,
                 mean_annual_c: *mean_annual_c,
+                snow: snow.map(SnowSeason::from),
             },
             ClimateDoc::Daily { days } => {
                 let mut records = Vec::with_capacity(days.len());
@@ -252,7 +299,21 @@ impl WinterDoc {
                 BottomCondition::Flux { upward_w_m2 }
             }
         };
-        let initial = match self.initial {
+        // The periodic start's wave comes from the climate, once that is known (below).
+        let initial_with = |wave: AnnualWave| match self.initial {
+            InitialDoc::Uniform { temperature_c } => Initial::Uniform(temperature_c),
+            InitialDoc::SpinUp {
+                start_c,
+                max_years,
+                from_periodic,
+            } => Initial::SpinUp {
+                start_c,
+                max_years,
+                from_periodic: from_periodic.then_some(wave),
+            },
+            InitialDoc::Periodic {} => Initial::Periodic(wave),
+        };
+        match self.initial {
             InitialDoc::Uniform { temperature_c } => {
                 check::within(
                     &mut errs,
@@ -262,9 +323,10 @@ impl WinterDoc {
                     60.0,
                     "°C",
                 );
-                Initial::Uniform(temperature_c)
             }
-            InitialDoc::SpinUp { start_c, max_years } => {
+            InitialDoc::SpinUp {
+                start_c, max_years, ..
+            } => {
                 check::within(
                     &mut errs,
                     "winter.initial.start_c",
@@ -283,9 +345,9 @@ impl WinterDoc {
                         },
                     );
                 }
-                Initial::SpinUp { start_c, max_years }
             }
-        };
+            InitialDoc::Periodic {} => {}
+        }
         let g = self.grid.unwrap_or_default();
         check::within(
             &mut errs,
@@ -347,6 +409,7 @@ impl WinterDoc {
             .into());
         }
         let climate = climate.ok_or_else(|| errs.clone())?;
+        let initial = initial_with(climate.annual_wave());
         Ok((
             RunSpec {
                 thicknesses_m: thicknesses,
@@ -403,11 +466,14 @@ pub struct WinterReport {
 }
 
 /// The temperature profile at one instant.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct DayProfile {
     pub day: f64,
-    /// °C, one per cell, top down.
+    /// °C, one per ground cell, top down.
     pub temperature_c: Vec<f64>,
+    /// The snow cells: height of each cell centre above the ground surface (m) and its
+    /// temperature (°C), from the ground up; empty when there is no snow.
+    pub snow_c: Vec<[f64; 2]>,
 }
 
 impl WinterReport {
@@ -555,9 +621,15 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         profiles: r
             .profiles
             .into_iter()
-            .map(|(t, temperature_c)| DayProfile {
+            .zip(
+                r.snow_profiles
+                    .into_iter()
+                    .chain(std::iter::repeat(Vec::new())),
+            )
+            .map(|((t, temperature_c), snow_c)| DayProfile {
                 day: t / 86_400.0,
                 temperature_c,
+                snow_c,
             })
             .collect(),
     }

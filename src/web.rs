@@ -198,7 +198,7 @@ pub fn catalogue() -> JsValue {
                 source: s.source(),
             })
             .collect(),
-        initial_kinds: vec!["uniform", "spin-up"],
+        initial_kinds: vec!["uniform", "spin-up", "periodic"],
         units: QUANTITIES
             .iter()
             .map(|q| {

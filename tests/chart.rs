@@ -55,6 +55,7 @@ fn hand_report(
         .map(|d| DayProfile {
             day: d.day,
             temperature_c: depths.iter().map(|&z| temp(d.day, z)).collect(),
+            snow_c: Vec::new(),
         })
         .collect();
     let envelope = depths

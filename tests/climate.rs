@@ -266,6 +266,7 @@ fn design_winter_integral_equals_the_requested_index() {
             freezing_index_c_days: f,
             season_days: s,
             mean_annual_c: m,
+            snow: None,
         };
         c.validate("climate").unwrap();
         let t = |tau_d: f64| c.air_temperature_c(tau_d * SECONDS_PER_DAY);
@@ -300,6 +301,7 @@ fn a_design_winter_colder_than_its_index_allows_is_refused() {
         freezing_index_c_days: 730.0,
         season_days: 150.0,
         mean_annual_c: -2.5,
+        snow: None,
     };
     let e = c.validate("climate").unwrap_err();
     assert_eq!(e.0[0].field, "climate.mean_annual_c");
@@ -308,6 +310,7 @@ fn a_design_winter_colder_than_its_index_allows_is_refused() {
         freezing_index_c_days: 730.0,
         season_days: 365.0,
         mean_annual_c: 0.0,
+        snow: None,
     };
     assert_eq!(
         c.validate("climate").unwrap_err().0[0].field,
@@ -322,6 +325,7 @@ fn sinusoid_coldest_moment_mean_and_freezing_index() {
         mean_c: -2.0,
         amplitude_k: 15.0,
         coldest_day_of_year: 20,
+        snow: None,
     };
     c.validate("climate").unwrap();
     let year = 365.0 * SECONDS_PER_DAY;
@@ -367,6 +371,7 @@ fn sinusoid_coldest_moment_mean_and_freezing_index() {
         mean_c: -50.0,
         amplitude_k: 45.0,
         coldest_day_of_year: 366,
+        snow: None,
     };
     let fields: Vec<String> = bad
         .validate("climate")
@@ -432,7 +437,8 @@ fn a_series_interpolates_between_noons_and_holds_at_the_ends() {
     assert!(Climate::Sinusoid {
         mean_c: 0.0,
         amplitude_k: 1.0,
-        coldest_day_of_year: 1
+        coldest_day_of_year: 1,
+        snow: None,
     }
     .snow_at(0.0)
     .is_none());
@@ -981,4 +987,167 @@ fn a_bad_record_is_refused_line_by_line_and_a_bad_unit_by_its_option() {
     let out = import_csv(text, &o("kelvin"));
     assert!(!out.ok);
     assert_eq!(out.errors[0].field, "import.temperature");
+}
+
+// ------------------------------------------------------------- snow season, annual wave
+
+use hibernal::climate::{fit_annual_wave, SnowSeason};
+
+fn season(start: f64, peak: f64, end: f64) -> SnowSeason {
+    SnowSeason {
+        start_day: start,
+        peak_day: peak,
+        end_day: end,
+        peak_depth_m: 0.6,
+        fresh_density_kg_m3: 100.0,
+        settled_density_kg_m3: 300.0,
+    }
+}
+
+#[test]
+fn a_snow_season_rises_and_falls_linearly_and_wraps_over_the_year_end() {
+    // The documented shape of SnowSeason (a construction of this tool): depth linear from 0
+    // at the start to the peak and back to 0 at the end, density linear from fresh to
+    // settled over the season; days modulo 365. Hand-worked values.
+    let s = season(300.0, 20.0, 100.0); // 165 days: peak after 85, end after 165
+    let at = |day: f64| s.at(day * SECONDS_PER_DAY);
+    assert!(at(299.0).is_none() && at(101.0).is_none() && at(200.0).is_none());
+    let c = at(342.5).unwrap(); // 42.5 days in: half-way to the peak
+    assert_abs(c.depth_m, 0.3, 1e-12, "half-way up");
+    assert_abs(
+        c.density_kg_m3.unwrap(),
+        100.0 + 200.0 * 42.5 / 165.0,
+        1e-9,
+        "density",
+    );
+    assert_abs(at(20.0).unwrap().depth_m, 0.6, 1e-12, "peak");
+    assert_abs(at(60.0).unwrap().depth_m, 0.3, 1e-12, "half-way down");
+    // Day 365 + 60 of a second year is the same day.
+    assert_eq!(at(425.0), at(60.0));
+    // The same season written with its end beyond 365.
+    let unwrapped = season(300.0, 385.0, 465.0);
+    for d in [0.0, 10.0, 60.0, 99.0, 310.0, 350.0, 400.0, 500.0] {
+        let (a, b) = (at(d), unwrapped.at(d * SECONDS_PER_DAY));
+        match (a, b) {
+            (Some(a), Some(b)) => {
+                assert_abs(a.depth_m, b.depth_m, 1e-9, "same depth");
+                assert_abs(
+                    a.density_kg_m3.unwrap(),
+                    b.density_kg_m3.unwrap(),
+                    1e-9,
+                    "same density",
+                );
+            }
+            (a, b) => assert_eq!(a, b, "day {d}"),
+        }
+    }
+    // The climates carry it; the series is unchanged by it.
+    let c = Climate::Sinusoid {
+        mean_c: 0.0,
+        amplitude_k: 10.0,
+        coldest_day_of_year: 20,
+        snow: Some(s),
+    };
+    c.validate("climate").unwrap();
+    assert_abs(
+        c.snow_at(20.0 * SECONDS_PER_DAY).unwrap().depth_m,
+        0.6,
+        1e-12,
+        "from the climate",
+    );
+    assert!(c.snow_at(f64::NAN).is_none(), "no panic on NaN");
+}
+
+#[test]
+fn a_snow_season_out_of_range_is_refused_naming_the_field() {
+    let field = |s: SnowSeason| {
+        let mut errs = hibernal::error::InputErrors::default();
+        s.validate("winter.climate.snow", &mut errs);
+        errs.0.into_iter().map(|e| e.field).collect::<Vec<_>>()
+    };
+    assert!(field(season(300.0, 20.0, 100.0)).is_empty());
+    let mut s = season(300.0, 20.0, 100.0);
+    s.peak_depth_m = 6.0;
+    assert_eq!(field(s), ["winter.climate.snow.peak_depth_m"]);
+    s = season(300.0, 20.0, 100.0);
+    s.settled_density_kg_m3 = 80.0;
+    assert_eq!(field(s), ["winter.climate.snow.settled_density_kg_m3"]);
+    s.fresh_density_kg_m3 = 700.0;
+    assert_eq!(field(s), ["winter.climate.snow.fresh_density_kg_m3"]);
+    assert_eq!(
+        field(season(300.0, 200.0, 100.0)),
+        ["winter.climate.snow.peak_day"]
+    );
+    assert_eq!(
+        field(season(10.0, 100.0, 700.0)),
+        ["winter.climate.snow.end_day"]
+    );
+    assert_eq!(
+        field(season(-1.0, 100.0, 200.0)),
+        ["winter.climate.snow.start_day"]
+    );
+    s = season(300.0, 20.0, 100.0);
+    s.peak_depth_m = f64::NAN;
+    assert_eq!(field(s), ["winter.climate.snow.peak_depth_m"]);
+}
+
+#[test]
+fn annual_waves_of_the_three_climates() {
+    // A sinusoid's own parameters; a design winter whose season is half the year and whose
+    // mean is 0 is the pure sinusoid −A sin(2π τ / 365), A = πF/(2S) (its construction), so
+    // its wave has that amplitude and is coldest at τ = 91.25 d; a daily series sampled from
+    // a sinusoid gives that sinusoid back (least squares on exact samples), over whole years
+    // and over part of a year. 1e-6 K (the design winter's hourly quadrature) and 1e-9.
+    let c = Climate::Sinusoid {
+        mean_c: -1.5,
+        amplitude_k: 17.0,
+        coldest_day_of_year: 25,
+        snow: None,
+    };
+    let w = c.annual_wave();
+    assert_eq!((w.mean_c, w.amplitude_k), (-1.5, 17.0));
+    assert_abs(w.coldest_s, 24.5 * SECONDS_PER_DAY, 1e-9, "coldest");
+    let d = Climate::DesignWinter {
+        freezing_index_c_days: 1000.0,
+        season_days: 182.5,
+        mean_annual_c: 0.0,
+        snow: None,
+    };
+    let w = d.annual_wave();
+    assert_abs(w.mean_c, 0.0, 1e-12, "design mean");
+    assert_abs(
+        w.amplitude_k,
+        PI * 1000.0 / (2.0 * 182.5),
+        1e-6,
+        "design amplitude",
+    );
+    assert_abs(
+        w.coldest_s / SECONDS_PER_DAY,
+        91.25,
+        1e-6,
+        "design coldest day",
+    );
+    let sine = |t: f64| {
+        3.0 - 11.0 * (2.0 * PI * (t - 200.0 * SECONDS_PER_DAY) / (365.0 * SECONDS_PER_DAY)).cos()
+    };
+    for n_days in [3 * 365 + 100, 200] {
+        let days: Vec<DayRecord> = (0..n_days)
+            .map(|i| {
+                let t = (i as f64 + 0.5) * SECONDS_PER_DAY;
+                DayRecord::new(date("2001-07-01") + chrono::Days::new(i as u64), sine(t))
+            })
+            .collect();
+        let w = Climate::Series(DailySeries::new(days).unwrap()).annual_wave();
+        assert_abs(w.mean_c, 3.0, 1e-9, "series mean");
+        assert_abs(w.amplitude_k, 11.0, 1e-9, "series amplitude");
+        assert_abs(
+            w.coldest_s / SECONDS_PER_DAY,
+            200.0,
+            1e-7,
+            "series coldest day",
+        );
+    }
+    // Too little to fix a wave: the mean, no wave.
+    let w = fit_annual_wave(&[0.0, 1.0], &[2.0, 4.0]);
+    assert_eq!((w.mean_c, w.amplitude_k), (3.0, 0.0));
 }

@@ -485,3 +485,141 @@ fn a_soil_can_freeze_over_a_range_in_the_winter_run() {
     let e = run(v).unwrap_err();
     assert_eq!(e.0[0].field, "layers[0].material.unfrozen_water.beta");
 }
+
+fn yard() -> serde_json::Value {
+    serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap()
+}
+
+fn winter_of(
+    v: serde_json::Value,
+) -> Result<hibernal::scenario_winter::WinterReport, hibernal::error::InputErrors> {
+    let s = scenario::from_value(v)?;
+    scenario::compute_with_winter(&s).map(|c| c.winter.unwrap())
+}
+
+#[test]
+fn older_files_and_every_example_still_parse_and_write_no_new_keys() {
+    // The snow season and the periodic start are optional additions to format version 2:
+    // every bundled example (all written before them) and a version 1 file still load, and
+    // a document that uses neither writes back without the new keys.
+    for e in &scenario::EXAMPLES {
+        let s = scenario::parse(e.json).unwrap_or_else(|err| panic!("{}: {err}", e.id));
+        if e.id == "cabin-porch-slab-snowy-winter" {
+            // Written with a snow season: it must keep it.
+            assert!(serde_json::to_string(&s.winter).unwrap().contains("\"snow\""));
+            continue;
+        }
+        let text = serde_json::to_string(&s.winter).unwrap();
+        assert!(
+            !text.contains("\"snow\"") && !text.contains("from_periodic"),
+            "{}",
+            e.id
+        );
+    }
+    let v1 = example_value();
+    assert_eq!(v1["version"], 1);
+    assert!(scenario::from_value(v1).is_ok());
+    let s = scenario::from_value(yard()).unwrap();
+    assert_eq!(s.version, 2);
+}
+
+#[test]
+fn a_snow_season_over_a_design_winter_lies_on_the_ground_as_snow_cells() {
+    // A design winter (the bundled yard, 1200 °C·days) under a film of 20 W/m²K, with and
+    // without a snow season reaching 0.3 m; from the periodic start. Checks: energy balance
+    // with the snow-mass term (conservation, 1e-9); snow cells in the daily profiles only
+    // while the season's snow lies, with their heights inside the snow; the daily snow depth
+    // is the season's (linear between days 20, 80 and 150); less frost under snow (it
+    // insulates: Fourier's law with the snow's resistance added).
+    let mut v = yard();
+    v["winter"]["surface"] = serde_json::json!({"kind": "film", "film_w_m2k": 20, "snow_correlation": "sturm-1997-quadratic"});
+    v["winter"]["initial"] = serde_json::json!({"kind": "periodic"});
+    let bare = winter_of(v.clone()).unwrap();
+    v["winter"]["climate"]["snow"] = serde_json::json!({
+        "start_day": 20, "peak_day": 80, "end_day": 150, "peak_depth_m": 0.3,
+        "fresh_density_kg_m3": 100, "settled_density_kg_m3": 300
+    });
+    let snowy = winter_of(v.clone()).unwrap();
+    assert!(
+        snowy.energy_imbalance_relative < 1e-9,
+        "{}",
+        snowy.energy_imbalance_relative
+    );
+    assert_abs(
+        snowy.daily[50].snow_depth_m,
+        0.15,
+        1e-9,
+        "half-way to the peak on day 50",
+    );
+    assert_abs(snowy.daily[80].snow_depth_m, 0.3, 1e-9, "peak on day 80");
+    let p = snowy.profile_near(80.0).unwrap();
+    assert_eq!(p.snow_c.len(), 8);
+    assert!(p
+        .snow_c
+        .iter()
+        .all(|c| c[0] > 0.0 && c[0] < 0.3 && c[1] <= 0.0));
+    assert_eq!(
+        p.temperature_c.len(),
+        snowy.envelope.len(),
+        "ground cells only"
+    );
+    assert!(snowy.profile_near(10.0).unwrap().snow_c.is_empty());
+    assert!(snowy.profile_near(200.0).unwrap().snow_c.is_empty());
+    assert!(
+        snowy.max_frost_depth_m < bare.max_frost_depth_m,
+        "{} under snow vs {} bare",
+        snowy.max_frost_depth_m,
+        bare.max_frost_depth_m
+    );
+    // It round-trips, and a spin-up may start from the periodic state.
+    let s = scenario::from_value(v.clone()).unwrap();
+    assert_eq!(
+        scenario::parse(&serde_json::to_string(&s).unwrap()).unwrap(),
+        s
+    );
+    v["winter"]["initial"] = serde_json::json!({"kind": "spin-up", "start_c": 4, "max_years": 10, "from_periodic": true});
+    let spun = winter_of(v).unwrap();
+    assert!(spun.spin_up_years >= 1 && spun.energy_imbalance_relative < 1e-9);
+}
+
+#[test]
+fn bad_snow_seasons_are_refused_naming_the_field() {
+    let with_snow = |snow: serde_json::Value| {
+        let mut v = yard();
+        v["winter"]["climate"]["snow"] = snow;
+        winter_of(v).map(|_| ()).unwrap_err()
+    };
+    let ok = serde_json::json!({
+        "start_day": 300, "peak_day": 20, "end_day": 100, "peak_depth_m": 0.3,
+        "fresh_density_kg_m3": 100, "settled_density_kg_m3": 300
+    });
+    let mut bad = ok.clone();
+    bad["peak_depth_m"] = serde_json::json!(7.5);
+    assert_eq!(
+        with_snow(bad).0[0].field,
+        "winter.climate.snow.peak_depth_m"
+    );
+    let mut bad = ok.clone();
+    bad["settled_density_kg_m3"] = serde_json::json!(90);
+    assert_eq!(
+        with_snow(bad).0[0].field,
+        "winter.climate.snow.settled_density_kg_m3"
+    );
+    let mut bad = ok.clone();
+    bad["end_day"] = serde_json::json!(800);
+    assert_eq!(with_snow(bad).0[0].field, "winter.climate.snow.end_day");
+    let mut bad = ok.clone();
+    bad["colour"] = serde_json::json!("white");
+    let e = with_snow(bad);
+    assert!(e.to_string().contains("colour"), "{e}");
+    // The schema carries the new shapes.
+    let text = scenario::schema().to_string();
+    for key in [
+        "peak_depth_m",
+        "settled_density_kg_m3",
+        "periodic",
+        "from_periodic",
+    ] {
+        assert!(text.contains(key), "schema mentions {key}");
+    }
+}

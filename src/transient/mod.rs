@@ -23,11 +23,17 @@
 //!   returned — never a silent wrong answer.
 //! - The frost front is read from the frozen fraction inside a cell, not from node
 //!   temperatures alone ([`Solver::fronts`]).
+//! - Snow on the ground is a stack of cells of its own above the ground cells, whose depth
+//!   and density the climate prescribes ([`Solver::set_snow`]): they store heat and latent
+//!   heat ([`Phase::Snow`]), their surface cannot warm above 0 °C while they hold ice, and
+//!   the energy that arrives or leaves with snow mass is booked in the energy ledger as a
+//!   term of its own.
 //!
 //! Valid for conduction with phase change in a column: no water or vapour movement, no frost
 //! heave, no snowmelt infiltration.
 
 pub mod grid;
+pub mod periodic;
 pub mod phase;
 pub mod reference;
 pub mod run;
@@ -54,8 +60,10 @@ pub enum TransientError {
 /// Conditions on the top face at one instant.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum TopCondition {
-    /// Air at `air_c` through a film `film_w_m2k` and an extra resistance in series
-    /// (snow cover treated as quasi-steady, m²K/W).
+    /// Air at `air_c` through a film `film_w_m2k` and an extra resistance in series (a
+    /// resistance that stores no heat, m²K/W). When the column carries snow cells the face
+    /// under film and extra resistance is the snow surface, which is held at 0 °C at most
+    /// (see [`Solver::set_snow`]).
     Air {
         air_c: f64,
         film_w_m2k: f64,
@@ -104,7 +112,7 @@ pub struct Cell {
     /// Depth of the cell's top face and thickness, m.
     pub top_m: f64,
     pub dz_m: f64,
-    /// Index of the layer the cell belongs to.
+    /// Index of the layer the cell belongs to ([`SNOW_LAYER`] for a snow cell).
     pub layer: usize,
     pub phase: Phase,
 }
@@ -121,7 +129,39 @@ pub struct Work {
     pub steps: u64,
     pub iterations: u64,
     pub splits: u64,
+    /// Σ over the linear solves of converged steps of the cells solved (snow cells
+    /// included): the cell-updates of the benchmark.
+    pub cell_updates: u64,
 }
+
+/// Snow on the ground as the climate prescribes it at one instant.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SnowLayer {
+    pub depth_m: f64,
+    pub density_kg_m3: f64,
+    /// From the run's snow regression at that density, W/m/K.
+    pub conductivity_w_m_k: f64,
+}
+
+/// The `layer` of a snow cell (snow is not one of the stack's layers).
+pub const SNOW_LAYER: usize = usize::MAX;
+
+/// Snow shallower than this gets no cells, m: half the 1 cm to which daily snow depth is
+/// usually observed (shallower cover is reported as a trace; common practice, no source).
+/// Its resistance is then at most that of the film (5 mm / 0.1 W/m/K = 0.05 m²K/W) and its
+/// heat capacity about 2 kJ/m²/K, a few millimetres of soil.
+pub const SNOW_MIN_DEPTH_M: f64 = 0.005;
+/// Target thickness of a snow cell, m; the cover gets ⌈depth / this⌉ equal cells, at most
+/// [`MAX_SNOW_CELLS`].
+pub const SNOW_CELL_M: f64 = 0.02;
+/// Most snow cells (at 30 cm of snow, cells of 3.75 cm: about half the damping depth of the
+/// daily temperature wave in settled snow, √(2a/ω) ≈ 7.6 cm for a = 2.1e-7 m²/s; the annual
+/// wave, 1.5 m, is resolved finely).
+pub const MAX_SNOW_CELLS: usize = 8;
+/// Share of the top snow cell's ice over which its surface hands over from being held at
+/// 0 °C (melting) to the plain film, as the cell's ice runs out (a numerical device of this
+/// tool, so that the top flux stays continuous in the cell's state; no source).
+pub const SNOW_MELT_OUT_SHARE: f64 = 0.1;
 
 /// The column and its state.
 #[derive(Debug, Clone)]
@@ -138,9 +178,21 @@ pub struct Solver {
     pub energy_in_j_m2: f64,
     /// Energy stored at the start, J/m².
     pub energy_start_j_m2: f64,
+    /// Energy brought into the column with snow mass since the start (snow arriving, less
+    /// snow leaving, each at its own specific enthalpy), J/m².
+    pub snow_exchange_j_m2: f64,
     /// Fluxes of the last step, W/m², positive into the column.
     pub last_top_flux_w_m2: f64,
     pub last_bottom_flux_w_m2: f64,
+    /// Flux into the ground through its top face (the snow/ground interface under snow) and
+    /// the temperature of that face at the end of the last step, W/m² and °C.
+    pub last_ground_flux_w_m2: f64,
+    pub last_ground_surface_c: f64,
+    /// Number of snow cells at the start of `cells` (0 without snow). Snow cells sit above
+    /// the ground surface: their `top_m` is negative (height above the ground, negated).
+    pub snow_cells: usize,
+    /// The snow the snow cells represent.
+    pub snow: Option<SnowLayer>,
     // Scratch, preallocated: no allocation per step.
     h_old: Vec<f64>,
     /// Half-cell resistances Δz/2k, m²K/W.
@@ -184,8 +236,13 @@ impl Solver {
             work: Work::default(),
             energy_in_j_m2: 0.0,
             energy_start_j_m2: 0.0,
+            snow_exchange_j_m2: 0.0,
             last_top_flux_w_m2: 0.0,
             last_bottom_flux_w_m2: 0.0,
+            last_ground_flux_w_m2: 0.0,
+            last_ground_surface_c: initial_c,
+            snow_cells: 0,
+            snow: None,
             h_old: vec![0.0; n],
             k: vec![0.0; n],
             g: vec![0.0; n + 1],
@@ -207,15 +264,179 @@ impl Solver {
         s
     }
 
-    /// Set the initial state from a temperature for each cell.
+    /// Set the initial state of the ground cells from a temperature at each depth (the snow
+    /// cells keep theirs), and start the energy ledger afresh.
     pub fn set_temperatures(&mut self, t: impl Fn(f64) -> f64) {
-        for (i, cell) in self.cells.iter().enumerate() {
+        for (i, cell) in self.cells.iter().enumerate().skip(self.snow_cells) {
             let tc = t(cell.center_m());
             self.enthalpy[i] = cell.phase.enthalpy(tc);
             self.temperature[i] = cell.phase.temperature(self.enthalpy[i]);
         }
+        self.restart_ledger();
+    }
+
+    /// Start the energy ledger afresh from the present state.
+    pub fn restart_ledger(&mut self) {
         self.energy_start_j_m2 = self.stored_energy_j_m2();
         self.energy_in_j_m2 = 0.0;
+        self.snow_exchange_j_m2 = 0.0;
+    }
+
+    /// Index range of the ground cells (after the snow cells).
+    pub fn ground(&self) -> std::ops::Range<usize> {
+        self.snow_cells..self.cells.len()
+    }
+
+    /// Temperatures of the ground cells, top down, °C.
+    pub fn ground_temperatures(&self) -> &[f64] {
+        &self.temperature[self.snow_cells..]
+    }
+
+    /// Snow cells as (height of the cell centre above the ground surface m, temperature °C),
+    /// from the ground up.
+    pub fn snow_profile(&self) -> Vec<[f64; 2]> {
+        (0..self.snow_cells)
+            .rev()
+            .map(|i| [-self.cells[i].center_m(), self.temperature[i]])
+            .collect()
+    }
+
+    /// Put the snow the climate prescribes on the column (or take it away), before a step.
+    ///
+    /// `None`, or snow no deeper than [`SNOW_MIN_DEPTH_M`], means no snow cells. Otherwise the
+    /// cover is cut into N = ⌈depth / [`SNOW_CELL_M`]⌉ equal cells (1 ≤ N ≤
+    /// [`MAX_SNOW_CELLS`]) of the given density. The enthalpy is remapped conservatively in
+    /// mass coordinates counted from the ground up: each new cell takes the mass-weighted
+    /// mean of the old cells' specific enthalpy (J/kg) over the mass it spans, so snow that
+    /// only settles (denser, thinner, same mass) keeps its temperature profile. Mass gained
+    /// is added at the top, as snowfall, at the specific enthalpy of ice at `fresh_c` capped
+    /// at 0 °C (frozen); mass lost leaves from the top (melt, wind, sublimation) with the
+    /// specific enthalpy it had. The energy so brought in is returned (J/m²) and added to
+    /// [`Solver::snow_exchange_j_m2`], so the ledger still closes:
+    /// stored change = face fluxes + snow-mass exchange.
+    ///
+    /// The cell arrays are reallocated only when the number of cells changes.
+    pub fn set_snow(&mut self, snow: Option<SnowLayer>, fresh_c: f64) -> f64 {
+        let snow = snow.filter(|s| {
+            s.depth_m > SNOW_MIN_DEPTH_M
+                && s.depth_m.is_finite()
+                && s.density_kg_m3 > 0.0
+                && s.density_kg_m3.is_finite()
+                && s.conductivity_w_m_k > 0.0
+                && s.conductivity_w_m_k.is_finite()
+        });
+        if snow == self.snow {
+            return 0.0;
+        }
+        let ns_old = self.snow_cells;
+        // The old cover in mass coordinates from the ground up: equal cells of mass m_old.
+        let (m_old, rho_old) = match self.snow {
+            Some(s) if ns_old > 0 => (s.density_kg_m3 * s.depth_m / ns_old as f64, s.density_kg_m3),
+            _ => (0.0, 1.0),
+        };
+        let mut spec_old = [0.0; MAX_SNOW_CELLS];
+        let mut prefix = [0.0; MAX_SNOW_CELLS + 1];
+        for g in 0..ns_old {
+            // g counts from the ground up; the cell index counts from the top down.
+            spec_old[g] = self.enthalpy[ns_old - 1 - g] / rho_old;
+            prefix[g + 1] = prefix[g] + m_old * spec_old[g];
+        }
+        let mass_old = m_old * ns_old as f64;
+        let energy_old = prefix[ns_old];
+        let h_fresh = phase::snow_specific_enthalpy(fresh_c.min(0.0));
+        // ∫₀^m h dm over the old cover, continued above it by fresh snow.
+        let cumulative = |m: f64| -> f64 {
+            if m >= mass_old {
+                energy_old + (m - mass_old) * h_fresh
+            } else {
+                let g = ((m / m_old).floor() as usize).min(ns_old - 1);
+                prefix[g] + (m - g as f64 * m_old) * spec_old[g]
+            }
+        };
+        let (ns_new, dz_new, mass_new) = match snow {
+            Some(s) => {
+                let n = ((s.depth_m / SNOW_CELL_M).ceil() as usize).clamp(1, MAX_SNOW_CELLS);
+                (n, s.depth_m / n as f64, s.density_kg_m3 * s.depth_m)
+            }
+            None => (0, 0.0, 0.0),
+        };
+        let mut h_new = [0.0; MAX_SNOW_CELLS];
+        let mut below = 0.0;
+        for (g, h) in h_new.iter_mut().enumerate().take(ns_new) {
+            let above = cumulative(mass_new * (g + 1) as f64 / ns_new as f64);
+            *h = (above - below) / dz_new;
+            below = above;
+        }
+        // Energy brought in with snow mass: fresh snow added, or the top of the old cover lost.
+        let exchange = if mass_new >= mass_old {
+            (mass_new - mass_old) * h_fresh
+        } else {
+            -(energy_old - cumulative(mass_new))
+        };
+        self.snow_exchange_j_m2 += exchange;
+        // The new snow cells, top down (none without snow).
+        let (depth, phase) = match snow {
+            Some(s) => (
+                s.depth_m,
+                Phase::Snow {
+                    density_kg_m3: s.density_kg_m3,
+                    conductivity: s.conductivity_w_m_k,
+                },
+            ),
+            None => (
+                0.0,
+                Phase::Snow {
+                    density_kg_m3: 1.0,
+                    conductivity: 1.0,
+                },
+            ),
+        };
+        let make = |j: usize| -> (Cell, f64) {
+            let cell = Cell {
+                top_m: -depth + j as f64 * dz_new,
+                dz_m: dz_new,
+                layer: SNOW_LAYER,
+                phase,
+            };
+            (cell, h_new[ns_new - 1 - j])
+        };
+        if ns_new == ns_old {
+            for j in 0..ns_new {
+                let (cell, h) = make(j);
+                self.temperature[j] = cell.phase.temperature(h);
+                self.enthalpy[j] = h;
+                self.cells[j] = cell;
+            }
+        } else {
+            let (cells, hs): (Vec<Cell>, Vec<f64>) = (0..ns_new).map(make).unzip();
+            let ts: Vec<f64> = cells
+                .iter()
+                .zip(&hs)
+                .map(|(c, &h)| c.phase.temperature(h))
+                .collect();
+            self.cells.splice(0..ns_old, cells);
+            self.enthalpy.splice(0..ns_old, hs);
+            self.temperature.splice(0..ns_old, ts);
+            let n = self.cells.len();
+            for v in [
+                &mut self.h_old,
+                &mut self.k,
+                &mut self.slope,
+                &mut self.a,
+                &mut self.b,
+                &mut self.c,
+                &mut self.r,
+                &mut self.dp,
+                &mut self.cap,
+            ] {
+                v.resize(n, 0.0);
+            }
+            self.g.resize(n + 1, 0.0);
+            self.lu = Tridiagonal::new(n);
+            self.snow_cells = ns_new;
+        }
+        self.snow = snow;
+        exchange
     }
 
     /// Σ H Δz, J/m².
@@ -227,9 +448,12 @@ impl Solver {
             .sum()
     }
 
-    /// Energy that entered minus energy stored since the start, J/m² (zero to round-off).
+    /// Energy stored since the start minus the energy that entered through the faces and
+    /// with snow mass, J/m² (zero to round-off).
     pub fn energy_imbalance_j_m2(&self) -> f64 {
-        (self.stored_energy_j_m2() - self.energy_start_j_m2) - self.energy_in_j_m2
+        (self.stored_energy_j_m2() - self.energy_start_j_m2)
+            - self.energy_in_j_m2
+            - self.snow_exchange_j_m2
     }
 
     /// Depth of the bottom face, m.
@@ -244,13 +468,15 @@ impl Solver {
             .frozen_fraction(self.enthalpy[i], self.temperature[i])
     }
 
-    /// Frost and thaw fronts, read from the frozen fraction inside cells. In a cell that is
-    /// part frozen, the front sits at the fraction of its thickness given by the frozen
-    /// share, on the side of the frozen neighbour.
+    /// Frost and thaw fronts in the ground (depths from the ground surface; snow cells are
+    /// not ground), read from the frozen fraction inside cells. In a cell that is part
+    /// frozen, the front sits at the fraction of its thickness given by the frozen share, on
+    /// the side of the frozen neighbour.
     pub fn fronts(&self) -> Fronts {
-        let n = self.cells.len();
+        let ground = self.ground();
         let freezes = |i: usize| self.cells[i].phase.freezes();
-        let Some(deepest) = (0..n)
+        let Some(deepest) = ground
+            .clone()
             .rev()
             .find(|&i| freezes(i) && self.frozen_fraction(i) > 1e-9)
         else {
@@ -261,7 +487,7 @@ impl Solver {
         let frost = c.top_m + f * c.dz_m;
         // Thaw from the top: the first freezable cell not fully frozen, above frozen ground.
         let mut thaw: f64 = 0.0;
-        for i in (0..=deepest).filter(|&i| freezes(i)) {
+        for i in (ground.start..=deepest).filter(|&i| freezes(i)) {
             let fi = self.frozen_fraction(i).clamp(0.0, 1.0);
             if fi >= 1.0 - 1e-9 {
                 break;
@@ -336,21 +562,76 @@ impl Solver {
         0.5 * self.cells[i].dz_m / k
     }
 
-    /// Record a converged step's face fluxes and the energy they carried in.
+    /// Record a converged step's face fluxes and the energy they carried in, and the flux
+    /// into the ground and its surface temperature (extrapolated through the top ground
+    /// cell's half-cell resistance).
     fn book(&mut self, q_top: f64, q_bot: f64, dt: f64) {
         self.last_top_flux_w_m2 = q_top;
         self.last_bottom_flux_w_m2 = q_bot;
         self.energy_in_j_m2 += (q_top + q_bot) * dt;
+        let gi = self.snow_cells;
+        let q_ground = if gi == 0 {
+            q_top
+        } else {
+            self.g[gi] * (self.temperature[gi - 1] - self.temperature[gi])
+        };
+        self.last_ground_flux_w_m2 = q_ground;
+        self.last_ground_surface_c = self.temperature[gi] + q_ground * self.k[gi];
+    }
+
+    /// Flux into the column through the top face, W/m², with its derivatives with respect
+    /// to the top cell's temperature and enthalpy, and which piece of the flux law applies.
+    ///
+    /// Under snow the snow surface cannot be warmer than 0 °C: where the film and top half
+    /// cell would put it above, the surface is held at 0 °C and the film brings
+    /// q = (T_air − 0)/(1/h + R_extra) into the top cell, which melts (or, if colder, warms:
+    /// meltwater refreezing inside). This is q = max(q₁, q_cap), q₁ the plain conduction
+    /// through film and half cell: continuous and monotone in the cell's temperature. As
+    /// the top cell's last ice melts ([`SNOW_MELT_OUT_SHARE`]) the held surface hands over
+    /// linearly to q₁.
+    fn top_flux(&self, top: &TopCondition) -> (f64, f64, f64, u8) {
+        let g0 = self.g[0];
+        match *top {
+            TopCondition::Surface { surface_c } => {
+                (g0 * (surface_c - self.temperature[0]), -g0, 0.0, 0)
+            }
+            TopCondition::Air {
+                air_c,
+                film_w_m2k,
+                extra_resistance_m2k_w,
+            } => {
+                let q1 = g0 * (air_c - self.temperature[0]);
+                if self.snow_cells == 0 {
+                    return (q1, -g0, 0.0, 0);
+                }
+                let q_cap = air_c / (1.0 / film_w_m2k + extra_resistance_m2k_w);
+                if q1 >= q_cap {
+                    return (q1, -g0, 0.0, 0);
+                }
+                let latent = self.cells[0].phase.latent_j_m3();
+                let h = self.enthalpy[0];
+                let ramp = SNOW_MELT_OUT_SHARE * latent;
+                if h <= latent - ramp {
+                    (q_cap, 0.0, 0.0, 1)
+                } else if h >= latent {
+                    (q1, -g0, 0.0, 0)
+                } else {
+                    let w = (latent - h) / ramp;
+                    (
+                        q1 + w * (q_cap - q1),
+                        -g0 * (1.0 - w),
+                        -(q_cap - q1) / ramp,
+                        2,
+                    )
+                }
+            }
+        }
     }
 
     /// Fluxes into the column through the top and bottom faces, W/m².
     fn fluxes(&self, top: &TopCondition, bottom: &BottomCondition) -> (f64, f64) {
         let n = self.cells.len();
-        let t_top = match *top {
-            TopCondition::Air { air_c, .. } => air_c,
-            TopCondition::Surface { surface_c } => surface_c,
-        };
-        let q_top = self.g[0] * (t_top - self.temperature[0]);
+        let q_top = self.top_flux(top).0;
         let q_bot = match *bottom {
             BottomCondition::Temperature { temperature_c } => {
                 self.g[n] * (temperature_c - self.temperature[n - 1])
@@ -429,6 +710,7 @@ impl Solver {
                     .phase
                     .dt_dh(self.enthalpy[i], self.temperature[i]);
             }
+            let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
             for i in 0..n {
                 let g_up = self.g[i];
                 let g_dn = if i < n - 1 || g_bottom_row {
@@ -448,6 +730,9 @@ impl Solver {
                     0.0
                 };
             }
+            // The top row: the top flux's own derivatives (they differ from the face
+            // conductance where the snow surface is held at 0 °C).
+            self.b[0] += (-dq_dt - self.g[0]) * self.slope[0] - dq_dh;
             self.lu
                 .solve(&self.a, &self.b, &self.c, &self.r, &mut self.dp);
             // Where T(H) has a kink (the edge of an unfrozen-water curve) a full Newton step
@@ -462,8 +747,9 @@ impl Solver {
                     .dt_dh(self.enthalpy[i], self.temperature[i])
                     == self.slope[i];
             }
-            // With conductances held and every cell's T(H) on the same linear piece, the
-            // Newton step solved the step's equations exactly (to round-off).
+            same_regime &= self.top_flux(top).3 == top_piece;
+            // With conductances held, every cell's T(H) and the top flux on the same linear
+            // piece, the Newton step solved the step's equations exactly (to round-off).
             if same_regime && self.linear_pieces && self.conductances_settled(top, bottom) {
                 let (q_top, q_bot) = self.fluxes(top, bottom);
                 self.book(q_top, q_bot, dt);
@@ -499,6 +785,7 @@ impl Solver {
             Ok(iters) => {
                 self.work.steps += 1;
                 self.work.iterations += iters as u64;
+                self.work.cell_updates += (iters * self.cells.len()) as u64;
                 self.time_s += dt;
                 Ok(())
             }

@@ -7,10 +7,54 @@
 //! - water freezing over a range (fine soils): H = C_f T + L θ(T) below 0 °C, where θ is the
 //!   liquid share of the pore water from an unfrozen-water curve, and L + C_u T above.
 //!
+//! - snow (a cell of the snow cover): H = ρ h, with h the specific enthalpy of ice,
+//!   h = ∫₀ᵀ c_ice dθ below 0 °C, h ∈ [0, L_f] at 0 °C while the ice melts, and
+//!   L_f + c_w T above (the cell's ice all melted, its water still in place); see
+//!   [`Phase::Snow`].
+//!
 //! Conductivity while partly frozen is the geometric mean k_f^(1−θ) k_u^θ weighted by the
 //! liquid share θ (the weighting of Johansen 1975's saturated conductivity; common practice).
 
+use crate::materials::ice;
 use crate::materials::{ConductivityLaw, Material};
+
+/// Width of the temperature bands over which a snow cell's heat capacity is held constant,
+/// K. See [`Phase::Snow`].
+pub const SNOW_CAPACITY_BAND_K: f64 = 2.0;
+
+/// Specific heat of ice at 0 °C and its slope, J/kg/K and J/kg/K² (the linear fit of
+/// [`ice::ice_specific_heat_j_per_kg_k`]: c = 152.5 + 7.122 T_K).
+const C_ICE_0C: f64 = 152.5 + 7.122 * ice::KELVIN_OFFSET;
+const C_ICE_SLOPE: f64 = 7.122;
+
+/// Specific enthalpy of ice at the band edge T_k = −k B, J/kg: the exact integral
+/// ∫₀^{T_k} c_ice dθ = c₀ T_k + c₁ T_k²/2.
+fn snow_edge_enthalpy(k: f64) -> f64 {
+    let t = -k * SNOW_CAPACITY_BAND_K;
+    C_ICE_0C * t + 0.5 * C_ICE_SLOPE * t * t
+}
+
+/// Specific heat of ice over band k (between −(k+1) B and −k B), J/kg/K: c_ice at the band's
+/// middle, which is the band's exact mean.
+fn snow_band_capacity(k: f64) -> f64 {
+    C_ICE_0C - C_ICE_SLOPE * (k + 0.5) * SNOW_CAPACITY_BAND_K
+}
+
+/// The band k ≥ 0 holding a specific enthalpy h < 0 (J/kg): h_{k+1} ≤ h < h_k.
+fn snow_band(h: f64) -> f64 {
+    let mut k = (-h / (C_ICE_0C * SNOW_CAPACITY_BAND_K)).floor().max(0.0);
+    // The guess uses c at 0 °C; c falls with temperature, so adjust (once or twice at most).
+    for _ in 0..64 {
+        if h < snow_edge_enthalpy(k + 1.0) {
+            k += 1.0;
+        } else if k > 0.0 && h >= snow_edge_enthalpy(k) {
+            k -= 1.0;
+        } else {
+            break;
+        }
+    }
+    k
+}
 
 /// Unfrozen water content w_u = α θ^β (gravimetric, as a fraction of dry mass) at θ degrees
 /// below 0 °C, β < 0 (Anderson & Tice 1972, Highway Research Record 393; from memory).
@@ -69,6 +113,31 @@ pub enum Phase {
         latent: f64,
         law: ConductivityLaw,
         curve: UnfrozenWater,
+    },
+    /// A cell of the snow cover: ice (with air, which stores a negligible share of the heat)
+    /// of bulk density ρ, conductivity `conductivity` from the run's snow regression.
+    ///
+    /// - Below 0 °C the volumetric heat capacity is ρ c_ice(T), c_ice the fit of
+    ///   [`ice::ice_specific_heat_j_per_kg_k`] (Dorsey 1940 via Yen 1981; dry snow stores heat
+    ///   as its ice, model reference §1). It is taken constant over bands of
+    ///   [`SNOW_CAPACITY_BAND_K`] (c_ice at the band's middle), so that H(T) is exact at every
+    ///   band edge, piecewise linear between, and off by at most ρ c₁ B²/8 (3.6 J/kg, 0.002 K)
+    ///   inside a band; c_ice itself changes by 0.7 % across a band. Piecewise-linear T(H) lets
+    ///   a Newton pass that stays within a band be exact, as for the other phases.
+    /// - At 0 °C the ice melts: H from 0 to ρ L_f, L_f = 333.4 kJ/kg
+    ///   ([`ice::LATENT_HEAT_FUSION_J_PER_KG`], IAPWS), with the meltwater held in the cell
+    ///   (no percolation).
+    /// - Above, H = ρ L_f + ρ c_w T: the ice of the cell has all melted. Real meltwater drains
+    ///   and the snow is gone; here the depth is prescribed by the climate, so this state
+    ///   only arises where the climate keeps snow the energy has melted. Conductivity stays
+    ///   the snow's.
+    ///
+    /// At exactly 0 °C [`Phase::enthalpy`] gives frozen snow (H = 0). Valid for dry seasonal
+    /// snow about −60 °C to 0 °C; no vapour transport, no compaction heat, no radiation
+    /// absorbed inside the pack.
+    Snow {
+        density_kg_m3: f64,
+        conductivity: f64,
     },
 }
 
@@ -148,6 +217,16 @@ impl Phase {
                     latent + c_unfrozen * t
                 }
             }
+            Phase::Snow { density_kg_m3, .. } => density_kg_m3 * snow_specific_enthalpy(t),
+        }
+    }
+
+    /// Latent heat per volume, J/m³ (0 for inert cells).
+    pub fn latent_j_m3(&self) -> f64 {
+        match *self {
+            Phase::Inert { .. } => 0.0,
+            Phase::Isothermal { latent, .. } | Phase::Range { latent, .. } => latent,
+            Phase::Snow { density_kg_m3, .. } => density_kg_m3 * ice::LATENT_HEAT_FUSION_J_PER_KG,
         }
     }
 
@@ -219,6 +298,7 @@ impl Phase {
                 }
                 t
             }
+            Phase::Snow { density_kg_m3, .. } => snow_temperature(h / density_kg_m3),
         }
     }
 
@@ -263,6 +343,16 @@ impl Phase {
                     1.0 / (c_frozen + latent * curve.liquid_share_slope(t))
                 }
             }
+            Phase::Snow { density_kg_m3, .. } => {
+                let hs = h / density_kg_m3;
+                if hs < 0.0 {
+                    1.0 / (density_kg_m3 * snow_band_capacity(snow_band(hs)))
+                } else if hs > ice::LATENT_HEAT_FUSION_J_PER_KG {
+                    1.0 / (density_kg_m3 * ice::WATER_SPECIFIC_HEAT_J_PER_KG_K)
+                } else {
+                    0.0
+                }
+            }
         }
     }
 
@@ -271,6 +361,7 @@ impl Phase {
         match *self {
             Phase::Inert { .. } => 1.0,
             Phase::Isothermal { latent, .. } => (h / latent).clamp(0.0, 1.0),
+            Phase::Snow { .. } => (h / self.latent_j_m3()).clamp(0.0, 1.0),
             Phase::Range { curve, latent, .. } => {
                 if h >= latent {
                     1.0
@@ -294,6 +385,7 @@ impl Phase {
     pub fn conductivity(&self, h: f64, t: f64) -> f64 {
         match *self {
             Phase::Inert { law, .. } => law.k(t),
+            Phase::Snow { conductivity, .. } => conductivity,
             Phase::Isothermal { law, .. } | Phase::Range { law, .. } => {
                 let theta = self.liquid_share(h, t);
                 if theta >= 1.0 {
@@ -307,5 +399,29 @@ impl Phase {
                 }
             }
         }
+    }
+}
+
+/// Specific enthalpy of snow (its ice) at `t_c`, J/kg, referred to ice at 0 °C: banded
+/// ∫₀ᵀ c_ice dθ below 0 °C (see [`Phase::Snow`]), 0 at 0 °C (frozen), L_f + c_w T above.
+pub fn snow_specific_enthalpy(t_c: f64) -> f64 {
+    if t_c <= 0.0 {
+        let k = (-t_c / SNOW_CAPACITY_BAND_K).floor();
+        let edge = -k * SNOW_CAPACITY_BAND_K;
+        snow_edge_enthalpy(k) + snow_band_capacity(k) * (t_c - edge)
+    } else {
+        ice::LATENT_HEAT_FUSION_J_PER_KG + ice::WATER_SPECIFIC_HEAT_J_PER_KG_K * t_c
+    }
+}
+
+/// Inverse of [`snow_specific_enthalpy`] (0 °C across the melting interval).
+fn snow_temperature(h: f64) -> f64 {
+    if h < 0.0 {
+        let k = snow_band(h);
+        -k * SNOW_CAPACITY_BAND_K + (h - snow_edge_enthalpy(k)) / snow_band_capacity(k)
+    } else if h > ice::LATENT_HEAT_FUSION_J_PER_KG {
+        (h - ice::LATENT_HEAT_FUSION_J_PER_KG) / ice::WATER_SPECIFIC_HEAT_J_PER_KG_K
+    } else {
+        0.0
     }
 }

@@ -1,6 +1,7 @@
-//! The reference year used by the benchmarks (native and wasm): about 200 cells, hourly
-//! steps for 365 days, with snow cover. An invented case: silt over sand, a sinusoidal year
-//! (mean +2 °C, amplitude 16 K, coldest on day 30), snow building to 30 cm in midwinter.
+//! The reference year used by the benchmarks (native and wasm): about 200 ground cells,
+//! hourly steps for 365 days, with snow cover (up to 8 snow cells of its own above the
+//! ground while it lies). An invented case: silt over sand, a sinusoidal year (mean +2 °C,
+//! amplitude 16 K, coldest on day 30), snow building to 30 cm in midwinter.
 
 use super::grid::GridSpec;
 use super::run::{Forcing, Initial, RunSpec, SinusoidalYear, TopModel};

@@ -4,9 +4,10 @@
 //! the freezing indices.
 
 use super::{
-    cells_for, grid::GridSpec, phase::UnfrozenWater, BottomCondition, Solver, TopCondition,
-    TransientError,
+    cells_for, grid::GridSpec, periodic::PeriodicProfile, phase::UnfrozenWater, BottomCondition,
+    SnowLayer, Solver, TopCondition, TransientError,
 };
+use crate::climate::AnnualWave;
 use crate::materials::{Material, SnowCorrelation};
 
 /// What drives the top of the column over time (t in seconds from the start).
@@ -40,14 +41,17 @@ impl Forcing for SinusoidalYear {
 /// How the top face meets the weather.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum TopModel {
-    /// Air through a film; snow on the ground adds its resistance (depth / k(density)), taken
-    /// as quasi-steady (no heat stored in the snow), with its surface no warmer than 0 °C.
+    /// Air through a film. Snow on the ground (from the forcing) becomes snow cells above
+    /// the ground cells (see [`Solver::set_snow`]), with the film on top of the snow; their
+    /// conductivity comes from `snow_correlation` at the snow's density, they store sensible
+    /// and latent heat, and their surface stays at or below 0 °C while they hold ice.
     AirFilm {
         film_w_m2k: f64,
         snow_correlation: SnowCorrelation,
     },
     /// Surface temperature = n × air temperature, with a freezing n-factor below 0 °C and a
-    /// thawing n-factor above (US Army TM 5-852-6 / UFC 3-130-04 n-factor method).
+    /// thawing n-factor above (US Army TM 5-852-6 / UFC 3-130-04 n-factor method). The
+    /// n-factor stands for the surface cover, snow included: the forcing's snow is not used.
     NFactor { freezing: f64, thawing: f64 },
 }
 
@@ -57,8 +61,16 @@ pub enum Initial {
     /// Every cell at one temperature, °C.
     Uniform(f64),
     /// Repeat the first year until the state at its start repeats (periodic steady state),
-    /// starting from the given uniform temperature; at most `max_years` repeats.
-    SpinUp { start_c: f64, max_years: u32 },
+    /// at most `max_years` repeats, starting from the uniform temperature `start_c`, or,
+    /// given a wave, from the periodic profile under it (`start_c` is then not used).
+    SpinUp {
+        start_c: f64,
+        max_years: u32,
+        from_periodic: Option<AnnualWave>,
+    },
+    /// The periodic profile of conduction without freezing under the climate's annual wave
+    /// ([`PeriodicProfile`]).
+    Periodic(AnnualWave),
 }
 
 /// Everything a run needs besides the forcing.
@@ -96,11 +108,14 @@ pub struct Sample {
 #[derive(Debug, Clone)]
 pub struct RunResult {
     pub samples: Vec<Sample>,
-    /// Cell centres, m.
+    /// Centres of the ground cells, m below the ground surface.
     pub depths_m: Vec<f64>,
-    /// (time s, temperature of each cell °C).
+    /// (time s, temperature of each ground cell °C).
     pub profiles: Vec<(f64, Vec<f64>)>,
-    /// Lowest and highest temperature each cell reached.
+    /// The snow cells at the time of each profile: (height of the cell centre above the
+    /// ground surface m, temperature °C), from the ground up; empty without snow.
+    pub snow_profiles: Vec<Vec<[f64; 2]>>,
+    /// Lowest and highest temperature each ground cell reached.
     pub min_c: Vec<f64>,
     pub max_c: Vec<f64>,
     pub max_frost_depth_m: f64,
@@ -109,11 +124,19 @@ pub struct RunResult {
     pub air_freezing_index_c_days: f64,
     pub surface_freezing_index_c_days: f64,
     pub energy_imbalance_j_m2: f64,
+    /// Σ |face fluxes| Δt + Σ |snow-mass exchange|, J/m².
     pub energy_throughput_j_m2: f64,
+    /// Net energy brought in with snow mass over the run, J/m².
+    pub snow_exchange_j_m2: f64,
     pub steps: u64,
     pub iterations: u64,
     pub splits: u64,
+    /// Cells × linear solves, snow cells included.
+    pub cell_updates: u64,
+    /// Ground cells.
     pub cells: usize,
+    /// Most snow cells at any time.
+    pub max_snow_cells: usize,
     pub spin_up_years: u32,
 }
 
@@ -134,34 +157,49 @@ impl DegreeDays {
     }
 }
 
-fn top_condition(spec: &RunSpec, forcing: &dyn Forcing, t: f64) -> (TopCondition, f64, f64) {
+/// The conditions at time `t`: the top condition, the air temperature, the snow depth
+/// recorded, and the snow the column is to carry.
+fn top_condition(
+    spec: &RunSpec,
+    forcing: &dyn Forcing,
+    t: f64,
+) -> (TopCondition, f64, f64, Option<SnowLayer>) {
     let air = forcing.air_c(t);
     match spec.top {
         TopModel::AirFilm {
             film_w_m2k,
             snow_correlation,
         } => {
-            let (depth, r_snow) = match forcing.snow(t) {
-                Some((d, rho)) if d > 0.0 => (d, d / snow_correlation.conductivity_w_per_m_k(rho)),
-                _ => (0.0, 0.0),
-            };
-            // A snow surface cannot be warmer than 0 °C: warm air over snow drives at most 0 °C.
-            let drive = if depth > 0.0 { air.min(0.0) } else { air };
+            let snow = forcing
+                .snow(t)
+                .filter(|&(d, rho)| d > 0.0 && rho > 0.0)
+                .map(|(d, rho)| SnowLayer {
+                    depth_m: d,
+                    density_kg_m3: rho,
+                    conductivity_w_m_k: snow_correlation.conductivity_w_per_m_k(rho),
+                });
             (
                 TopCondition::Air {
-                    air_c: drive,
+                    air_c: air,
                     film_w_m2k,
-                    extra_resistance_m2k_w: r_snow,
+                    extra_resistance_m2k_w: 0.0,
                 },
                 air,
-                depth,
+                snow.map_or(0.0, |s| s.depth_m),
+                snow,
             )
         }
         TopModel::NFactor { freezing, thawing } => {
             let n = if air < 0.0 { freezing } else { thawing };
-            (TopCondition::Surface { surface_c: n * air }, air, 0.0)
+            (TopCondition::Surface { surface_c: n * air }, air, 0.0, None)
         }
     }
+}
+
+/// Temperature of snow falling at time `t`: the air's, capped at 0 °C (snow in equilibrium
+/// with the air it falls through; common practice, no source).
+fn fresh_snow_c(air_c: f64) -> f64 {
+    air_c.min(0.0)
 }
 
 /// A run in progress, advanced a slice at a time so that a caller (the page) can show
@@ -187,11 +225,15 @@ pub struct Run {
     max_c: Vec<f64>,
     samples: Vec<Sample>,
     profiles: Vec<(f64, Vec<f64>)>,
+    snow_profiles: Vec<Vec<[f64; 2]>>,
+    max_snow_cells: usize,
     next_profile: f64,
     air_dd: DegreeDays,
     surf_dd: DegreeDays,
     throughput: f64,
     max_frost: (f64, f64),
+    /// Whether the snow at t = 0 is on the column.
+    snow_placed: bool,
     started: bool,
 }
 
@@ -229,14 +271,36 @@ impl Run {
             &spec.grid,
             &spec.curves,
         );
-        let start = match spec.initial {
-            Initial::Uniform(t) | Initial::SpinUp { start_c: t, .. } => t,
+        let (start, wave) = match spec.initial {
+            Initial::Uniform(t) => (t, None),
+            Initial::SpinUp {
+                start_c,
+                from_periodic,
+                ..
+            } => (start_c, from_periodic),
+            Initial::Periodic(w) => (0.0, Some(w)),
         };
-        let solver = Solver::new(cells, start);
+        let mut solver = Solver::new(cells, start);
+        if let Some(w) = wave {
+            if !(w.mean_c.is_finite()
+                && w.amplitude_k.is_finite()
+                && w.amplitude_k >= 0.0
+                && w.coldest_s.is_finite())
+            {
+                return Err(TransientError::Input {
+                    field: "winter.initial".into(),
+                    message: "the annual wave of the periodic start must be finite".into(),
+                });
+            }
+            let p = PeriodicProfile::new(spec, &w);
+            solver.set_temperatures(|z| p.temperature_c(z, 0.0));
+        }
         let (n_steps, dt) = steps_for(spec.duration_s, spec.step_s);
         let (year_steps, year_dt) = steps_for(365.0 * 86_400.0, spec.step_s);
         let spinning = match spec.initial {
-            Initial::SpinUp { max_years, .. } if max_years > 0 => Some(solver.temperature.clone()),
+            Initial::SpinUp { max_years, .. } if max_years > 0 => {
+                Some(solver.ground_temperatures().to_vec())
+            }
             _ => None,
         };
         Ok(Run {
@@ -245,6 +309,9 @@ impl Run {
             max_c: solver.temperature.clone(),
             samples: Vec::with_capacity(n_steps + 1),
             profiles: Vec::new(),
+            snow_profiles: Vec::new(),
+            max_snow_cells: 0,
+            snow_placed: false,
             next_profile: spec.profile_every_s,
             air_dd: DegreeDays::default(),
             surf_dd: DegreeDays::default(),
@@ -263,15 +330,23 @@ impl Run {
         })
     }
 
-    /// Cell centres, m.
+    /// Centres of the ground cells, m.
     pub fn depths_m(&self) -> Vec<f64> {
-        self.solver.cells.iter().map(|c| c.center_m()).collect()
+        self.solver.cells[self.solver.ground()]
+            .iter()
+            .map(|c| c.center_m())
+            .collect()
+    }
+
+    /// The column (for inspection).
+    pub fn solver(&self) -> &Solver {
+        &self.solver
     }
 
     pub fn progress(&self) -> Progress {
         let spin_budget = match self.spec.initial {
             Initial::SpinUp { max_years, .. } => max_years as f64 * self.year_steps as f64,
-            Initial::Uniform(_) => 0.0,
+            Initial::Uniform(_) | Initial::Periodic(_) => 0.0,
         };
         let spin_done = if self.spinning.is_some() {
             self.spin_up_years as f64 * self.year_steps as f64 + self.spin_step as f64
@@ -292,11 +367,19 @@ impl Run {
         max_steps: usize,
     ) -> Result<Progress, TransientError> {
         let mut budget = max_steps.max(1);
+        if !self.snow_placed {
+            // The snow on the ground at the start is part of the initial state.
+            self.snow_placed = true;
+            let (_, air, _, snow) = top_condition(&self.spec, forcing, 0.0);
+            self.solver.set_snow(snow, fresh_snow_c(air));
+            self.solver.restart_ledger();
+        }
         while budget > 0 && self.spinning.is_some() {
             self.spin_step += 1;
             budget -= 1;
             let t = self.year_dt * self.spin_step as f64;
-            let (top, _, _) = top_condition(&self.spec, forcing, t);
+            let (top, air, _, snow) = top_condition(&self.spec, forcing, t);
+            self.solver.set_snow(snow, fresh_snow_c(air));
             self.solver.step(self.year_dt, &top, &self.spec.bottom)?;
             if self.spin_step >= self.year_steps {
                 self.end_spin_up_year();
@@ -312,9 +395,10 @@ impl Run {
             budget -= 1;
             self.done += 1;
             let t = self.dt * self.done as f64;
-            let (top, air, snow) = top_condition(&self.spec, forcing, t);
+            let (top, air, depth, snow) = top_condition(&self.spec, forcing, t);
+            let exchange = self.solver.set_snow(snow, fresh_snow_c(air));
             self.solver.step(self.dt, &top, &self.spec.bottom)?;
-            self.record(air, snow);
+            self.record(air, depth, exchange);
         }
         Ok(self.progress())
     }
@@ -329,15 +413,14 @@ impl Run {
         let before = self.spinning.take().unwrap_or_default();
         let change = before
             .iter()
-            .zip(&self.solver.temperature)
+            .zip(self.solver.ground_temperatures())
             .map(|(a, b)| (a - b).abs())
             .fold(0.0, f64::max);
         if change >= 0.01 && self.spin_up_years < max_years {
-            self.spinning = Some(self.solver.temperature.clone());
+            self.spinning = Some(self.solver.ground_temperatures().to_vec());
         } else {
             let s = &mut self.solver;
-            s.energy_start_j_m2 = s.stored_energy_j_m2();
-            s.energy_in_j_m2 = 0.0;
+            s.restart_ledger();
             s.work = Default::default();
         }
     }
@@ -345,14 +428,17 @@ impl Run {
     fn begin_main(&mut self, forcing: &dyn Forcing) {
         self.started = true;
         let s = &self.solver;
-        self.min_c = s.temperature.clone();
-        self.max_c = s.temperature.clone();
-        self.profiles = vec![(0.0, s.temperature.clone())];
+        let ground = s.ground_temperatures();
+        self.min_c = ground.to_vec();
+        self.max_c = ground.to_vec();
+        self.profiles = vec![(0.0, ground.to_vec())];
+        self.snow_profiles = vec![s.snow_profile()];
+        self.max_snow_cells = s.snow_cells;
         let f0 = s.fronts();
         self.samples.push(Sample {
             time_s: 0.0,
             air_c: forcing.air_c(0.0),
-            surface_c: s.temperature[0],
+            surface_c: ground[0],
             frost_depth_m: f0.frost_depth_m,
             thaw_depth_m: f0.thaw_depth_m,
             ground_flux_w_m2: 0.0,
@@ -360,37 +446,38 @@ impl Run {
         });
     }
 
-    fn record(&mut self, air: f64, snow: f64) {
+    fn record(&mut self, air: f64, snow: f64, exchange: f64) {
         let s = &self.solver;
         let dt = self.dt;
-        for i in 0..s.cells.len() {
-            self.min_c[i] = self.min_c[i].min(s.temperature[i]);
-            self.max_c[i] = self.max_c[i].max(s.temperature[i]);
+        for (i, &t) in s.ground_temperatures().iter().enumerate() {
+            self.min_c[i] = self.min_c[i].min(t);
+            self.max_c[i] = self.max_c[i].max(t);
         }
+        self.max_snow_cells = self.max_snow_cells.max(s.snow_cells);
         let fr = s.fronts();
         if fr.frost_depth_m > self.max_frost.0 {
             self.max_frost = (fr.frost_depth_m, s.time_s);
         }
-        // Surface temperature: extrapolate the top cell through its half-cell.
-        let surface = s.temperature[0]
-            + s.last_top_flux_w_m2 * 0.5 * s.cells[0].dz_m
-                / s.cells[0]
-                    .phase
-                    .conductivity(s.enthalpy[0], s.temperature[0]);
+        // The ground surface (the snow/ground interface under snow), extrapolated from the
+        // top ground cell through its half-cell.
+        let surface = s.last_ground_surface_c;
         self.air_dd.add(air, dt);
         self.surf_dd.add(surface, dt);
-        self.throughput += (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt;
+        self.throughput +=
+            (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt + exchange.abs();
         self.samples.push(Sample {
             time_s: s.time_s,
             air_c: air,
             surface_c: surface,
             frost_depth_m: fr.frost_depth_m,
             thaw_depth_m: fr.thaw_depth_m,
-            ground_flux_w_m2: s.last_top_flux_w_m2,
+            ground_flux_w_m2: s.last_ground_flux_w_m2,
             snow_depth_m: snow,
         });
         if s.time_s >= self.next_profile - 1e-6 {
-            self.profiles.push((s.time_s, s.temperature.clone()));
+            self.profiles
+                .push((s.time_s, s.ground_temperatures().to_vec()));
+            self.snow_profiles.push(s.snow_profile());
             self.next_profile += self.spec.profile_every_s;
         }
     }
@@ -402,12 +489,16 @@ impl Run {
             depths_m: self.depths_m(),
             energy_imbalance_j_m2: s.energy_imbalance_j_m2(),
             energy_throughput_j_m2: self.throughput,
+            snow_exchange_j_m2: s.snow_exchange_j_m2,
             steps: s.work.steps,
             iterations: s.work.iterations,
             splits: s.work.splits,
-            cells: s.cells.len(),
+            cell_updates: s.work.cell_updates,
+            cells: s.cells.len() - s.snow_cells,
+            max_snow_cells: self.max_snow_cells,
             samples: self.samples,
             profiles: self.profiles,
+            snow_profiles: self.snow_profiles,
             min_c: self.min_c,
             max_c: self.max_c,
             max_frost_depth_m: self.max_frost.0,
