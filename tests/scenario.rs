@@ -506,7 +506,9 @@ fn older_files_and_every_example_still_parse_and_write_no_new_keys() {
         let s = scenario::parse(e.json).unwrap_or_else(|err| panic!("{}: {err}", e.id));
         if e.id == "cabin-porch-slab-snowy-winter" {
             // Written with a snow season: it must keep it.
-            assert!(serde_json::to_string(&s.winter).unwrap().contains("\"snow\""));
+            assert!(serde_json::to_string(&s.winter)
+                .unwrap()
+                .contains("\"snow\""));
             continue;
         }
         let text = serde_json::to_string(&s.winter).unwrap();
