@@ -19,6 +19,16 @@ fn err<E: std::fmt::Debug>(e: E) -> ChartError {
     ChartError(format!("{e:?}"))
 }
 
+/// The font and line scale a chart uses: the caller's (device pixel ratio), kept within
+/// 0.5–4, or 1 if it is not a number.
+fn chart_scale(scale: f64) -> f64 {
+    if scale.is_finite() {
+        scale.clamp(0.5, 4.0)
+    } else {
+        1.0
+    }
+}
+
 /// Fill colour of a layer band, by material family.
 fn layer_fill(f: Family) -> RGBColor {
     match f {
@@ -47,11 +57,7 @@ pub fn draw_profile<DB: DrawingBackend>(
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
-    let scale = if scale.is_finite() {
-        scale.clamp(0.5, 4.0)
-    } else {
-        1.0
-    };
+    let scale = chart_scale(scale);
     let px = |v: f64| (v * scale).round() as u32;
     let tq = quantity("temperature").ok_or_else(|| ChartError("no temperature unit".into()))?;
     let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
@@ -319,11 +325,7 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
-    let scale = if scale.is_finite() {
-        scale.clamp(0.5, 4.0)
-    } else {
-        1.0
-    };
+    let scale = chart_scale(scale);
     let px = |v: f64| (v * scale).round() as u32;
     let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
     let z = |si: f64| zq.show(sys, si);
@@ -469,15 +471,6 @@ const AIR_LINE: RGBColor = RGBColor(120, 128, 140);
 const FLUX_LINE: RGBColor = RGBColor(196, 112, 16);
 const ENVELOPE: RGBColor = RGBColor(150, 170, 205);
 
-/// A usable drawing scale: finite, within 0.5–4.
-fn sane_scale(scale: f64) -> f64 {
-    if scale.is_finite() {
-        scale.clamp(0.5, 4.0)
-    } else {
-        1.0
-    }
-}
-
 /// The daily record nearest to `day` (NaN days never win).
 fn day_near(w: &WinterReport, day: f64) -> Option<&WinterDay> {
     w.daily.iter().filter(|d| d.day.is_finite()).min_by(|a, b| {
@@ -585,7 +578,7 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
-    let scale = sane_scale(scale);
+    let scale = chart_scale(scale);
     let px = |v: f64| (v * scale).round() as u32;
     let tq = quantity("temperature").ok_or_else(|| ChartError("no temperature unit".into()))?;
     let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
@@ -877,7 +870,7 @@ pub fn draw_ground_series<DB: DrawingBackend>(
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
-    let scale = sane_scale(scale);
+    let scale = chart_scale(scale);
     let px = |v: f64| (v * scale).round() as u32;
     let tq = quantity("temperature").ok_or_else(|| ChartError("no temperature unit".into()))?;
     let fq = quantity("heat_flux").ok_or_else(|| ChartError("no heat flux unit".into()))?;

@@ -10,6 +10,11 @@ use crate::scenario::{self, ErrorDoc};
 use crate::stack::SURFACE_PRESETS;
 use crate::units::{UnitSystem, QUANTITIES};
 
+/// The unit system a page string names (SI for anything else).
+fn units(id: &str) -> UnitSystem {
+    UnitSystem::from_id(id).unwrap_or(UnitSystem::Si)
+}
+
 fn to_js<T: Serialize>(v: &T) -> JsValue {
     let ser = serde_wasm_bindgen::Serializer::json_compatible();
     v.serialize(&ser).unwrap_or(JsValue::NULL)
@@ -320,7 +325,7 @@ pub fn draw_profile(
             message: Some(m),
         })
     };
-    let sys = UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si);
+    let sys = units(unit_system);
     let (_, c) = match computed(scenario_value) {
         Ok(v) => v,
         Err(e) => {
@@ -544,7 +549,7 @@ impl WinterRun {
     /// The daily series as CSV text in the chosen units (units in the header); empty before
     /// the end.
     pub fn csv(&self, unit_system: &str) -> String {
-        let sys = UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si);
+        let sys = units(unit_system);
         self.report.as_ref().map_or_else(String::new, |r| {
             crate::scenario_winter::daily_csv_in(r, sys)
         })
@@ -558,12 +563,7 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_frost_depth(
-                root,
-                w,
-                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
-                pixel_ratio,
-            )
+            crate::chart::draw_frost_depth(root, w, units(unit_system), pixel_ratio)
         })
     }
 
@@ -577,13 +577,7 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_winter_profile(
-                root,
-                w,
-                day,
-                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
-                pixel_ratio,
-            )
+            crate::chart::draw_winter_profile(root, w, day, units(unit_system), pixel_ratio)
         })
     }
 
@@ -595,12 +589,7 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_ground_series(
-                root,
-                w,
-                UnitSystem::from_id(unit_system).unwrap_or(UnitSystem::Si),
-                pixel_ratio,
-            )
+            crate::chart::draw_ground_series(root, w, units(unit_system), pixel_ratio)
         })
     }
 }
