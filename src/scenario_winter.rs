@@ -6,11 +6,11 @@ use serde::{Deserialize, Serialize};
 
 use crate::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
 use crate::error::{check, InputError, InputErrorKind, InputErrors};
-use crate::scenario::{LayerDoc, MaterialDoc, SnowCorrelationDoc};
+use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc, SnowCorrelationDoc};
 use crate::stack::ResolvedStack;
 use crate::transient::grid::GridSpec;
 use crate::transient::phase::UnfrozenWater;
-use crate::transient::run::{self, Initial, RunResult, RunSpec, TopModel};
+use crate::transient::run::{self, Forcing, Initial, RunResult, RunSpec, TopModel};
 use crate::transient::BottomCondition;
 
 /// Most cells a winter run may use.
@@ -428,7 +428,10 @@ impl WinterDoc {
     }
 }
 
-/// One day of the winter report (values at the end of the day).
+/// One day of the winter report: values at the end of the day, except the ground heat flux,
+/// which is its mean over the day that ends then (the flux swings within a day when the air
+/// steps from one daily value to the next; the mean is the heat the day moved). Day 0's
+/// flux is the flux at the start (see [`crate::transient::run::Sample`]).
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct WinterDay {
     pub day: f64,
@@ -459,6 +462,9 @@ pub struct WinterReport {
     /// Depths of the layer faces from the top face down, m (first 0, last the bottom).
     pub layer_faces_m: Vec<f64>,
     pub layer_names: Vec<String>,
+    /// Notes on the run: a model that does not cover part of the input, a start that did
+    /// not settle.
+    pub warnings: Vec<ErrorDoc>,
     /// The temperature of each cell (centres in `envelope`) at the end of each day; left out
     /// of the JSON report (the CLI writes it as CSV on request).
     #[serde(skip)]
@@ -521,6 +527,8 @@ pub struct WinterJob {
     climate: Climate,
     faces_m: Vec<f64>,
     layer_names: Vec<String>,
+    warnings: Vec<ErrorDoc>,
+    max_years: u32,
 }
 
 fn run_error(e: crate::transient::TransientError) -> InputErrors {
@@ -539,6 +547,27 @@ impl WinterJob {
     ) -> Result<WinterJob, InputErrors> {
         let (spec, climate) = w.run_spec(stack, layers)?;
         let run = run::Run::new(&spec).map_err(run_error)?;
+        let mut warnings = Vec::new();
+        if matches!(spec.top, TopModel::NFactor { .. }) {
+            let days = (spec.duration_s / 86_400.0).ceil() as usize;
+            let snowy = (0..=days).any(|d| {
+                climate
+                    .snow(d as f64 * 86_400.0)
+                    .is_some_and(|(depth, _)| depth > 0.0)
+            });
+            if snowy {
+                warnings.push(ErrorDoc::plain(
+                    "winter.surface",
+                    "The climate has snow on the ground, but a surface set by n-factors does not \
+                     model it: the n-factor already stands for the surface and its cover. Choose \
+                     a surface film to model the snow as layers of its own.",
+                ));
+            }
+        }
+        let max_years = match spec.initial {
+            Initial::SpinUp { max_years, .. } => max_years,
+            _ => 0,
+        };
         let mut faces_m = vec![0.0];
         for l in &stack.layers {
             faces_m.push(faces_m.last().copied().unwrap_or(0.0) + l.thickness_m);
@@ -548,6 +577,8 @@ impl WinterJob {
             climate,
             faces_m,
             layer_names: stack.layers.iter().map(|l| l.name.clone()).collect(),
+            warnings,
+            max_years,
         })
     }
 
@@ -565,7 +596,26 @@ impl WinterJob {
 
     /// The report (of the part run, if called before the end).
     pub fn finish(self) -> WinterReport {
-        report_of(self.run.finish(), self.faces_m, self.layer_names)
+        let r = self.run.finish();
+        let mut warnings = self.warnings;
+        if let Some(change) = r.spin_up_change_k {
+            if change >= run::SPIN_UP_TOLERANCE_K {
+                warnings.push(ErrorDoc::plain(
+                    "winter.initial.max_years",
+                    format!(
+                        "The start did not settle within {} years: the ground still changed by \
+                         {change:.2} K over the last year repeated (it stops below {} K). Deep \
+                         temperatures and the first weeks still carry the start state; allow more \
+                         years or start nearer the ground's mean temperature.",
+                        self.max_years,
+                        run::SPIN_UP_TOLERANCE_K
+                    ),
+                ));
+            }
+        }
+        let mut report = report_of(r, self.faces_m, self.layer_names);
+        report.warnings = warnings;
+        report
     }
 }
 
@@ -583,15 +633,26 @@ pub fn run_winter(
 fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> WinterReport {
     let mut daily = Vec::new();
     let mut next = 0.0;
-    for s in &r.samples {
+    let (mut flux_sum, mut flux_n) = (0.0, 0usize);
+    for (k, s) in r.samples.iter().enumerate() {
+        if k > 0 {
+            flux_sum += s.ground_flux_w_m2;
+            flux_n += 1;
+        }
         if s.time_s >= next - 1e-6 {
+            let ground_flux_w_m2 = if flux_n > 0 {
+                flux_sum / flux_n as f64
+            } else {
+                s.ground_flux_w_m2
+            };
+            (flux_sum, flux_n) = (0.0, 0);
             daily.push(WinterDay {
                 day: s.time_s / 86_400.0,
                 air_c: s.air_c,
                 surface_c: s.surface_c,
                 frost_depth_m: s.frost_depth_m,
                 thaw_depth_m: s.thaw_depth_m,
-                ground_flux_w_m2: s.ground_flux_w_m2,
+                ground_flux_w_m2,
                 snow_depth_m: s.snow_depth_m,
             });
             next += 86_400.0;
@@ -618,6 +679,7 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
             .collect(),
         layer_faces_m: faces_m,
         layer_names,
+        warnings: Vec::new(),
         profiles: r
             .profiles
             .into_iter()

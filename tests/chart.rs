@@ -85,6 +85,7 @@ fn hand_report(
         envelope,
         layer_faces_m: vec![0.0, 0.5, 2.0],
         layer_names: vec!["Top & gravel <fill>".into(), String::new()],
+        warnings: Vec::new(),
         profiles,
     }
 }

@@ -625,3 +625,77 @@ fn bad_snow_seasons_are_refused_naming_the_field() {
         assert!(text.contains(key), "schema mentions {key}");
     }
 }
+
+fn cabin() -> serde_json::Value {
+    serde_json::from_str(
+        scenario::example("cabin-porch-slab-snowy-winter")
+            .unwrap()
+            .json,
+    )
+    .unwrap()
+}
+
+#[test]
+fn spin_ups_from_different_starts_reach_the_same_year() {
+    // The periodic steady state of a column under a repeating year is unique (heat
+    // conduction with a monotone enthalpy is a contraction; standard), so a spin-up from
+    // the periodic start (which ignores latent heat and snow, and starts this column far
+    // too cold at depth) and one from a uniform 4 °C must settle on the same year. The
+    // spin-up must judge "settled" on enthalpy: judged on temperature alone, a frozen lens
+    // held at 0 °C while it slowly thaws looks settled, and the run then reported it as
+    // frost 2.25 m deep on day 0. Tolerance: both stop when no cell changes by more than
+    // 0.01 K-equivalent in a year, and the deepest frost is read to well under a cell
+    // (1–2 cm at that depth); allow 1 cm.
+    let mut v = cabin();
+    v["layers"][1]["thickness_m"] = serde_json::json!(0.10);
+    v["winter"]["climate"]["snow"]["peak_depth_m"] = serde_json::json!(0.20);
+    v["winter"]["initial"]["max_years"] = serde_json::json!(30);
+    let uniform = winter_of(v.clone()).unwrap();
+    v["winter"]["initial"]["from_periodic"] = serde_json::json!(true);
+    let periodic = winter_of(v.clone()).unwrap();
+    for r in [&uniform, &periodic] {
+        assert!(r.warnings.is_empty(), "settled: {:?}", r.warnings);
+        assert_eq!(r.daily[0].frost_depth_m, 0.0, "no frozen lens at the start");
+    }
+    assert_abs(
+        periodic.max_frost_depth_m,
+        uniform.max_frost_depth_m,
+        0.01,
+        "same deepest frost",
+    );
+    // Capped before it settles, the run says so and names the field.
+    v["winter"]["initial"]["max_years"] = serde_json::json!(3);
+    let capped = winter_of(v).unwrap();
+    assert_eq!(capped.spin_up_years, 3);
+    assert!(
+        capped
+            .warnings
+            .iter()
+            .any(|w| w.field == "winter.initial.max_years" && w.message.contains("3 years")),
+        "{:?}",
+        capped.warnings
+    );
+}
+
+#[test]
+fn a_surface_set_by_n_factors_says_it_ignores_the_snow() {
+    // n-factors stand for the surface and its cover together (the published n-factor
+    // tables are measured over surfaces as they are), so the run cannot also lay the
+    // climate's snow on the ground; it says so rather than ignore it silently.
+    let mut v = cabin();
+    v["winter"]["surface"] =
+        serde_json::json!({"kind": "n-factor", "freezing": 0.7, "thawing": 1.0});
+    v["winter"]["initial"] = serde_json::json!({"kind": "uniform", "temperature_c": 4});
+    let r = winter_of(v.clone()).unwrap();
+    assert!(
+        r.warnings.iter().any(|w| w.field == "winter.surface"),
+        "{:?}",
+        r.warnings
+    );
+    v["winter"]["climate"]
+        .as_object_mut()
+        .unwrap()
+        .remove("snow");
+    let bare = winter_of(v).unwrap();
+    assert!(bare.warnings.is_empty(), "{:?}", bare.warnings);
+}

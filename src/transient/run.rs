@@ -73,6 +73,31 @@ pub enum Initial {
     Periodic(AnnualWave),
 }
 
+/// A spin-up stops when no ground cell's enthalpy changed over the year by more than this
+/// many kelvin of its thawed heat capacity (so a change of ice content counts at its full
+/// latent weight: a cell held at 0 °C while a frozen lens thaws is not at rest). A setting of
+/// this tool, no source: 0.01 K is well below what any chart shows.
+pub const SPIN_UP_TOLERANCE_K: f64 = 0.01;
+
+/// The ground cells' enthalpies, J/m³, top down.
+fn ground_enthalpies(s: &Solver) -> Vec<f64> {
+    s.enthalpy[s.ground()].to_vec()
+}
+
+/// The largest change of a ground cell's enthalpy since `before` (from
+/// [`ground_enthalpies`]), in kelvin of the cell's thawed heat capacity (the enthalpy step
+/// from 10 to 11 °C, where every material is thawed).
+fn year_change_k(s: &Solver, before: &[f64]) -> f64 {
+    s.ground()
+        .zip(before)
+        .map(|(i, h0)| {
+            let p = &s.cells[i].phase;
+            let c = p.enthalpy(11.0) - p.enthalpy(10.0);
+            (s.enthalpy[i] - h0).abs() / c
+        })
+        .fold(0.0, f64::max)
+}
+
 /// Everything a run needs besides the forcing.
 #[derive(Debug, Clone)]
 pub struct RunSpec {
@@ -98,8 +123,10 @@ pub struct Sample {
     pub surface_c: f64,
     pub frost_depth_m: f64,
     pub thaw_depth_m: f64,
-    /// Heat flux into the ground through its top face, W/m² (negative when the ground loses
-    /// heat).
+    /// Heat flux into the ground through its top face over the step that ended at
+    /// `time_s`, W/m² (negative when the ground loses heat). The sample at time 0 carries the
+    /// flux of the last spin-up step when there was a spin-up (the state at the end of a
+    /// spun-up year is the state at its start), else that of the first step.
     pub ground_flux_w_m2: f64,
     pub snow_depth_m: f64,
 }
@@ -138,6 +165,10 @@ pub struct RunResult {
     /// Most snow cells at any time.
     pub max_snow_cells: usize,
     pub spin_up_years: u32,
+    /// With a spin-up: the largest change of a ground cell over its last year, in kelvin of
+    /// thawed heat capacity (see [`SPIN_UP_TOLERANCE_K`]); above the tolerance when the
+    /// spin-up stopped at its year limit before settling.
+    pub spin_up_change_k: Option<f64>,
 }
 
 /// Range of a cumulative freezing degree-day curve: the largest rise of Σ(0 − T)Δt/86400
@@ -210,9 +241,11 @@ fn fresh_snow_c(air_c: f64) -> f64 {
 pub struct Run {
     spec: RunSpec,
     solver: Solver,
-    /// Spin-up years done, and the state at the start of the year under way.
+    /// Spin-up years done, and the state at the start of the year under way (the ground
+    /// cells' enthalpies, J/m³).
     spin_up_years: u32,
     spinning: Option<Vec<f64>>,
+    spin_up_change: Option<f64>,
     /// Steps of the main run done, out of `n_steps`, each `dt` long.
     done: usize,
     n_steps: usize,
@@ -298,9 +331,7 @@ impl Run {
         let (n_steps, dt) = steps_for(spec.duration_s, spec.step_s);
         let (year_steps, year_dt) = steps_for(365.0 * 86_400.0, spec.step_s);
         let spinning = match spec.initial {
-            Initial::SpinUp { max_years, .. } if max_years > 0 => {
-                Some(solver.ground_temperatures().to_vec())
-            }
+            Initial::SpinUp { max_years, .. } if max_years > 0 => Some(ground_enthalpies(&solver)),
             _ => None,
         };
         Ok(Run {
@@ -320,6 +351,7 @@ impl Run {
             solver,
             spin_up_years: 0,
             spinning,
+            spin_up_change: None,
             done: 0,
             n_steps,
             dt,
@@ -411,13 +443,10 @@ impl Run {
         self.spin_step = 0;
         self.solver.time_s = 0.0;
         let before = self.spinning.take().unwrap_or_default();
-        let change = before
-            .iter()
-            .zip(self.solver.ground_temperatures())
-            .map(|(a, b)| (a - b).abs())
-            .fold(0.0, f64::max);
-        if change >= 0.01 && self.spin_up_years < max_years {
-            self.spinning = Some(self.solver.ground_temperatures().to_vec());
+        let change = year_change_k(&self.solver, &before);
+        self.spin_up_change = Some(change);
+        if change >= SPIN_UP_TOLERANCE_K && self.spin_up_years < max_years {
+            self.spinning = Some(ground_enthalpies(&self.solver));
         } else {
             let s = &mut self.solver;
             s.restart_ledger();
@@ -435,13 +464,23 @@ impl Run {
         self.snow_profiles = vec![s.snow_profile()];
         self.max_snow_cells = s.snow_cells;
         let f0 = s.fronts();
+        let spun = self.spin_up_years > 0;
         self.samples.push(Sample {
             time_s: 0.0,
             air_c: forcing.air_c(0.0),
-            surface_c: ground[0],
+            surface_c: if spun {
+                s.last_ground_surface_c
+            } else {
+                ground[0]
+            },
             frost_depth_m: f0.frost_depth_m,
             thaw_depth_m: f0.thaw_depth_m,
-            ground_flux_w_m2: 0.0,
+            // Replaced by the first step's flux in `record` when there was no spin-up.
+            ground_flux_w_m2: if spun {
+                s.last_ground_flux_w_m2
+            } else {
+                f64::NAN
+            },
             snow_depth_m: forcing.snow(0.0).map_or(0.0, |x| x.0),
         });
     }
@@ -465,6 +504,11 @@ impl Run {
         self.surf_dd.add(surface, dt);
         self.throughput +=
             (s.last_top_flux_w_m2.abs() + s.last_bottom_flux_w_m2.abs()) * dt + exchange.abs();
+        if let [first] = self.samples.as_mut_slice() {
+            if first.ground_flux_w_m2.is_nan() {
+                first.ground_flux_w_m2 = s.last_ground_flux_w_m2;
+            }
+        }
         self.samples.push(Sample {
             time_s: s.time_s,
             air_c: air,
@@ -506,6 +550,7 @@ impl Run {
             air_freezing_index_c_days: self.air_dd.range,
             surface_freezing_index_c_days: self.surf_dd.range,
             spin_up_years: self.spin_up_years,
+            spin_up_change_k: self.spin_up_change,
         }
     }
 }
