@@ -1125,6 +1125,8 @@
   function describeWinterPath(path) {
     if (/^winter\.climate\.days/.test(path || '')) return 'Daily records';
     if (path === 'winter') return 'Winter run';
+    if (path === 'winter.surface') return 'Surface';
+    if (/^winter\.initial/.test(path || '') && !fieldLabel(path)) return 'Start';
     return describePath(path);
   }
 
@@ -1238,6 +1240,10 @@
     $('w-solver').textContent = rep.cells + ' cells, ' + rep.steps + ' steps, ' + fmtNum(rep.iterations_per_step, 2) + ' passes per step' +
       (rep.split_steps ? ', ' + rep.split_steps + ' steps split' : '') + (rep.spin_up_years ? ', ' + rep.spin_up_years + ' years to settle' : '') +
       '; energy balance closes to ' + rep.energy_imbalance_relative.toExponential(1) + ' of the heat through the faces.';
+    const wl = $('w-warnings');
+    clear(wl);
+    for (const w of rep.warnings || []) wl.append(el('li', { text: describeWinterPath(w.field) + ': ' + w.message }));
+    wl.hidden = !wl.firstChild;
     const days = rep.daily.length ? rep.daily[rep.daily.length - 1].day : 0;
     const slider = $('w-day');
     slider.max = String(Math.max(0, Math.floor(days)));

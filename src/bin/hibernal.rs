@@ -45,7 +45,8 @@ mod cli {
             /// Also write the winter run's frost-depth chart to this SVG file.
             #[arg(long, value_name = "OUT.svg")]
             winter_svg: Option<PathBuf>,
-            /// Also write the winter run's daily series to this CSV file (units in the header).
+            /// Also write the winter run's daily series to this CSV file (in the units of
+            /// --units, named in the header).
             #[arg(long, value_name = "OUT.csv")]
             csv: Option<PathBuf>,
             /// Also write the winter run's ground temperature on one day (see --profile-day)
@@ -69,7 +70,7 @@ mod cli {
             /// day, to this CSV file (in the units of --units, named in the header).
             #[arg(long, value_name = "OUT.csv")]
             profiles_csv: Option<PathBuf>,
-            /// Units of the charts and of --profiles-csv: si or us.
+            /// Units of the charts and of the CSV files: si or us.
             #[arg(long, default_value = "si")]
             units: String,
         },
@@ -202,7 +203,7 @@ mod cli {
                     let Some(w) = &computed.winter else {
                         return fail("--csv needs a scenario with a winter section");
                     };
-                    if let Err(e) = std::fs::write(&out, hibernal::scenario_winter::daily_csv(w)) {
+                    if let Err(e) = std::fs::write(&out, hibernal::scenario_winter::daily_csv_in(w, sys)) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
                 }
