@@ -559,7 +559,7 @@ fn run(
                 .sum();
             gains - v - d - films - c_air * (t - t_old) / dt
         };
-        let mut lo = walls
+        let lo = walls
             .iter()
             .flat_map(|w| w.temperature_c.iter().copied().chain([w.sink_c]))
             .fold(t_old.min(model.outside_c), f64::min)
@@ -575,9 +575,6 @@ fn run(
                     detail: format!("no upper bracket at step {step}"),
                 });
             }
-        }
-        if net(lo) < 0.0 {
-            lo -= 1000.0;
         }
         t_air = steady::bisect_decreasing(net, lo, hi, "interior temperature in the night")?;
         let (mut melt_w, mut into_w) = (0.0, 0.0);
