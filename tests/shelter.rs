@@ -831,3 +831,88 @@ fn sweeps_are_monotone_and_match_single_runs() {
     assert_eq!(p.interior_c, single.interior_c);
     assert!(sweep_people(&shelter, &c, &[]).is_err());
 }
+
+/// A drift cave. With its whole chamber exposed it is the dome. Sealed in deep snow (no
+/// vent, no exposed face, the floor on ground at the snowpack temperature) it is linear
+/// about the snowpack temperature, with the walls a hemispherical cavity in a half-space:
+/// half of a sphere in an infinite medium, S = 2πD (Incropera Table 4.1, from memory), so
+/// G = 1/(R_film + 1/(2π k r)). Tolerance: round-off.
+#[test]
+fn drift_cave_limits() {
+    let open = Shelter {
+        shape: Shape::DriftCave {
+            inner_radius_m: 1.0,
+            exposed_face: Some(ExposedFace {
+                share: 1.0,
+                thickness_m: 0.4,
+            }),
+        },
+        ..dome()
+    };
+    let c = one_sleeper();
+    let a = steady(&open, &c).unwrap();
+    let b = steady(&dome(), &c).unwrap();
+    assert!((a.interior_c - b.interior_c).abs() < 1e-12);
+    let (r, k_ground) = (1.1, 2.0);
+    let sealed = Shelter {
+        shape: Shape::DriftCave {
+            inner_radius_m: r,
+            exposed_face: None,
+        },
+        vent_diameter_m: 0.0,
+        floor: Floor::Ground {
+            conductivity_w_m_k: k_ground,
+            heat_capacity_j_m3_k: 2.0e6,
+            temperature_c: -15.0,
+        },
+        ..dome()
+    };
+    let c = Conditions {
+        snowpack_c: -15.0,
+        ..c
+    };
+    let res = steady(&sealed, &c).unwrap();
+    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let g_walls = 1.0 / (1.0 / (7.0 * 2.0 * PI * r * r) + 1.0 / (2.0 * PI * k * r));
+    let g_floor = 1.0 / (1.0 / (7.0 * PI * r * r) + 1.0 / (k_ground * 4.0 * r));
+    let expected = -15.0 + 0.7 * 58.2 * 1.8 / (g_walls + g_floor);
+    println!(
+        "sealed cave {:.6} °C, closed form {expected:.6} °C",
+        res.interior_c
+    );
+    assert!(res.melt_w == 0.0);
+    assert!((res.interior_c - expected).abs() < 1e-12 * expected.abs());
+}
+
+/// CO₂ through the night: well-mixed mass balance V dC/dt = G − V̇ (C − C_o). After many
+/// time constants V/V̇ (here about half an hour against 24 h) it settles at the steady
+/// C_o + G/V̇ of the same air exchange (1 % tolerance: the interior is still within a few
+/// hundredths of a kelvin of steady, and V̇ ∝ √ΔT).
+#[test]
+fn night_co2_settles_at_the_steady_level() {
+    let c = Conditions {
+        people: 3,
+        activity: Activity::SeatedQuiet,
+        ..Conditions::default()
+    };
+    let s = NightSettings {
+        duration_s: 24.0 * 3600.0,
+        ..NightSettings::default()
+    };
+    let r = night(&dome(), &c, &s).unwrap();
+    let st = steady(&dome(), &c).unwrap();
+    let last = r.samples.last().unwrap();
+    println!(
+        "24 h: {:.3} °C, {:.0} ppm; steady {:.3} °C, {:.0} ppm",
+        last.interior_c,
+        last.co2_ppm,
+        st.interior_c,
+        st.co2_ppm.unwrap()
+    );
+    assert_eq!(r.samples[0].co2_ppm, 420.0);
+    assert!(rel(last.co2_ppm, st.co2_ppm.unwrap()) < 0.01);
+    assert_eq!(last.surfaces_c.len(), r.zone_names.len());
+    assert_eq!(last.main_wall_c.len(), r.main_wall_positions_m.len());
+    // Samples every 10 minutes over 24 h, plus the start.
+    assert_eq!(r.samples.len(), 145);
+}

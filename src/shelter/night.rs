@@ -359,7 +359,7 @@ impl NightSettings {
 }
 
 /// One kept instant.
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct NightSample {
     pub time_s: f64,
     pub interior_c: f64,
@@ -371,6 +371,16 @@ pub struct NightSample {
     pub into_walls_w: f64,
     /// Air exchange loss now, W.
     pub air_loss_w: f64,
+    /// CO₂ inside, ppm: well mixed, starting at the outdoor level
+    /// ([`super::steady::OUTDOOR_CO2_PPM`]), V dC/dt = G − V̇ (C − C_o) by backward Euler.
+    pub co2_ppm: f64,
+    /// Inner surface temperature of each zone, °C, in the order of
+    /// [`NightResult::zone_names`].
+    pub surfaces_c: Vec<f64>,
+    /// Cell temperatures of the main wall (zone 0: the dome, the pile's crown band, the
+    /// cave's exposed face or else its walls, the trench's roof), °C, at
+    /// [`NightResult::main_wall_positions_m`].
+    pub main_wall_c: Vec<f64>,
 }
 
 /// Energy over the run, J.
@@ -408,6 +418,10 @@ pub struct NightResult {
     pub melted_kg: f64,
     pub ledger: NightLedger,
     pub profiles: Vec<ZoneProfile>,
+    /// Names of the zones, in the order of [`NightSample::surfaces_c`].
+    pub zone_names: Vec<String>,
+    /// Cell centres of the main wall, m (radius for a sphere, depth for a plane).
+    pub main_wall_positions_m: Vec<f64>,
     /// Highest temperature any snow cell reached, °C (never above 0).
     pub warmest_snow_cell_c: f64,
     pub warnings: Vec<Warning>,
@@ -520,12 +534,16 @@ fn run(
         }
     };
     let mut next_sample = 0.0;
+    let mut co2 = steady::OUTDOOR_CO2_PPM;
+    #[allow(clippy::too_many_arguments)]
     let push_sample = |samples: &mut Vec<NightSample>,
                        time_s: f64,
                        t_air: f64,
                        surface: &[f64],
                        melt_w: f64,
-                       into_w: f64| {
+                       into_w: f64,
+                       co2_ppm: f64,
+                       main: &RadialWall| {
         let (v, d) = model.air_loss_w(t_air);
         let warmest = surface
             .iter()
@@ -540,12 +558,15 @@ fn run(
             melt_kg_per_h: melt_w / LATENT_HEAT_FUSION_J_PER_KG * 3600.0,
             into_walls_w: into_w,
             air_loss_w: v + d,
+            co2_ppm,
+            surfaces_c: surface.to_vec(),
+            main_wall_c: main.temperature_c.clone(),
         });
     };
     for (z, w) in walls.iter().enumerate() {
         surface[z] = w.temperature_c[0];
     }
-    push_sample(&mut samples, 0.0, t_air, &surface, 0.0, 0.0);
+    push_sample(&mut samples, 0.0, t_air, &surface, 0.0, 0.0, co2, &walls[0]);
     next_sample += s.sample_every_s;
     for step in 1..=steps {
         for (z, w) in walls.iter_mut().enumerate() {
@@ -589,6 +610,10 @@ fn run(
             ledger.to_sinks_j += walls[z].outer_loss_w() * dt;
         }
         let (v, d) = model.air_loss_w(t_air);
+        let flow = model.vent_flow_m3_s(t_air) + model.door_flow_m3_s(t_air);
+        let volume = model.air_volume_m3;
+        co2 = (volume * co2 / dt + 1e6 * model.co2_source_m3_s + flow * steady::OUTDOOR_CO2_PPM)
+            / (volume / dt + flow);
         ledger.given_off_j += gains * dt;
         ledger.air_exchange_j += (v + d) * dt;
         ledger.melt_j += melt_w * dt;
@@ -613,8 +638,19 @@ fn run(
             }
         }
         if time + 1e-9 >= next_sample || step == steps {
-            push_sample(&mut samples, time, t_air, &surface, melt_w, into_w);
-            next_sample += s.sample_every_s;
+            push_sample(
+                &mut samples,
+                time,
+                t_air,
+                &surface,
+                melt_w,
+                into_w,
+                co2,
+                &walls[0],
+            );
+            while next_sample <= time + 1e-9 {
+                next_sample += s.sample_every_s;
+            }
         }
     }
     ledger.stored_change_j = stored(&walls, t_air) - start_energy;
@@ -637,6 +673,8 @@ fn run(
         melted_kg: ledger.melt_j / LATENT_HEAT_FUSION_J_PER_KG,
         ledger,
         profiles,
+        zone_names: zones.iter().map(|z| z.name.clone()).collect(),
+        main_wall_positions_m: walls[0].centres_m(),
         warmest_snow_cell_c: warmest_cell,
         warnings,
     })

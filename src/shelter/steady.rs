@@ -50,6 +50,8 @@ pub struct ZoneState {
     pub conducted_w: f64,
     /// Heat melting snow at the surface, W (heat_in − conducted).
     pub melt_w: f64,
+    /// How fast the melting surface recedes, mm/h (melt over ρ_snow × area).
+    pub melt_mm_per_h: f64,
 }
 
 /// The result with a lining hung.
@@ -216,6 +218,9 @@ pub fn solve(model: &Model, lining: f64) -> Result<SteadyResult, ShelterError> {
             heat_in_w,
             conducted_w,
             melt_w: m,
+            melt_mm_per_h: m / LATENT_HEAT_FUSION_J_PER_KG * 3600.0
+                / (model.snow_density_kg_m3 * zone.geometry.inner_area_m2())
+                * 1000.0,
         });
     }
     let (vent_w, door_w) = model.air_loss_w(t_i);
