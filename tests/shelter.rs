@@ -24,6 +24,7 @@ fn dome() -> Shelter {
         vent_diameter_m: 0.05,
         inside_film_w_m2k: 7.0,
         lining_m2k_per_w: 0.2,
+        floor_cover_m2k_per_w: 0.0,
     }
 }
 
@@ -915,4 +916,33 @@ fn night_co2_settles_at_the_steady_level() {
     assert_eq!(last.main_wall_c.len(), r.main_wall_positions_m.len());
     // Samples every 10 minutes over 24 h, plus the start.
     assert_eq!(r.samples.len(), 145);
+}
+
+/// Mats on a snow floor: the floor is the first surface to reach 0 °C when bare (its
+/// shape-factor path to the snowpack is short), and with R = 1 m²K/W of cover the dome's
+/// own surface sets the melt-free limit, 15 K × R_in/R_out of the dome (series resistances,
+/// spherical wall formula, Incropera).
+#[test]
+fn floor_cover_moves_the_melt_limit_to_the_dome() {
+    let bare = steady(&dome(), &one_sleeper()).unwrap();
+    let covered = steady(
+        &Shelter {
+            floor_cover_m2k_per_w: 1.0,
+            ..dome()
+        },
+        &one_sleeper(),
+    )
+    .unwrap();
+    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let h_o = outside_film_w_m2k(2.0, -15.0);
+    let r_in = 1.0 / (7.0 * 2.0 * PI);
+    let r_out = (1.0 - 1.0 / 1.4) / (2.0 * PI * k) + 1.0 / (h_o * 2.0 * PI * 1.96);
+    let floor_limit = 8.0 * (1.0 / (7.0 * PI)) * (4.0 * k);
+    println!(
+        "bare: {:.3} °C, melt {:.3} kg/h, limit {:.4} °C (floor {floor_limit:.4}); covered: {:.3} °C, melt {:.3} kg/h, limit {:.4} °C",
+        bare.interior_c, bare.melt_kg_per_h, bare.melt_free_limit_c, covered.interior_c, covered.melt_kg_per_h, covered.melt_free_limit_c
+    );
+    assert!(rel(bare.melt_free_limit_c, floor_limit) < 1e-12);
+    assert!(rel(covered.melt_free_limit_c, 15.0 * r_in / r_out) < 1e-12);
+    assert!(covered.floor_w < bare.floor_w);
 }

@@ -222,6 +222,11 @@ pub struct Shelter {
     /// Resistance of a hung lining (fabric with an air gap behind it), m²K/W: used to show
     /// what a lining would change when the inner surface would melt.
     pub lining_m2k_per_w: f64,
+    /// Resistance of what covers the floor (sleeping mats, branches), averaged over the
+    /// whole floor, m²K/W (0: bare). Mats are rated in m²K/W (ASTM F3340, from memory); for
+    /// a mat covering part of the floor, average the conductances 1/(1/h + R) by area
+    /// (area-weighted U, common practice) and give the equivalent R.
+    pub floor_cover_m2k_per_w: f64,
 }
 
 /// What people do, with its metabolic rate in met (1 met = 58.2 W/m² of body surface).

@@ -193,12 +193,15 @@ pub struct Zone {
     pub melts: bool,
     /// A hung lining would cover it (walls and roof, not the floor).
     pub lined: bool,
+    /// Resistance of what covers the surface for good (mats on the floor), m²K/W.
+    pub cover_m2k_per_w: f64,
 }
 
 impl Zone {
     /// Inner film (and lining) resistance, K/W.
     pub fn inner_resistance_k_per_w(&self, film_w_m2k: f64, lining_m2k_w: f64) -> f64 {
-        let r = 1.0 / film_w_m2k + if self.lined { lining_m2k_w } else { 0.0 };
+        let r =
+            1.0 / film_w_m2k + self.cover_m2k_per_w + if self.lined { lining_m2k_w } else { 0.0 };
         r / self.geometry.inner_area_m2()
     }
     /// Wall and outer film resistance, K/W.
@@ -268,6 +271,7 @@ pub mod limits {
     pub const VENT_DIAMETER_M: (f64, f64) = (0.0, 0.5);
     pub const INSIDE_FILM_W_M2K: (f64, f64) = (1.0, 50.0);
     pub const LINING_M2K_W: (f64, f64) = (0.0, 2.0);
+    pub const FLOOR_COVER_M2K_W: (f64, f64) = (0.0, 10.0);
     pub const OUTSIDE_C: (f64, f64) = (-70.0, 0.0);
     pub const WIND_M_S: (f64, f64) = (0.0, 50.0);
     pub const SNOWPACK_C: (f64, f64) = (-60.0, 0.0);
@@ -542,6 +546,15 @@ impl Shelter {
             hi,
             "m²K/W",
         );
+        let (lo, hi) = limits::FLOOR_COVER_M2K_W;
+        check::within(
+            errs,
+            &f("floor_cover_m2k_per_w"),
+            self.floor_cover_m2k_per_w,
+            lo,
+            hi,
+            "m²K/W",
+        );
     }
 }
 
@@ -643,6 +656,11 @@ impl Model {
             sink,
             melts: true,
             lined: part == Part::WallsAndRoof,
+            cover_m2k_per_w: if part == Part::Floor {
+                shelter.floor_cover_m2k_per_w
+            } else {
+                0.0
+            },
         };
         let floor_zone = |name: &str, geometry: Geometry| match shelter.floor {
             Floor::Snow => snow_zone(name.into(), geometry, deep_snow, Part::Floor),
@@ -659,6 +677,7 @@ impl Model {
                 sink: Sink::Deep { temperature_c },
                 melts: false,
                 lined: false,
+                cover_m2k_per_w: shelter.floor_cover_m2k_per_w,
             },
         };
         let mut zones = Vec::new();

@@ -240,7 +240,8 @@ pub struct NightSettings {
     /// Time step, s (the run takes ⌈duration/step⌉ equal steps).
     pub step_s: f64,
     /// Uniform starting temperature of the snow (walls, roof, snowpack, snow floor), °C: the
-    /// outside air for a shelter just built, the snowpack's for a cave.
+    /// outside air for a shelter just built, the snowpack's for a cave. A ground floor
+    /// starts at its own temperature.
     pub snow_start_c: f64,
     /// Starting temperature of the interior air, °C.
     pub air_start_c: f64,
