@@ -946,3 +946,37 @@ fn floor_cover_moves_the_melt_limit_to_the_dome() {
     assert!(rel(covered.melt_free_limit_c, 15.0 * r_in / r_out) < 1e-12);
     assert!(covered.floor_w < bare.floor_w);
 }
+
+/// Guards: a pile's least-thickness search keeps its base within the accepted thicknesses
+/// (no error about a field the user did not set), and a night asking for too much work is
+/// refused with the grid field named.
+#[test]
+fn design_and_night_guards() {
+    let pile = Shelter {
+        shape: Shape::HollowedPile {
+            inner_radius_m: 1.0,
+            crown_thickness_m: 0.3,
+            base_thickness_m: 0.9,
+        },
+        ..dome()
+    };
+    let c = Conditions {
+        outside_c: -30.0,
+        ..Conditions::default()
+    };
+    let answer = least_thickness(&pile, &c, -2.0).unwrap();
+    println!("pile: {answer:?}");
+    if let ThicknessAnswer::Reached { thickness_m, .. } = answer {
+        assert!(thickness_m * 3.0 <= 3.0 + 1e-12);
+    }
+    let heavy = NightSettings {
+        duration_s: 7.0 * 86_400.0,
+        step_s: 1.0,
+        grid: GridSpec::uniform(0.001),
+        ..NightSettings::default()
+    };
+    let Err(ShelterError::Input(e)) = night(&dome(), &c, &heavy) else {
+        panic!("expected a refusal")
+    };
+    assert_eq!(e.0[0].field, "shelter.night.grid.surface_cell_m");
+}

@@ -48,6 +48,24 @@ pub enum ThicknessAnswer {
     NoThicknessToChoose,
 }
 
+/// The search range of the main thickness: [`SEARCH_THICKNESS_M`], narrowed for a pile so
+/// that its base (kept in proportion) stays within the accepted thicknesses.
+fn search_range(shelter: &Shelter) -> (f64, f64) {
+    let (mut lo, mut hi) = SEARCH_THICKNESS_M;
+    if let super::Shape::HollowedPile {
+        crown_thickness_m,
+        base_thickness_m,
+        ..
+    } = shelter.shape
+    {
+        let ratio = base_thickness_m / crown_thickness_m;
+        let (min, max) = super::model::limits::THICKNESS_M;
+        lo = lo.max(min / ratio);
+        hi = hi.min(max / ratio);
+    }
+    (lo, hi)
+}
+
 fn at(shelter: &Shelter, conditions: &Conditions, t: f64) -> Result<SteadyResult, ShelterError> {
     let s = Shelter {
         shape: shelter.shape.with_main_thickness(t),
@@ -72,7 +90,7 @@ pub fn least_thickness(
     if shelter.shape.main_thickness_m().is_none() {
         return Ok(ThicknessAnswer::NoThicknessToChoose);
     }
-    let (t_lo, t_hi) = SEARCH_THICKNESS_M;
+    let (t_lo, t_hi) = search_range(shelter);
     let thin = at(shelter, conditions, t_lo)?;
     if thin.interior_c >= target_c {
         return Ok(ThicknessAnswer::ThinnestSuffices {

@@ -36,6 +36,10 @@ use crate::error::{check, InputErrors, Warning};
 use crate::materials::ice::{AIR_SPECIFIC_HEAT_J_PER_KG_K, LATENT_HEAT_FUSION_J_PER_KG};
 use crate::transient::grid::{faces, GridSpec};
 
+/// Most cell-steps (cells of all columns × time steps) a night may take: a few seconds of
+/// work natively (a limit of this tool).
+pub const MAX_CELL_STEPS: f64 = 2.0e8;
+
 /// How a column conducts.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum WallGeometry {
@@ -498,6 +502,18 @@ fn run(
             start,
         ));
         r_in.push(zone.inner_resistance_k_per_w(model.inside_film_w_m2k, lining));
+    }
+    let cells: usize = walls.iter().map(|w| w.cells()).sum();
+    let steps_wanted = (s.duration_s / s.step_s).ceil().max(1.0);
+    if cells as f64 * steps_wanted > MAX_CELL_STEPS {
+        let mut e = InputErrors::default();
+        e.push(
+            format!("{NIGHT_FIELD}.grid.surface_cell_m"),
+            crate::error::InputErrorKind::NotCovered(format!(
+                "{cells} cells over {steps_wanted:.0} steps is more work than the {MAX_CELL_STEPS:.0e} cell-steps a night may take: use coarser cells or longer steps"
+            )),
+        );
+        return Err(e.into());
     }
     let c_air = super::model::air_density_kg_m3(s.air_start_c)
         * AIR_SPECIFIC_HEAT_J_PER_KG_K
