@@ -5,7 +5,7 @@
 //! carbon monoxide from stoves in snow shelters. Input-dependent warnings (thin walls, snow
 //! density outside a regression's range, little vent for the people inside, a stove or
 //! candles) are raised where the inputs are checked ([`super::model`]) and with the steady
-//! result ([`super::steady`]).
+//! result ([`mod@super::steady`]).
 
 /// One note and where it comes from.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -10,13 +10,13 @@
 //! snow or ground at a held temperature) by one-dimensional conduction, radial in a sphere or
 //! straight through a plane wall. Everything else is built on the zones:
 //!
-//! - [`steady`]: the steady heat balance for the interior air (bisection), the melt limit
+//! - [`mod@steady`]: the steady heat balance for the interior air (bisection), the melt limit
 //!   (inner snow surfaces held at 0 °C, surplus heat to melt), the effect of a hung lining,
 //!   CO₂, and the band over all nine snow conductivity regressions;
-//! - [`night`]: the first hours after people enter, finite volumes through every zone with a
+//! - [`mod@night`]: the first hours after people enter, finite volumes through every zone with a
 //!   lumped air node, backward Euler, the melt limit held in every step;
 //! - [`design`]: least wall thickness for a target interior temperature, and sweeps;
-//! - [`cautions`]: the safety notes that must always be shown, with their sources.
+//! - [`mod@cautions`]: the safety notes that must always be shown, with their sources.
 //!
 //! Valid for a dry snow shelter in still cold weather: outside air at or below 0 °C, snow
 //! at or below 0 °C, conduction through dry snow (no vapour transport, which can raise the

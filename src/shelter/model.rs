@@ -251,7 +251,7 @@ pub struct Model {
     pub snow_density_kg_m3: f64,
     pub snow_conductivity_w_m_k: f64,
     pub snow_correlation: SnowCorrelation,
-    /// CO₂ given off inside, m³/s (see [`super::steady`]).
+    /// CO₂ given off inside, m³/s (see [`mod@super::steady`]).
     pub co2_source_m3_s: f64,
     /// Heat capacity per volume of snow, J/m³K.
     pub snow_heat_capacity_j_m3_k: f64,
@@ -280,7 +280,7 @@ pub mod limits {
     pub const CANDLES: u32 = 50;
     pub const STOVE_W: (f64, f64) = (0.0, 20_000.0);
     /// Walls and roofs thinner than this draw a warning (FM 21-76 for caves and hollowed
-    /// piles, see [`super::super::cautions`]).
+    /// piles, see [`mod@super::super::cautions`]).
     pub const THIN_WALL_M: f64 = 0.30;
 }
 
