@@ -980,3 +980,45 @@ fn design_and_night_guards() {
     };
     assert_eq!(e.0[0].field, "shelter.night.grid.surface_cell_m");
 }
+
+/// A hollowed pile's bands against the continuous integral of the radial shell over the
+/// polar angle, G = ∫₀^{π/2} 2π k sin θ dθ / (1/r_i − 1/(r_i + t(θ))) (each direction radial,
+/// the spherical wall formula, Incropera), by Simpson's rule on 2000 intervals. The 12 bands
+/// take t at each band's middle angle: a midpoint rule, error ~ Δθ²/24 × |g''/g| ≈ 1e-3
+/// here; tolerance 2e-3.
+#[test]
+fn pile_bands_integrate_the_shell() {
+    let (r_i, crown, base) = (1.2, 0.3, 0.9);
+    let pile = Shelter {
+        shape: Shape::HollowedPile {
+            inner_radius_m: r_i,
+            crown_thickness_m: crown,
+            base_thickness_m: base,
+        },
+        ..dome()
+    };
+    let (model, _) = Model::build(&pile, &one_sleeper()).unwrap();
+    let k = model.snow_conductivity_w_m_k;
+    let bands: f64 = model
+        .zones
+        .iter()
+        .filter(|z| z.part == Part::WallsAndRoof)
+        .map(|z| 1.0 / z.geometry.wall_resistance_k_per_w(k))
+        .sum();
+    let g = |th: f64| {
+        let t = crown + (base - crown) * th / (0.5 * PI);
+        2.0 * PI * k * th.sin() / (1.0 / r_i - 1.0 / (r_i + t))
+    };
+    let n = 2000;
+    let h = 0.5 * PI / n as f64;
+    let mut sum = g(0.0) + g(0.5 * PI);
+    for i in 1..n {
+        sum += if i % 2 == 1 { 4.0 } else { 2.0 } * g(i as f64 * h);
+    }
+    let integral = sum * h / 3.0;
+    println!(
+        "bands {bands:.6} W/K, integral {integral:.6} W/K, rel {:.2e}",
+        rel(bands, integral)
+    );
+    assert!(rel(bands, integral) < 2e-3);
+}
