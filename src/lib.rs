@@ -1,6 +1,6 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
-//! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`],
+//! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`], [`shelter`],
 //! [`climate`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
 //! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
 //! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
@@ -12,6 +12,7 @@ pub mod analytic;
 pub mod climate;
 pub mod error;
 pub mod materials;
+pub mod shelter;
 pub mod stack;
 pub mod steady;
 pub mod transient;
