@@ -1261,3 +1261,59 @@ fn an_erratic_snow_record_runs_to_the_end_and_conserves_energy() {
         .iter()
         .all(|s| s.surface_c.is_finite() && s.frost_depth_m >= 0.0));
 }
+
+#[test]
+fn the_state_kept_between_steps_changes_no_number() {
+    // Each converged step keeps every cell's k and dT/dH for the next step, where the cell's
+    // enthalpy has not changed since. That must be exact: the reference year (freezing
+    // soils, a snow cover that comes, deepens, settles and goes, so snow cells are remapped
+    // and their count changes) stepped with the kept state and with it cleared before every
+    // step gives bit-for-bit the same column. Invariant of this tool; no outside source.
+    use hibernal::transient::reference::reference_year;
+    use hibernal::transient::run::Forcing;
+    use hibernal::transient::SnowLayer;
+    let (spec, forcing) = reference_year();
+    let cells = cells_for(
+        &spec.thicknesses_m,
+        &spec.materials,
+        &spec.grid,
+        &spec.curves,
+    );
+    let mut kept = Solver::new(cells.clone(), 4.0);
+    let mut fresh = Solver::new(cells, 4.0);
+    let bottom = BottomCondition::Flux { upward_w_m2: 0.06 };
+    let dt = 3600.0;
+    let mut most_snow_cells = 0;
+    for k in 1..=(200 * 24) {
+        // Days 280–480 of the reference year: its snow season (days 300–465) and its freeze.
+        let t = (280.0 * DAY) + k as f64 * dt;
+        let air = forcing.air_c(t);
+        let snow = forcing.snow(t).map(|(depth_m, density_kg_m3)| SnowLayer {
+            depth_m,
+            density_kg_m3,
+            conductivity_w_m_k: 0.2,
+        });
+        let top = TopCondition::Air {
+            air_c: air,
+            film_w_m2k: 20.0,
+            extra_resistance_m2k_w: 0.0,
+        };
+        for s in [&mut kept, &mut fresh] {
+            s.set_snow(snow, air.min(0.0));
+        }
+        fresh.clear_step_cache();
+        kept.step(dt, &top, &bottom).unwrap();
+        fresh.step(dt, &top, &bottom).unwrap();
+        assert_eq!(kept.enthalpy, fresh.enthalpy, "step {k}");
+        most_snow_cells = most_snow_cells.max(kept.snow_cells);
+    }
+    assert!(
+        kept.fronts().frost_depth_m > 0.05,
+        "the test froze the ground"
+    );
+    assert!(
+        most_snow_cells >= 8,
+        "snow cells came and went: {most_snow_cells}"
+    );
+    assert_eq!(kept.work.iterations, fresh.work.iterations);
+}

@@ -203,7 +203,9 @@ mod cli {
                     let Some(w) = &computed.winter else {
                         return fail("--csv needs a scenario with a winter section");
                     };
-                    if let Err(e) = std::fs::write(&out, hibernal::scenario_winter::daily_csv_in(w, sys)) {
+                    if let Err(e) =
+                        std::fs::write(&out, hibernal::scenario_winter::daily_csv_in(w, sys))
+                    {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
                 }

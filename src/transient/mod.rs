@@ -197,6 +197,12 @@ pub struct Solver {
     h_old: Vec<f64>,
     /// Half-cell resistances Δz/2k, m²K/W.
     k: Vec<f64>,
+    /// The state the last converged step left, so the next step need not evaluate it
+    /// again: each cell's half-cell resistance and dT/dH (in `slope`) hold for the enthalpy
+    /// in `h_key` (NaN: not known). Exact: a cell whose enthalpy is unchanged has the same
+    /// k and dT/dH; anything that changes a cell otherwise (snow remapping) clears its key.
+    k_state: Vec<f64>,
+    h_key: Vec<f64>,
     g: Vec<f64>,
     slope: Vec<f64>,
     a: Vec<f64>,
@@ -245,6 +251,8 @@ impl Solver {
             snow: None,
             h_old: vec![0.0; n],
             k: vec![0.0; n],
+            k_state: vec![0.0; n],
+            h_key: vec![f64::NAN; n],
             g: vec![0.0; n + 1],
             slope: vec![0.0; n],
             a: vec![0.0; n],
@@ -273,6 +281,13 @@ impl Solver {
             self.temperature[i] = cell.phase.temperature(self.enthalpy[i]);
         }
         self.restart_ledger();
+    }
+
+    /// Forget the state kept from the last converged step (each cell's k and dT/dH), so the
+    /// next step evaluates every cell afresh. The kept state is exact, so this changes no
+    /// number; a test uses it to show that.
+    pub fn clear_step_cache(&mut self) {
+        self.h_key.fill(f64::NAN);
     }
 
     /// Start the energy ledger afresh from the present state.
@@ -406,6 +421,7 @@ impl Solver {
                 self.temperature[j] = cell.phase.temperature(h);
                 self.enthalpy[j] = h;
                 self.cells[j] = cell;
+                self.h_key[j] = f64::NAN;
             }
         } else {
             let (cells, hs): (Vec<Cell>, Vec<f64>) = (0..ns_new).map(make).unzip();
@@ -432,6 +448,9 @@ impl Solver {
                 v.resize(n, 0.0);
             }
             self.g.resize(n + 1, 0.0);
+            self.k_state.resize(n, 0.0);
+            self.h_key.clear();
+            self.h_key.resize(n, f64::NAN);
             self.lu = Tridiagonal::new(n);
             self.snow_cells = ns_new;
         }
@@ -512,11 +531,32 @@ impl Solver {
     }
 
     fn update_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition) {
-        let n = self.cells.len();
         // Half-cell resistances Δz/2k, then face conductances 1/(r_above + r_below).
-        for i in 0..n {
+        for i in 0..self.cells.len() {
             self.k[i] = self.half_resistance(i);
         }
+        self.face_conductances(top, bottom);
+    }
+
+    /// Half-cell resistances and dT/dH of every cell at the present state, taken from the
+    /// last converged step where a cell's enthalpy has not changed since; then the face
+    /// conductances.
+    fn conductances_at_step_start(&mut self, top: &TopCondition, bottom: &BottomCondition) {
+        for i in 0..self.cells.len() {
+            if self.h_key[i] == self.enthalpy[i] {
+                self.k[i] = self.k_state[i];
+            } else {
+                self.k[i] = self.half_resistance(i);
+                self.slope[i] = self.cells[i]
+                    .phase
+                    .dt_dh(self.enthalpy[i], self.temperature[i]);
+            }
+        }
+        self.face_conductances(top, bottom);
+    }
+
+    fn face_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition) {
+        let n = self.cells.len();
         self.g[0] = match *top {
             TopCondition::Air {
                 film_w_m2k,
@@ -543,6 +583,7 @@ impl Solver {
         let mut settled = true;
         for i in 0..n {
             let half = self.half_resistance(i);
+            self.k_state[i] = half;
             if (half - self.k[i]).abs() > 1e-4 * self.k[i] {
                 settled = false;
                 break;
@@ -661,7 +702,7 @@ impl Solver {
         // Conductivities are taken at the start of the step (lagged by one step) and held
         // through its passes; the fluxes booked use the same conductances, so energy is still
         // conserved exactly, and a pass in which no cell changes regime is exact.
-        self.update_conductances(top, bottom);
+        self.conductances_at_step_start(top, bottom);
         for iter in 0..=self.tolerances.max_iterations {
             let (q_top, q_bot) = self.fluxes(top, bottom);
             // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
@@ -699,17 +740,14 @@ impl Solver {
                 }
                 // Book the energy with the conductances and temperatures of this state.
                 self.book(q_top, q_bot, dt);
+                self.h_key.copy_from_slice(&self.enthalpy);
                 return Ok(iter.max(1));
             }
             if iter == self.tolerances.max_iterations {
                 break;
             }
-            // Newton: J δH = −R, with T linearised about the iterate.
-            for i in 0..n {
-                self.slope[i] = self.cells[i]
-                    .phase
-                    .dt_dh(self.enthalpy[i], self.temperature[i]);
-            }
+            // Newton: J δH = −R, with T linearised about the iterate (`slope` holds dT/dH
+            // of the present state: set at the step's start, then by each update below).
             let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
             for i in 0..n {
                 let g_up = self.g[i];
@@ -742,10 +780,11 @@ impl Solver {
             for i in 0..n {
                 self.enthalpy[i] += damping * self.dp[i];
                 self.temperature[i] = self.cells[i].phase.temperature(self.enthalpy[i]);
-                same_regime &= self.cells[i]
+                let slope = self.cells[i]
                     .phase
-                    .dt_dh(self.enthalpy[i], self.temperature[i])
-                    == self.slope[i];
+                    .dt_dh(self.enthalpy[i], self.temperature[i]);
+                same_regime &= slope == self.slope[i];
+                self.slope[i] = slope;
             }
             same_regime &= self.top_flux(top).3 == top_piece;
             // With conductances held, every cell's T(H) and the top flux on the same linear
@@ -753,6 +792,7 @@ impl Solver {
             if same_regime && self.linear_pieces && self.conductances_settled(top, bottom) {
                 let (q_top, q_bot) = self.fluxes(top, bottom);
                 self.book(q_top, q_bot, dt);
+                self.h_key.copy_from_slice(&self.enthalpy);
                 return Ok(iter + 1);
             }
         }
@@ -760,6 +800,7 @@ impl Solver {
         for i in 0..n {
             self.temperature[i] = self.cells[i].phase.temperature(self.enthalpy[i]);
         }
+        self.h_key.fill(f64::NAN);
         Err(last_residual)
     }
 
