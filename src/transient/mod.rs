@@ -497,7 +497,8 @@ impl Solver {
         let Some(deepest) = ground
             .clone()
             .rev()
-            .find(|&i| freezes(i) && self.frozen_fraction(i) > 1e-9)
+            // A cell above 0 °C holds no ice in any phase model: test that first (cheap).
+            .find(|&i| self.temperature[i] <= 0.0 && freezes(i) && self.frozen_fraction(i) > 1e-9)
         else {
             return Fronts::default();
         };
