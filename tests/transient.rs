@@ -1317,3 +1317,62 @@ fn the_state_kept_between_steps_changes_no_number() {
     );
     assert_eq!(kept.work.iterations, fresh.work.iterations);
 }
+
+#[test]
+fn states_on_one_constant_k_stretch_have_the_same_conductivity() {
+    // The solver skips re-evaluating k where a cell stays on a stretch of enthalpy over
+    // which k is one constant (Phase::constant_k_stretch). Check the claim it rests on:
+    // any two states with the same tag have bit-for-bit the same conductivity, for inert,
+    // freezing and snow cells; a partly frozen state or a temperature-dependent branch has
+    // no tag. Invariant of this tool; no outside source.
+    use hibernal::materials::Branch;
+    use hibernal::transient::phase::Phase;
+    let law = ConductivityLaw {
+        frozen: Branch::Constant(2.1),
+        unfrozen: Branch::Constant(1.4),
+    };
+    let phases = [
+        Phase::Inert {
+            c_frozen: 1.9e6,
+            c_unfrozen: 2.0e6,
+            law,
+        },
+        Phase::Isothermal {
+            c_frozen: 1.9e6,
+            c_unfrozen: 2.8e6,
+            latent: 1.0e8,
+            law,
+        },
+        Phase::Snow {
+            density_kg_m3: 250.0,
+            conductivity: 0.2,
+        },
+    ];
+    let hs: Vec<f64> = (-400..=400).map(|i| i as f64 * 3.1e5 + 17.0).collect();
+    for p in &phases {
+        for &h1 in &hs {
+            let Some(tag) = p.constant_k_stretch(h1) else {
+                continue;
+            };
+            let k1 = p.conductivity(h1, p.temperature(h1));
+            for &h2 in hs.iter().step_by(7) {
+                if p.constant_k_stretch(h2) == Some(tag) {
+                    assert_eq!(k1, p.conductivity(h2, p.temperature(h2)), "{p:?} {h1} {h2}");
+                }
+            }
+        }
+    }
+    let iso = &phases[1];
+    assert_eq!(iso.constant_k_stretch(0.5e8), None, "partly frozen");
+    let ice = Phase::Isothermal {
+        c_frozen: 1.9e6,
+        c_unfrozen: 4.2e6,
+        latent: 3.0e8,
+        law: ConductivityLaw {
+            frozen: Branch::IceIh,
+            unfrozen: Branch::Constant(0.56),
+        },
+    };
+    assert_eq!(ice.constant_k_stretch(-1e6), None, "ice k depends on T");
+    assert_eq!(ice.constant_k_stretch(4e8), Some(1));
+}

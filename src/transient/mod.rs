@@ -203,6 +203,8 @@ pub struct Solver {
     /// k and dT/dH; anything that changes a cell otherwise (snow remapping) clears its key.
     k_state: Vec<f64>,
     h_key: Vec<f64>,
+    /// The enthalpy each cell had when its held half-cell resistance `k` was taken.
+    h_k: Vec<f64>,
     g: Vec<f64>,
     slope: Vec<f64>,
     a: Vec<f64>,
@@ -253,6 +255,7 @@ impl Solver {
             k: vec![0.0; n],
             k_state: vec![0.0; n],
             h_key: vec![f64::NAN; n],
+            h_k: vec![0.0; n],
             g: vec![0.0; n + 1],
             slope: vec![0.0; n],
             a: vec![0.0; n],
@@ -449,6 +452,7 @@ impl Solver {
             }
             self.g.resize(n + 1, 0.0);
             self.k_state.resize(n, 0.0);
+            self.h_k.resize(n, 0.0);
             self.h_key.clear();
             self.h_key.resize(n, f64::NAN);
             self.lu = Tridiagonal::new(n);
@@ -536,6 +540,7 @@ impl Solver {
         for i in 0..self.cells.len() {
             self.k[i] = self.half_resistance(i);
         }
+        self.h_k.copy_from_slice(&self.enthalpy);
         self.face_conductances(top, bottom);
     }
 
@@ -553,6 +558,7 @@ impl Solver {
                     .dt_dh(self.enthalpy[i], self.temperature[i]);
             }
         }
+        self.h_k.copy_from_slice(&self.enthalpy);
         self.face_conductances(top, bottom);
     }
 
@@ -583,6 +589,15 @@ impl Solver {
         let n = self.cells.len();
         let mut settled = true;
         for i in 0..n {
+            // Where k is one constant over a stretch of enthalpy and the cell has stayed on
+            // it since k was taken, k is unchanged, bit for bit: no need to evaluate it.
+            let phase = &self.cells[i].phase;
+            if let Some(now) = phase.constant_k_stretch(self.enthalpy[i]) {
+                if phase.constant_k_stretch(self.h_k[i]) == Some(now) {
+                    self.k_state[i] = self.k[i];
+                    continue;
+                }
+            }
             let half = self.half_resistance(i);
             self.k_state[i] = half;
             if (half - self.k[i]).abs() > 1e-4 * self.k[i] {
@@ -709,26 +724,35 @@ impl Solver {
             // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
             // |R_i| Δt/Δz (J/m³).
             let mut worst: f64 = 0.0;
-            for i in 0..n {
-                let up = if i == 0 {
-                    q_top
-                } else {
-                    self.g[i] * (self.temperature[i - 1] - self.temperature[i])
-                };
-                let down = if i == n - 1 {
-                    q_bot
-                } else {
-                    self.g[i + 1] * (self.temperature[i + 1] - self.temperature[i])
-                };
-                let res = self.cap[i] * (self.enthalpy[i] - self.h_old[i]) - (up + down);
-                // |R| Δt/Δz as an enthalpy error, compared without dividing.
-                if res.abs() > tol * self.cap[i] {
-                    worst = worst.max(res.abs() / self.cap[i]);
+            {
+                // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
+                let (t, h, h_old) = (
+                    &self.temperature[..n],
+                    &self.enthalpy[..n],
+                    &self.h_old[..n],
+                );
+                let (g, cap, r) = (&self.g[..n + 1], &self.cap[..n], &mut self.r[..n]);
+                // Downward flux through the face above cell i, then below it: inflow from
+                // above g_i (T_{i−1} − T_i) and from below g_{i+1} (T_{i+1} − T_i) are
+                // f_above and −f_below, each face's flux computed once.
+                let mut f_above = q_top;
+                for i in 0..n {
+                    let f_below = if i + 1 < n {
+                        g[i + 1] * (t[i] - t[i + 1])
+                    } else {
+                        -q_bot
+                    };
+                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
+                    f_above = f_below;
+                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
+                    if res.abs() > tol * cap[i] {
+                        worst = worst.max(res.abs() / cap[i]);
+                    }
+                    if !res.is_finite() {
+                        worst = f64::INFINITY;
+                    }
+                    r[i] = -res;
                 }
-                if !res.is_finite() {
-                    worst = f64::INFINITY;
-                }
-                self.r[i] = -res;
             }
             if !worst.is_finite() {
                 break;
@@ -750,24 +774,24 @@ impl Solver {
             // Newton: J δH = −R, with T linearised about the iterate (`slope` holds dT/dH
             // of the present state: set at the step's start, then by each update below).
             let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
-            for i in 0..n {
-                let g_up = self.g[i];
-                let g_dn = if i < n - 1 || g_bottom_row {
-                    self.g[i + 1]
-                } else {
-                    0.0
-                };
-                self.b[i] = self.cap[i] + (g_up + g_dn) * self.slope[i];
-                self.a[i] = if i > 0 {
-                    -self.g[i] * self.slope[i - 1]
-                } else {
-                    0.0
-                };
-                self.c[i] = if i < n - 1 {
-                    -self.g[i + 1] * self.slope[i + 1]
-                } else {
-                    0.0
-                };
+            {
+                let (g, cap, slope) = (&self.g[..n + 1], &self.cap[..n], &self.slope[..n]);
+                let (a, b, c) = (&mut self.a[..n], &mut self.b[..n], &mut self.c[..n]);
+                for i in 0..n {
+                    let g_up = g[i];
+                    let g_dn = if i < n - 1 || g_bottom_row {
+                        g[i + 1]
+                    } else {
+                        0.0
+                    };
+                    b[i] = cap[i] + (g_up + g_dn) * slope[i];
+                    a[i] = if i > 0 { -g[i] * slope[i - 1] } else { 0.0 };
+                    c[i] = if i < n - 1 {
+                        -g[i + 1] * slope[i + 1]
+                    } else {
+                        0.0
+                    };
+                }
             }
             // The top row: the top flux's own derivatives (they differ from the face
             // conductance where the snow surface is held at 0 °C).
@@ -778,14 +802,21 @@ impl Solver {
             // can cycle between two states; after a few passes, damp the step to break it.
             let damping = if iter < 12 { 1.0 } else { 0.5 };
             let mut same_regime = damping == 1.0;
-            for i in 0..n {
-                self.enthalpy[i] += damping * self.dp[i];
-                self.temperature[i] = self.cells[i].phase.temperature(self.enthalpy[i]);
-                let slope = self.cells[i]
-                    .phase
-                    .dt_dh(self.enthalpy[i], self.temperature[i]);
-                same_regime &= slope == self.slope[i];
-                self.slope[i] = slope;
+            {
+                let (cells, dp) = (&self.cells[..n], &self.dp[..n]);
+                let (h, t, sl) = (
+                    &mut self.enthalpy[..n],
+                    &mut self.temperature[..n],
+                    &mut self.slope[..n],
+                );
+                for i in 0..n {
+                    let phase = &cells[i].phase;
+                    h[i] += damping * dp[i];
+                    t[i] = phase.temperature(h[i]);
+                    let slope = phase.dt_dh(h[i], t[i]);
+                    same_regime &= slope == sl[i];
+                    sl[i] = slope;
+                }
             }
             same_regime &= self.top_flux(top).3 == top_piece;
             // With conductances held, every cell's T(H) and the top flux on the same linear
@@ -881,38 +912,41 @@ impl Tridiagonal {
     /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`.
     fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64]) {
         let n = b.len();
-        // Lowest row (counting from the top) from which the cached factors still hold.
-        let mut keep = if self.valid { n } else { 0 };
-        while keep > 0 {
-            let i = keep - 1;
-            if a[i] != self.a[i] || b[i] != self.b[i] || c[i] != self.c[i] {
-                break;
+        let (a, c) = (&a[..n], &c[..n]);
+        {
+            let (sa, sb, sc) = (&mut self.a[..n], &mut self.b[..n], &mut self.c[..n]);
+            let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
+            // Lowest row (counting from the top) from which the cached factors still hold.
+            let mut keep = if self.valid { n } else { 0 };
+            while keep > 0 {
+                let i = keep - 1;
+                if a[i] != sa[i] || b[i] != sb[i] || c[i] != sc[i] {
+                    break;
+                }
+                keep -= 1;
             }
-            keep -= 1;
-        }
-        // Factorise rows keep-1 .. 0 (bottom up).
-        for i in (0..keep.max(if self.valid { 0 } else { n })).rev() {
-            let below = if i + 1 < n {
-                c[i] * self.ap[i + 1]
-            } else {
-                0.0
-            };
-            let inv = 1.0 / (b[i] - below);
-            self.inv[i] = inv;
-            self.ap[i] = a[i] * inv;
-            self.a[i] = a[i];
-            self.b[i] = b[i];
-            self.c[i] = c[i];
+            // Factorise rows keep-1 .. 0 (bottom up).
+            for i in (0..keep.max(if self.valid { 0 } else { n })).rev() {
+                let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
+                let d = 1.0 / (b[i] - below);
+                inv[i] = d;
+                ap[i] = a[i] * d;
+                sa[i] = a[i];
+                sb[i] = b[i];
+                sc[i] = c[i];
+            }
         }
         self.valid = true;
         // Right-hand side, bottom up, then back-substitute top down.
-        self.rp[n - 1] = r[n - 1] * self.inv[n - 1];
+        let (rp, inv, ap) = (&mut self.rp[..n], &self.inv[..n], &self.ap[..n]);
+        let (r, x) = (&r[..n], &mut x[..n]);
+        rp[n - 1] = r[n - 1] * inv[n - 1];
         for i in (0..n - 1).rev() {
-            self.rp[i] = (r[i] - c[i] * self.rp[i + 1]) * self.inv[i];
+            rp[i] = (r[i] - c[i] * rp[i + 1]) * inv[i];
         }
-        x[0] = self.rp[0];
+        x[0] = rp[0];
         for i in 1..n {
-            x[i] = self.rp[i] - self.ap[i] * x[i - 1];
+            x[i] = rp[i] - ap[i] * x[i - 1];
         }
     }
 }

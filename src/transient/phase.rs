@@ -381,6 +381,42 @@ impl Phase {
         }
     }
 
+    /// Where the conductivity is one constant over a stretch of enthalpy around `h`, a tag
+    /// for that stretch (0 frozen, 1 thawed, 2 snow); `None` where it varies with the state
+    /// (partly frozen, a temperature-dependent branch, an unfrozen-water curve). Two states
+    /// with the same tag have the same [`Phase::conductivity`], bit for bit; the solver uses
+    /// this to skip re-evaluating k.
+    pub fn constant_k_stretch(&self, h: f64) -> Option<u8> {
+        let constant = |law: &ConductivityLaw, frozen: bool| {
+            matches!(
+                if frozen { law.frozen } else { law.unfrozen },
+                crate::materials::Branch::Constant(_)
+            )
+        };
+        match self {
+            Phase::Snow { .. } => Some(2),
+            Phase::Inert { law, .. } => {
+                // k takes the frozen branch below 0 °C; T(H) = H/c has the sign of H unless
+                // the quotient underflows to zero, which only a |H| this small can do.
+                if h.abs() < 1e-290 {
+                    return None;
+                }
+                let frozen = h < 0.0;
+                constant(law, frozen).then_some(u8::from(!frozen))
+            }
+            Phase::Isothermal { law, latent, .. } => {
+                if h <= 0.0 {
+                    constant(law, true).then_some(0)
+                } else if h >= *latent {
+                    constant(law, false).then_some(1)
+                } else {
+                    None
+                }
+            }
+            Phase::Range { .. } => None,
+        }
+    }
+
     /// Conductivity at the state, W/m/K.
     pub fn conductivity(&self, h: f64, t: f64) -> f64 {
         match *self {
