@@ -356,13 +356,17 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
         .axis_desc_style(font(13.0))
         .draw()
         .map_err(err)?;
-    // Frozen ground: between the thaw front (or the surface) and the frost front.
+    // Frozen ground: between the thaw front (or the top of the first ground that can
+    // freeze: a slab or a board above it holds no frozen ground) and the frost front.
     let mut poly: Vec<(f64, f64)> = w
         .daily
         .iter()
         .map(|d| (d.day, -z(d.frost_depth_m)))
         .collect();
-    poly.extend(w.daily.iter().rev().map(|d| (d.day, -z(d.thaw_depth_m))));
+    poly.extend(w.daily.iter().rev().map(|d| {
+        let top = d.thaw_depth_m.max(w.freezable_top_m).min(d.frost_depth_m);
+        (d.day, -z(top))
+    }));
     chart
         .draw_series(std::iter::once(Polygon::new(poly, BAND.mix(0.45).filled())))
         .map_err(err)?

@@ -462,6 +462,9 @@ pub struct WinterReport {
     /// Depths of the layer faces from the top face down, m (first 0, last the bottom).
     pub layer_faces_m: Vec<f64>,
     pub layer_names: Vec<String>,
+    /// Depth of the top of the first layer that holds water that can freeze, m (0 when the
+    /// top layer does; a slab or a board above it cannot hold frozen ground).
+    pub freezable_top_m: f64,
     /// Notes on the run: a model that does not cover part of the input, a start that did
     /// not settle.
     pub warnings: Vec<ErrorDoc>,
@@ -529,6 +532,7 @@ pub struct WinterJob {
     layer_names: Vec<String>,
     warnings: Vec<ErrorDoc>,
     max_years: u32,
+    freezable_top_m: f64,
 }
 
 fn run_error(e: crate::transient::TransientError) -> InputErrors {
@@ -572,6 +576,11 @@ impl WinterJob {
         for l in &stack.layers {
             faces_m.push(faces_m.last().copied().unwrap_or(0.0) + l.thickness_m);
         }
+        let freezable_top_m = stack
+            .materials
+            .iter()
+            .position(|m| m.freezes)
+            .map_or(0.0, |i| faces_m[i]);
         Ok(WinterJob {
             run,
             climate,
@@ -579,6 +588,7 @@ impl WinterJob {
             layer_names: stack.layers.iter().map(|l| l.name.clone()).collect(),
             warnings,
             max_years,
+            freezable_top_m,
         })
     }
 
@@ -615,6 +625,7 @@ impl WinterJob {
         }
         let mut report = report_of(r, self.faces_m, self.layer_names);
         report.warnings = warnings;
+        report.freezable_top_m = self.freezable_top_m;
         report
     }
 }
@@ -680,6 +691,7 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         layer_faces_m: faces_m,
         layer_names,
         warnings: Vec::new(),
+        freezable_top_m: 0.0,
         profiles: r
             .profiles
             .into_iter()

@@ -86,6 +86,7 @@ fn hand_report(
         layer_faces_m: vec![0.0, 0.5, 2.0],
         layer_names: vec!["Top & gravel <fill>".into(), String::new()],
         warnings: Vec::new(),
+        freezable_top_m: 0.0,
         profiles,
     }
 }

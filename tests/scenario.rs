@@ -656,6 +656,21 @@ fn spin_ups_from_different_starts_reach_the_same_year() {
     for r in [&uniform, &periodic] {
         assert!(r.warnings.is_empty(), "settled: {:?}", r.warnings);
         assert_eq!(r.daily[0].frost_depth_m, 0.0, "no frozen lens at the start");
+        // Ground that can freeze starts under the slab and the board (0.1 + 0.1 m); frost
+        // there has not thawed from above, so no thaw depth lies at or above it.
+        assert_abs(r.freezable_top_m, 0.2, 1e-12, "top of the gravel pad");
+        assert!(
+            r.daily.iter().any(|d| d.frost_depth_m > 0.2),
+            "the pad freezes"
+        );
+        for d in &r.daily {
+            assert!(
+                d.thaw_depth_m == 0.0 || d.thaw_depth_m > 0.2,
+                "day {}: thaw {}",
+                d.day,
+                d.thaw_depth_m
+            );
+        }
     }
     assert_abs(
         periodic.max_frost_depth_m,

@@ -528,7 +528,17 @@ impl Solver {
                 break;
             }
         }
-        let thaw = thaw.min(frost);
+        // Frozen ground starting at the top of the first ground that can freeze (under a slab
+        // or a board, say) has not thawed from above: nothing thawed, depth 0.
+        let top_freezable = ground
+            .clone()
+            .find(|&i| freezes(i))
+            .map_or(0.0, |i| self.cells[i].top_m);
+        let thaw = if thaw <= top_freezable + 1e-12 {
+            0.0
+        } else {
+            thaw.min(frost)
+        };
         Fronts {
             frost_depth_m: frost,
             thaw_depth_m: thaw,
