@@ -10,6 +10,7 @@
 
 pub mod analytic;
 pub mod climate;
+pub mod design;
 pub mod error;
 pub mod materials;
 pub mod shelter;

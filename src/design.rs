@@ -1,0 +1,195 @@
+//! Inverse design: the least value of a design quantity (a board's thickness, a soil
+//! cover) that keeps frost above a given depth through a winter.
+//!
+//! The question is a root of g(x) = frost(x) − target(x) ≤ 0 over a monotone family of
+//! runs: more insulation or more cover never lets frost reach deeper below its target
+//! (Fourier's law: added resistance above the frozen zone lowers the heat drawn out of the
+//! ground; a physical property, not a theorem of the discrete model, so the search checks
+//! the sign change it relies on and says so when it is missing). The search is a bracketed
+//! regula falsi with the Illinois modification (Dowell & Jarratt 1971): superlinear on a
+//! smooth g, never leaving the bracket, and ended by a width tolerance. The answer is the
+//! bracket's safe end, which is checked to meet the target by a run of its own.
+//!
+//! The frost depth read from a run moves in small steps when a layer's thickness moves the
+//! grid's faces (cells are re-laid for each run); the tolerance should be above that noise
+//! (millimetres for centimetre cells).
+
+use crate::transient::run::{run, Forcing, RunSpec};
+use crate::transient::TransientError;
+
+/// How far outside its bracket a trial's excess may fall before the family is declared
+/// not monotone, m: the read-off noise of the frost depth when cells are re-laid (a setting
+/// of this tool, no source).
+pub const MONOTONE_NOISE_M: f64 = 1e-3;
+
+/// Where frost must stay above.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum FrostLimit {
+    /// A fixed depth below the top face, m (a pipe, a footing base at a set depth).
+    Depth(f64),
+    /// The bottom face of a layer (index into the stack): what lies below it (a pipe under
+    /// a soil cover) must not freeze; the limit moves with the thickness of the layers
+    /// above it.
+    BottomOfLayer(usize),
+}
+
+/// One run of the search.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Trial {
+    /// The design value, in the design quantity's unit (m for a thickness).
+    pub value: f64,
+    /// The deepest frost of the run, m below the top face.
+    pub frost_depth_m: f64,
+    /// The limit for this value, m below the top face.
+    pub limit_m: f64,
+}
+
+impl Trial {
+    /// Frost minus limit, m: ≤ 0 when the limit holds.
+    pub fn excess_m(&self) -> f64 {
+        self.frost_depth_m - self.limit_m
+    }
+}
+
+/// The outcome of a search.
+#[derive(Debug, Clone, PartialEq)]
+pub enum DesignAnswer {
+    /// The least value found (within the tolerance: `value − tolerance` does not hold the
+    /// limit, `value` does), with the runs that led there and the answer's sensitivity.
+    Found {
+        value: f64,
+        frost_depth_m: f64,
+        limit_m: f64,
+        /// d(frost − limit)/d(value) near the answer, from the last bracket (m per unit of
+        /// the value; negative: more of the quantity lifts the frost). Its inverse is how
+        /// much more of the quantity each metre the limit moves up would need.
+        slope: f64,
+        trials: Vec<Trial>,
+    },
+    /// Even the smallest value of the range holds the limit: nothing more is needed.
+    SmallestSuffices { trial: Trial },
+    /// Even the largest value of the range lets frost below the limit.
+    NotReachable { trial: Trial },
+    /// The search found frost reaching deeper with more of the quantity between two of its
+    /// runs (the family is not monotone here): no least value can be named.
+    NotMonotone { trials: Vec<Trial> },
+}
+
+/// Search settings.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Search {
+    pub lo: f64,
+    pub hi: f64,
+    /// Stop when the bracket is narrower than this (in the value's unit).
+    pub tolerance: f64,
+    /// At most this many runs in all (the two ends included).
+    pub max_runs: usize,
+}
+
+/// The least `x` in `[s.lo, s.hi]` with `trial(x).excess_m() ≤ 0`, by Illinois regula
+/// falsi on a bracket. `trial` runs one case; errors pass through.
+pub fn least_value<E>(
+    s: &Search,
+    mut trial: impl FnMut(f64) -> Result<Trial, E>,
+) -> Result<DesignAnswer, E> {
+    let mut trials = Vec::new();
+    let lo_t = trial(s.lo)?;
+    trials.push(lo_t);
+    if lo_t.excess_m() <= 0.0 {
+        return Ok(DesignAnswer::SmallestSuffices { trial: lo_t });
+    }
+    let hi_t = trial(s.hi)?;
+    trials.push(hi_t);
+    if hi_t.excess_m() > 0.0 {
+        return Ok(DesignAnswer::NotReachable { trial: hi_t });
+    }
+    // Bracket: g(a) > 0 (fails), g(b) ≤ 0 (holds).
+    let (mut a, mut b) = (lo_t, hi_t);
+    let (mut ga, mut gb) = (a.excess_m(), b.excess_m());
+    let mut side = 0i8;
+    while b.value - a.value > s.tolerance && trials.len() < s.max_runs {
+        // Secant point of the (weighted) bracket, kept off the ends by a tenth.
+        let width = b.value - a.value;
+        let mut x = b.value - gb * width / (gb - ga);
+        let margin = 0.1 * width;
+        x = x.clamp(a.value + margin, b.value - margin);
+        let t = trial(x)?;
+        trials.push(t);
+        let g = t.excess_m();
+        // A run that fails by more than the failing end below it (beyond read-off noise)
+        // means frost reaches deeper with more of the quantity: the family turns back, and
+        // the first value that holds need not be the least. (Among runs that hold, the
+        // excess may grow again — a thicker board deepens the top of the soil below it —
+        // without changing the answer.)
+        if g > 0.0 && g > a.excess_m() + MONOTONE_NOISE_M {
+            return Ok(DesignAnswer::NotMonotone { trials });
+        }
+        if g > 0.0 {
+            a = t;
+            ga = g;
+            if side == -1 {
+                gb *= 0.5; // Illinois: halve the end that stayed twice.
+            }
+            side = -1;
+        } else {
+            b = t;
+            gb = g;
+            if side == 1 {
+                ga *= 0.5;
+            }
+            side = 1;
+        }
+    }
+    let slope = (b.excess_m() - a.excess_m()) / (b.value - a.value);
+    Ok(DesignAnswer::Found {
+        value: b.value,
+        frost_depth_m: b.frost_depth_m,
+        limit_m: b.limit_m,
+        slope,
+        trials,
+    })
+}
+
+/// The limit's depth below the top face for a stack of these thicknesses.
+pub fn limit_depth_m(limit: FrostLimit, thicknesses_m: &[f64]) -> f64 {
+    match limit {
+        FrostLimit::Depth(d) => d,
+        FrostLimit::BottomOfLayer(i) => thicknesses_m[..=i.min(thicknesses_m.len() - 1)]
+            .iter()
+            .sum(),
+    }
+}
+
+/// Below this thickness a trial runs without the layer, m (0.1 mm; a setting of this tool).
+pub const MIN_LAYER_M: f64 = 1e-4;
+
+/// The least thickness of layer `layer` (m, within `s`) of the 1D column `spec` under
+/// `forcing` for which the deepest frost of the run stays at or above `limit`. Each trial
+/// is a whole run (its start, spin-up included, as `spec` says).
+pub fn least_layer_thickness(
+    spec: &RunSpec,
+    forcing: &dyn Forcing,
+    layer: usize,
+    limit: FrostLimit,
+    s: &Search,
+) -> Result<DesignAnswer, TransientError> {
+    least_value(s, |x| {
+        let mut thicknesses = spec.thicknesses_m.clone();
+        thicknesses[layer] = x.max(0.0);
+        let mut sp = spec.clone();
+        if x < MIN_LAYER_M && sp.thicknesses_m.len() > 1 {
+            // No layer at all (a grid cannot hold a layer thinner than this).
+            sp.thicknesses_m.remove(layer);
+            sp.materials.remove(layer);
+            sp.curves.remove(layer);
+        } else {
+            sp.thicknesses_m[layer] = x.max(MIN_LAYER_M);
+        }
+        let r = run(&sp, forcing)?;
+        Ok(Trial {
+            value: x,
+            frost_depth_m: r.max_frost_depth_m,
+            limit_m: limit_depth_m(limit, &thicknesses),
+        })
+    })
+}
