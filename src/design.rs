@@ -86,68 +86,147 @@ pub struct Search {
     pub max_runs: usize,
 }
 
+/// The search as a stepper: ask it for the next value to run (`next_value`), run it,
+/// hand the trial back (`record`), until it gives its answer. The page drives it a run at
+/// a time (each run in slices); [`least_value`] drives it in one call.
+#[derive(Debug, Clone)]
+pub struct Searcher {
+    search: Search,
+    trials: Vec<Trial>,
+    /// The failing and holding ends, and the Illinois weights of their excesses.
+    a: Option<Trial>,
+    b: Option<Trial>,
+    ga: f64,
+    gb: f64,
+    side: i8,
+    pending: Option<f64>,
+    answer: Option<DesignAnswer>,
+}
+
+impl Searcher {
+    pub fn new(search: Search) -> Searcher {
+        Searcher {
+            search,
+            trials: Vec::new(),
+            a: None,
+            b: None,
+            ga: 0.0,
+            gb: 0.0,
+            side: 0,
+            pending: Some(search.lo),
+            answer: None,
+        }
+    }
+
+    /// The value to run next; `None` once the answer is known.
+    pub fn next_value(&self) -> Option<f64> {
+        self.pending
+    }
+
+    /// The runs so far.
+    pub fn trials(&self) -> &[Trial] {
+        &self.trials
+    }
+
+    /// The answer, once the search has ended.
+    pub fn answer(&self) -> Option<&DesignAnswer> {
+        self.answer.as_ref()
+    }
+
+    /// Hand back the run of the value [`Searcher::next_value`] asked for.
+    pub fn record(&mut self, t: Trial) {
+        if self.answer.is_some() {
+            return;
+        }
+        self.trials.push(t);
+        let g = t.excess_m();
+        match (self.a, self.b) {
+            (None, None) if self.trials.len() == 1 => {
+                if g <= 0.0 {
+                    return self.end(DesignAnswer::SmallestSuffices { trial: t });
+                }
+                self.a = Some(t);
+                self.ga = g;
+                self.pending = Some(self.search.hi);
+                return;
+            }
+            (Some(_), None) => {
+                if g > 0.0 {
+                    return self.end(DesignAnswer::NotReachable { trial: t });
+                }
+                self.b = Some(t);
+                self.gb = g;
+            }
+            (Some(a), Some(_)) => {
+                // A run that fails by more than the failing end below it (beyond read-off
+                // noise) means frost reaches deeper with more of the quantity: the family
+                // turns back, and the first value that holds need not be the least. (Among
+                // runs that hold, the excess may grow again — a thicker board deepens the
+                // top of the soil below it — without changing the answer.)
+                if g > 0.0 && g > a.excess_m() + MONOTONE_NOISE_M {
+                    let trials = self.trials.clone();
+                    return self.end(DesignAnswer::NotMonotone { trials });
+                }
+                if g > 0.0 {
+                    self.a = Some(t);
+                    self.ga = g;
+                    if self.side == -1 {
+                        self.gb *= 0.5; // Illinois: halve the end that stayed twice.
+                    }
+                    self.side = -1;
+                } else {
+                    self.b = Some(t);
+                    self.gb = g;
+                    if self.side == 1 {
+                        self.ga *= 0.5;
+                    }
+                    self.side = 1;
+                }
+            }
+            _ => return,
+        }
+        let (Some(a), Some(b)) = (self.a, self.b) else {
+            return;
+        };
+        if b.value - a.value <= self.search.tolerance || self.trials.len() >= self.search.max_runs {
+            let slope = (b.excess_m() - a.excess_m()) / (b.value - a.value);
+            let trials = self.trials.clone();
+            return self.end(DesignAnswer::Found {
+                value: b.value,
+                frost_depth_m: b.frost_depth_m,
+                limit_m: b.limit_m,
+                slope,
+                trials,
+            });
+        }
+        // Secant point of the (weighted) bracket, kept off the ends by a tenth.
+        let width = b.value - a.value;
+        let x = b.value - self.gb * width / (self.gb - self.ga);
+        let margin = 0.1 * width;
+        self.pending = Some(x.clamp(a.value + margin, b.value - margin));
+    }
+
+    fn end(&mut self, answer: DesignAnswer) {
+        self.pending = None;
+        self.answer = Some(answer);
+    }
+}
+
 /// The least `x` in `[s.lo, s.hi]` with `trial(x).excess_m() ≤ 0`, by Illinois regula
-/// falsi on a bracket. `trial` runs one case; errors pass through.
+/// falsi on a bracket ([`Searcher`] driven to its end). `trial` runs one case; errors pass
+/// through.
 pub fn least_value<E>(
     s: &Search,
     mut trial: impl FnMut(f64) -> Result<Trial, E>,
 ) -> Result<DesignAnswer, E> {
-    let mut trials = Vec::new();
-    let lo_t = trial(s.lo)?;
-    trials.push(lo_t);
-    if lo_t.excess_m() <= 0.0 {
-        return Ok(DesignAnswer::SmallestSuffices { trial: lo_t });
+    let mut searcher = Searcher::new(*s);
+    while let Some(x) = searcher.next_value() {
+        searcher.record(trial(x)?);
     }
-    let hi_t = trial(s.hi)?;
-    trials.push(hi_t);
-    if hi_t.excess_m() > 0.0 {
-        return Ok(DesignAnswer::NotReachable { trial: hi_t });
-    }
-    // Bracket: g(a) > 0 (fails), g(b) ≤ 0 (holds).
-    let (mut a, mut b) = (lo_t, hi_t);
-    let (mut ga, mut gb) = (a.excess_m(), b.excess_m());
-    let mut side = 0i8;
-    while b.value - a.value > s.tolerance && trials.len() < s.max_runs {
-        // Secant point of the (weighted) bracket, kept off the ends by a tenth.
-        let width = b.value - a.value;
-        let mut x = b.value - gb * width / (gb - ga);
-        let margin = 0.1 * width;
-        x = x.clamp(a.value + margin, b.value - margin);
-        let t = trial(x)?;
-        trials.push(t);
-        let g = t.excess_m();
-        // A run that fails by more than the failing end below it (beyond read-off noise)
-        // means frost reaches deeper with more of the quantity: the family turns back, and
-        // the first value that holds need not be the least. (Among runs that hold, the
-        // excess may grow again — a thicker board deepens the top of the soil below it —
-        // without changing the answer.)
-        if g > 0.0 && g > a.excess_m() + MONOTONE_NOISE_M {
-            return Ok(DesignAnswer::NotMonotone { trials });
-        }
-        if g > 0.0 {
-            a = t;
-            ga = g;
-            if side == -1 {
-                gb *= 0.5; // Illinois: halve the end that stayed twice.
-            }
-            side = -1;
-        } else {
-            b = t;
-            gb = g;
-            if side == 1 {
-                ga *= 0.5;
-            }
-            side = 1;
-        }
-    }
-    let slope = (b.excess_m() - a.excess_m()) / (b.value - a.value);
-    Ok(DesignAnswer::Found {
-        value: b.value,
-        frost_depth_m: b.frost_depth_m,
-        limit_m: b.limit_m,
-        slope,
-        trials,
-    })
+    Ok(searcher
+        .answer()
+        .cloned()
+        .unwrap_or(DesignAnswer::NotMonotone { trials: Vec::new() }))
 }
 
 /// The limit's depth below the top face for a stack of these thicknesses.

@@ -34,6 +34,9 @@ pub struct WinterDoc {
     /// Length of the run, days (default: the climate's own length).
     #[serde(default)]
     pub duration_days: Option<f64>,
+    /// Also find the least thickness of one layer that keeps frost above a limit.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub least_thickness: Option<crate::scenario_design::LeastThicknessDoc>,
 }
 
 fn default_step() -> f64 {
