@@ -22,6 +22,7 @@ pub mod chart;
 pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;
+pub mod scenario_shelter;
 pub mod scenario_winter;
 
 #[cfg(target_arch = "wasm32")]
