@@ -1076,7 +1076,7 @@ fn reference_line<DB: DrawingBackend>(
     (x0, x1): (f64, f64),
     y: f64,
     colour: RGBColor,
-    label: &str,
+    (label, at_left): (&str, bool),
     scale: f64,
 ) -> Result<(), ChartError> {
     let px = |v: f64| (v * scale).round() as u32;
@@ -1094,11 +1094,14 @@ fn reference_line<DB: DrawingBackend>(
     chart
         .draw_series(std::iter::once(Text::new(
             label.to_string(),
-            (x1, y),
+            (if at_left { x0 } else { x1 }, y),
             ("sans-serif", 11.0 * scale)
                 .into_font()
                 .color(&colour)
-                .pos(Pos::new(HPos::Right, VPos::Bottom)),
+                .pos(Pos::new(
+                    if at_left { HPos::Left } else { HPos::Right },
+                    VPos::Bottom,
+                )),
         )))
         .map_err(err)?;
     Ok(())
@@ -1159,7 +1162,7 @@ pub fn draw_shelter_night<DB: DrawingBackend>(
         (0.0, x_max),
         t(0.0),
         ZERO,
-        &format!("{} {sym}: snow melts", tick(t(0.0), 0)),
+        (&format!("{} {sym}: snow melts", tick(t(0.0), 0)), false),
         scale,
     )?;
     reference_line(
@@ -1167,7 +1170,7 @@ pub fn draw_shelter_night<DB: DrawingBackend>(
         (0.0, x_max),
         t(r.least_wall.target_c),
         TARGET,
-        "target",
+        ("target", false),
         scale,
     )?;
     reference_line(
@@ -1175,7 +1178,7 @@ pub fn draw_shelter_night<DB: DrawingBackend>(
         (0.0, x_max),
         t(n.steady_interior_c),
         AIR_LINE,
-        "steady state",
+        ("steady state", true),
         scale,
     )?;
     type Pick = fn(&crate::scenario_shelter::NightPointDoc) -> f64;
@@ -1257,8 +1260,10 @@ pub fn shelter_night_svg(
 }
 
 /// Draw one series of a shelter (the air inside against wall thickness, people or the
-/// outside temperature): the line, its points where snow melts marked, the 0 °C melt limit,
-/// the target, and the shelter as it stands. `target_c` is the design target.
+/// outside temperature): the line, its points where snow melts marked with red dots, the
+/// 0 °C melt limit, the target, and the shelter as it stands. No legend: the panels are
+/// narrow, the y axis names the line and the page's caption the dots. `target_c` is the
+/// design target.
 pub fn draw_shelter_sweep<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     s: &SeriesDoc,
@@ -1312,7 +1317,7 @@ fn sweep_panel<DB: DrawingBackend>(
     };
     let mut chart = ChartBuilder::on(root)
         .margin(px(12.0))
-        .caption(format!("Air inside against {}", s.x_label), font(15.0))
+        .caption(s.title.clone(), font(15.0))
         .x_label_area_size(px(44.0))
         .y_label_area_size(px(56.0))
         .build_cartesian_2d(x0..x1, y0..y1)
@@ -1341,21 +1346,21 @@ fn sweep_panel<DB: DrawingBackend>(
         (x0, x1),
         t(0.0),
         ZERO,
-        &format!("{} {sym}: snow melts", tick(t(0.0), 0)),
+        (&format!("{} {sym}: snow melts", tick(t(0.0), 0)), false),
         scale,
     )?;
-    reference_line(&mut chart, (x0, x1), t(target_c), TARGET, "target", scale)?;
+    reference_line(
+        &mut chart,
+        (x0, x1),
+        t(target_c),
+        TARGET,
+        ("target", true),
+        scale,
+    )?;
     for run in finite_runs(s.points.iter().map(|p| (x(p.x), t(p.interior_c)))) {
         chart
             .draw_series(line(run, PROFILE, px(2.5)))
-            .map_err(err)?
-            .label("Air inside")
-            .legend(move |(x, y)| {
-                PathElement::new(
-                    vec![(x, y), (x + px(18.0) as i32, y)],
-                    PROFILE.stroke_width(px(2.5)),
-                )
-            });
+            .map_err(err)?;
     }
     let melting: Vec<(f64, f64)> = s
         .points
@@ -1370,9 +1375,7 @@ fn sweep_panel<DB: DrawingBackend>(
                     .into_iter()
                     .map(|c| Circle::new(c, px(3.5), ZERO.filled())),
             )
-            .map_err(err)?
-            .label("Snow surface melting")
-            .legend(move |(x, y)| Circle::new((x + px(9.0) as i32, y), px(3.5), ZERO.filled()));
+            .map_err(err)?;
     }
     if let Some(cx) = s
         .current_x
@@ -1403,8 +1406,6 @@ fn sweep_panel<DB: DrawingBackend>(
                 font(12.0).pos(Pos::new(HPos::Center, VPos::Center)),
             )))
             .map_err(err)?;
-    } else {
-        draw_legend(&mut chart, SeriesLabelPosition::LowerRight, scale)?;
     }
     Ok(())
 }

@@ -650,6 +650,8 @@ pub struct SeriesDoc {
     /// The page's unit quantity of x (thickness, fraction, temperature).
     pub x_quantity: &'static str,
     pub x_label: String,
+    /// A short title for a chart panel.
+    pub title: String,
     /// The value of x in the scenario as it stands.
     pub current_x: Option<f64>,
     pub points: Vec<SeriesPointDoc>,
@@ -888,6 +890,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         id: "thickness",
         x_quantity: "thickness",
         x_label: thickness_name(&doc.shape).to_string(),
+        title: "By wall thickness".into(),
         current_x: current_t,
         points: thick_points,
         note,
@@ -897,6 +900,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         id: "people",
         x_quantity: "count",
         x_label: "people inside".into(),
+        title: "By the number of people".into(),
         current_x: Some(co.people as f64),
         points: series_points(shelter::sweep_people(&sh, &co, &people).map_err(core_error)?),
         note: None,
@@ -906,6 +910,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         id: "outside",
         x_quantity: "temperature",
         x_label: "outside air temperature".into(),
+        title: "By the outside temperature".into(),
         current_x: Some(co.outside_c),
         points: series_points(
             shelter::sweep_outside_temperature(&sh, &co, &xs).map_err(core_error)?,

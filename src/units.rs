@@ -107,7 +107,7 @@ pub const CFM_PER_M3_S: f64 = 1.0 / 4.719_474e-4;
 pub const FT2_PER_M2: f64 = 1.0 / 0.092_903_04;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 28] = [
+pub const QUANTITIES: [Quantity; 29] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -209,6 +209,12 @@ pub const QUANTITIES: [Quantity; 28] = [
         // A time stored in seconds, shown in hours (the night of a shelter).
         si: u("h", 1.0 / 3600.0, 0.0, 1),
         us: u("h", 1.0 / 3600.0, 0.0, 1),
+    },
+    Quantity {
+        id: "time_h",
+        // A time stored in hours (the length of a shelter's night).
+        si: u("h", 1.0, 0.0, 1),
+        us: u("h", 1.0, 0.0, 1),
     },
     Quantity {
         id: "power",

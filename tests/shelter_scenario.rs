@@ -285,11 +285,13 @@ fn the_charts_carry_their_axes_series_and_limits() {
     assert!(us.contains("Temperature (°F)") && us.contains("32 °F: snow melts"));
     let sweeps = hibernal::chart::shelter_sweeps_svg(&r, UnitSystem::Us, 1500, 480).unwrap();
     for want in [
-        "Air inside against wall thickness",
+        "By wall thickness",
         "Wall thickness (in)",
-        "Air inside against people inside",
-        "Air inside against outside air temperature",
+        "By the number of people",
+        "People inside",
+        "By the outside temperature",
         "Outside air temperature (°F)",
+        "Air inside (°F)",
     ] {
         assert!(sweeps.contains(want), "series chart has {want:?}");
     }
