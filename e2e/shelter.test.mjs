@@ -60,7 +60,8 @@ test('a shelter example shows the air inside, the cautions and drawn charts', ()
   assert.equal(await page.locator('#s-least').getAttribute('data-answer'), 'reached');
   // The cautions sit beside the results and are on screen with them.
   const cautions = page.locator('#s-caution-list li');
-  assert.ok(await cautions.count() >= 7);
+  assert.ok(await cautions.count() >= 8);
+  assert.match(await page.locator('[data-caution="collapse"]').textContent(), /collapse/);
   await assert.doesNotReject(page.locator('[data-caution="carbon-monoxide"]').waitFor({ state: 'visible' }));
   assert.match(await page.locator('[data-caution="carbon-monoxide"]').textContent(), /Never sleep with a stove/);
   assert.match(await page.locator('[data-caution="wall-thickness"]').textContent(), /30 cm/);

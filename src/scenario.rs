@@ -726,7 +726,7 @@ pub const EXAMPLES: [Example; 8] = [
     },
     Example {
         id: "drift-cave-two",
-        summary: "A drift cave for two with a 5 cm vent at −25 °C: the deep snow keeps it warmer than a dome",
+        summary: "A drift cave for two with a 5 cm vent at −25 °C: the deep snow around it keeps the air at the melt limit, and the roof drips",
         json: include_str!("../scenarios/drift-cave-two.json"),
     },
 ];

@@ -434,7 +434,9 @@ impl ShelterDoc {
         NightSettings {
             duration_s: n.duration_h * 3600.0,
             step_s: n.step_s,
-            snow_start_c: n.snow_start_c.unwrap_or(snow_default).min(0.0),
+            // A default from an outside temperature above 0 °C (refused on its own field) is
+            // held at 0 °C, so the error is not repeated on a field nobody set.
+            snow_start_c: n.snow_start_c.unwrap_or(snow_default.min(0.0)),
             air_start_c: n.air_start_c.unwrap_or(c.outside_c),
             target_c: Some(self.design.target_c),
             lining: n.lining,
@@ -875,7 +877,8 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
     let mut sweeps = Vec::with_capacity(3);
     let current_t = sh.shape.main_thickness_m();
     let (thick_points, note) = if current_t.is_some() {
-        let xs = even(s.thickness_m[0], s.thickness_m[1], s.points);
+        let (lo, hi) = sweep_thickness_range(&sh, s.thickness_m);
+        let xs = even(lo, hi, s.points);
         (
             series_points(shelter::sweep_wall_thickness(&sh, &co, &xs).map_err(core_error)?),
             None,
@@ -1025,6 +1028,27 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         warnings,
         cautions: cautions(),
     })
+}
+
+/// The thickness range of the series, narrowed for a pile so that its base (kept in
+/// proportion to the crown) stays within the thicknesses the core accepts.
+fn sweep_thickness_range(sh: &Shelter, [lo, hi]: [f64; 2]) -> (f64, f64) {
+    if let Shape::HollowedPile {
+        crown_thickness_m,
+        base_thickness_m,
+        ..
+    } = sh.shape
+    {
+        let ratio = base_thickness_m / crown_thickness_m;
+        let (min, max) = shelter::model::limits::THICKNESS_M;
+        if ratio.is_finite() && ratio > 0.0 {
+            let (a, b) = (lo.max(min / ratio), hi.min(max / ratio));
+            if a < b {
+                return (a, b);
+            }
+        }
+    }
+    (lo, hi)
 }
 
 /// Which zones are snow (melt at 0 °C), in the model's order.

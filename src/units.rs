@@ -107,7 +107,7 @@ pub const CFM_PER_M3_S: f64 = 1.0 / 4.719_474e-4;
 pub const FT2_PER_M2: f64 = 1.0 / 0.092_903_04;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 29] = [
+pub const QUANTITIES: [Quantity; 30] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -226,6 +226,11 @@ pub const QUANTITIES: [Quantity; 29] = [
         // Stored in kg/h (a melt rate).
         si: u("kg/h", 1.0, 0.0, 2),
         us: u("lb/h", LB_PER_KG, 0.0, 2),
+    },
+    Quantity {
+        id: "mass",
+        si: u("kg", 1.0, 0.0, 2),
+        us: u("lb", LB_PER_KG, 0.0, 2),
     },
     Quantity {
         id: "speed",

@@ -52,7 +52,15 @@ fn the_shelter_examples_round_trip_and_agree_with_the_core() {
         );
         assert!(r.night.energy_imbalance_relative < 1e-9);
         assert_eq!(r.cautions.len(), hibernal::shelter::cautions().len());
-        assert!(r.cautions.iter().any(|c| c.id == "carbon-monoxide"));
+        for id in [
+            "carbon-monoxide",
+            "vent-open",
+            "wall-thickness",
+            "collapse",
+            "avalanche",
+        ] {
+            assert!(r.cautions.iter().any(|c| c.id == id), "{id}");
+        }
         assert!(r.cautions.iter().all(|c| !c.source.is_empty()));
     }
 }
@@ -227,6 +235,19 @@ fn the_series_move_the_right_way_and_the_least_wall_is_named() {
 }
 
 #[test]
+fn a_pile_keeps_its_base_in_range_along_the_thickness_series() {
+    // Crown 0.3 m, base 1.5 m: the base is five times the crown, so a crown of 1 m would give
+    // a 5 m base, beyond the 3 m accepted; the series stops at a 0.6 m crown instead.
+    let mut v = value("training-dome-four");
+    v["shelter"]["shape"] = json!({ "kind": "hollowed-pile", "inner_radius_m": 1.4,
+        "crown_thickness_m": 0.3, "base_thickness_m": 1.5 });
+    let r = run(v).unwrap();
+    let xs: Vec<f64> = r.sweeps[0].points.iter().map(|p| p.x).collect();
+    assert_abs(*xs.first().unwrap(), 0.1, 1e-12, "first crown");
+    assert_abs(*xs.last().unwrap(), 0.6, 1e-12, "last crown");
+}
+
+#[test]
 fn csv_files_name_their_units_and_convert() {
     let r = run(value("training-dome-four")).unwrap();
     let si = night_csv(&r, UnitSystem::Si);
@@ -341,7 +362,7 @@ fn cli_runs_a_shelter_and_writes_its_files() {
     let report: Value = serde_json::from_slice(&out.stdout).unwrap();
     let sh = &report["shelter"];
     assert!(sh["interior_c"].as_f64().unwrap() > -20.0);
-    assert!(sh["cautions"].as_array().unwrap().len() >= 7);
+    assert!(sh["cautions"].as_array().unwrap().len() >= 8);
     assert!(sh["cautions"][0]["source"]
         .as_str()
         .unwrap()
@@ -401,5 +422,90 @@ fn the_schema_describes_the_shelter() {
         "target_c",
     ] {
         assert!(schema.contains(want), "schema has {want}");
+    }
+}
+
+mod never_panics {
+    use super::*;
+    use proptest::prelude::*;
+
+    /// Paths of every numeric leaf under `shelter`.
+    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
+        match v {
+            Value::Number(_) => out.push(path.clone()),
+            Value::Object(m) => {
+                for (k, x) in m {
+                    path.push(k.clone());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            Value::Array(a) => {
+                for (i, x) in a.iter().enumerate() {
+                    path.push(i.to_string());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            _ => {}
+        }
+    }
+
+    fn set(v: &mut Value, path: &[String], new: Value) {
+        let mut cur = v;
+        for k in path {
+            cur = match cur {
+                Value::Object(m) => m.get_mut(k).unwrap(),
+                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
+                _ => unreachable!(),
+            };
+        }
+        *cur = new;
+    }
+
+    fn arb_leaf() -> impl Strategy<Value = Value> {
+        prop_oneof![
+            (-100f64..100.0).prop_map(|x| json!(x)),
+            (0f64..3.0).prop_map(|x| json!(x)),
+            prop::num::f64::NORMAL.prop_map(|x| json!(x)),
+            (0u32..80).prop_map(|x| json!(x)),
+            Just(json!(0.0)),
+            Just(json!(1e-300)),
+            Just(Value::Null),
+            Just(json!("x")),
+        ]
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
+
+        /// A shelter example with up to three numeric fields of its shelter section replaced
+        /// by anything is computed (with finite numbers and its cautions) or refused with
+        /// errors naming `shelter…` fields: never a panic.
+        #[test]
+        fn mutated_shelters_never_panic(
+            which in 0usize..SHELTER_EXAMPLES.len(),
+            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+        ) {
+            let mut v = value(SHELTER_EXAMPLES[which]);
+            let mut paths = Vec::new();
+            numeric_paths(&v["shelter"], &mut vec!["shelter".to_string()], &mut paths);
+            for (idx, leaf) in picks {
+                let p = idx.get(&paths).clone();
+                set(&mut v, &p, leaf);
+            }
+            match run(v) {
+                Ok(r) => {
+                    prop_assert!(r.interior_c.is_finite());
+                    prop_assert!(!r.cautions.is_empty());
+                    let _ = hibernal::chart::shelter_night_svg(&r, UnitSystem::Us, 300, 200);
+                    let _ = hibernal::chart::shelter_sweeps_svg(&r, UnitSystem::Si, 600, 200);
+                }
+                Err(e) => {
+                    prop_assert!(!e.0.is_empty());
+                    prop_assert!(e.0.iter().all(|x| x.field.starts_with("shelter")), "{e}");
+                }
+            }
+        }
     }
 }

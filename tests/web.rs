@@ -179,7 +179,7 @@ fn a_climate_record_imports_with_its_lines_named() {
 fn a_shelter_computes_draws_and_names_its_bad_fields() {
     let c = web::catalogue();
     let cautions: Array = get(&c, "cautions").dyn_into().unwrap();
-    assert!(cautions.length() >= 7);
+    assert!(cautions.length() >= 8);
     let shapes: Array = get(&c, "shelter_shapes").dyn_into().unwrap();
     assert_eq!(shapes.length(), 4);
 

@@ -1614,7 +1614,7 @@
     const thicknessName = r.sweeps[0] ? r.sweeps[0].x_label : 'wall';
     const least = $('s-least');
     least.dataset.answer = lw.answer;
-    const strength = ' Build walls and roof at least about ' + (state.units === 'us' ? '12\u00a0in' : '30\u00a0cm') + ' thick all the same, for strength.';
+    const strength = ' Build walls and roof at least about ' + fmtNum(Math.round(toDisplay('thickness', 0.3)), 0) + '\u00a0' + unit('thickness').symbol + ' thick all the same, for strength.';
     switch (lw.answer) {
       case 'reached':
         least.textContent = fmtU('thickness', Math.ceil(lw.thickness_m * 100) / 100);
@@ -1689,7 +1689,7 @@
       : 'It does not get within 90 % of that rise during the night: the walls take days to warm through. ';
     nt += n.target_time_s != null ? 'It reaches the ' + fmtU('temperature', lw.target_c) + ' wanted after ' + hoursText(n.target_time_s) + '.'
       : 'It does not reach the ' + fmtU('temperature', lw.target_c) + ' wanted during the night.';
-    if (n.melted_kg >= 0.005) nt += ' About ' + fmtNum(n.melted_kg * (state.units === 'us' ? 1 / 0.45359237 : 1), 2) + (state.units === 'us' ? '\u00a0lb' : '\u00a0kg') + ' of snow melts over the night.';
+    if (n.melted_kg >= 0.005) nt += ' About ' + fmtU('mass', n.melted_kg) + ' of snow melts over the night.';
     $('s-night').textContent = nt;
 
     const wl = $('s-warnings');
