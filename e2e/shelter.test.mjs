@@ -92,7 +92,7 @@ test('more people warm it, a thinner wall cools it', () => withPage(async (page)
   const thin = await interior(page);
   assert.ok(thin < base - 0.5, `15 cm wall ${thin} colder than 35 cm ${base}`);
   // A thin wall is warned about beside its field.
-  assert.match(await msgFor(page, 'shelter.shape.wall_thickness_m').textContent(), /30 cm/);
+  assert.match(await msgFor(page, 'shelter.shape.wall_thickness_m').textContent(), /15\.0\scm is thinner than about 30\scm/);
 }));
 
 test('a big stove trips the melt limit: the page says it will glaze and gives kg/h', () => withPage(async (page) => {
@@ -125,6 +125,14 @@ test('the unit switch converts the interior temperature', () => withPage(async (
   // A value typed in °F reaches the core in °C: −4 °F is −20 °C, the example's own.
   await type(page, 'shelter.conditions.outside_c', '-4');
   assert.equal((await shown(page, '#s-interior')).value, f.value);
+  // Warnings speak the units shown: a 6 in wall against the 12 in (30 cm) of the manuals.
+  await type(page, 'shelter.shape.wall_thickness_m', '6');
+  const warn = await msgFor(page, 'shelter.shape.wall_thickness_m').textContent();
+  assert.match(warn, /6\.00\sin is thinner than about 12\sin/, warn);
+  assert.doesNotMatch(warn, /cm/);
+  await type(page, 'shelter.conditions.stove_w', '5000');
+  assert.match(await page.locator('#s-surface-sub').textContent(), /lb\/h/);
+  assert.doesNotMatch(await page.locator('#s-warnings').textContent(), /kg|°C/);
 }));
 
 test('a negative radius is named beside its field, and fixing it recovers', () => withPage(async (page) => {

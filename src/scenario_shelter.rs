@@ -925,6 +925,9 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
     for w in r.warnings.iter().chain(&night.warnings) {
         push_unique(&mut warnings, w);
     }
+    for w in &mut warnings {
+        describe_warning(w, doc, &sh, r.melt_kg_per_h);
+    }
 
     let gains = r.gains_w.max(f64::MIN_POSITIVE);
     let loss = |id, name, heat_w: f64| LossDoc {
@@ -1028,6 +1031,60 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         warnings,
         cautions: cautions(),
     })
+}
+
+/// Give the warnings whose numbers a face shows in its own units a `kind` and those numbers
+/// (SI): `melting` (value: kg/h), `thin_wall` (value: the thickness, m; max: the 0.30 m the
+/// field manuals give), `density_range` (value: kg/m³; min and max: the regression's fitted
+/// range). Known by the field they name, which the core's checks fix.
+fn describe_warning(w: &mut ErrorDoc, doc: &ShelterDoc, sh: &Shelter, melt_kg_per_h: f64) {
+    let thickness = |key: &str| -> Option<f64> {
+        match (doc.shape, key) {
+            (
+                ShapeDoc::BlockDome {
+                    wall_thickness_m, ..
+                },
+                "wall_thickness_m",
+            ) => Some(wall_thickness_m),
+            (
+                ShapeDoc::HollowedPile {
+                    crown_thickness_m, ..
+                },
+                "crown_thickness_m",
+            ) => Some(crown_thickness_m),
+            (
+                ShapeDoc::HollowedPile {
+                    base_thickness_m, ..
+                },
+                "base_thickness_m",
+            ) => Some(base_thickness_m),
+            (
+                ShapeDoc::DriftCave {
+                    exposed_face: Some(f),
+                    ..
+                },
+                "exposed_face.thickness_m",
+            ) => Some(f.thickness_m),
+            (
+                ShapeDoc::Trench {
+                    roof_thickness_m, ..
+                },
+                "roof_thickness_m",
+            ) => Some(roof_thickness_m),
+            _ => None,
+        }
+    };
+    if w.field == "shelter" && melt_kg_per_h > 0.0 {
+        w.kind = Some("melting");
+        w.value = Some(melt_kg_per_h);
+    } else if w.field == "shelter.snow_density_kg_m3" {
+        let (lo, hi) = sh.snow_correlation.valid_range_kg_m3();
+        w.kind = Some("density_range");
+        (w.value, w.min, w.max) = (Some(sh.snow_density_kg_m3), Some(lo), Some(hi));
+    } else if let Some(t) = w.field.strip_prefix("shelter.shape.").and_then(thickness) {
+        w.kind = Some("thin_wall");
+        (w.value, w.max) = (Some(t), Some(shelter::model::limits::THIN_WALL_M));
+    }
 }
 
 /// The thickness range of the series, narrowed for a pile so that its base (kept in

@@ -185,6 +185,13 @@ fn a_big_stove_trips_the_melt_limit_and_a_lining_is_compared() {
         "a lining lets the air get warmer"
     );
     assert!(hot.warnings.iter().any(|w| w.message.contains("glaze")));
+    // The melt warning carries its number for a face to word in its own units.
+    let melt = hot
+        .warnings
+        .iter()
+        .find(|w| w.kind == Some("melting"))
+        .unwrap();
+    assert_eq!(melt.value, Some(hot.melt_kg_per_h));
     assert!(hot
         .warnings
         .iter()
@@ -232,6 +239,31 @@ fn the_series_move_the_right_way_and_the_least_wall_is_named() {
     let r = run(v).unwrap();
     assert_eq!(r.least_wall.answer, "no-thickness-to-choose");
     assert!(r.sweeps[0].points.is_empty() && r.sweeps[0].note.is_some());
+}
+
+#[test]
+fn warnings_with_numbers_carry_them() {
+    let mut v = value("training-dome-four");
+    v["shelter"]["shape"]["wall_thickness_m"] = json!(0.2);
+    v["shelter"]["snow_density_kg_m3"] = json!(120.0);
+    let r = run(v).unwrap();
+    let thin = r
+        .warnings
+        .iter()
+        .find(|w| w.field == "shelter.shape.wall_thickness_m")
+        .unwrap();
+    assert_eq!(
+        (thin.kind, thin.value, thin.max),
+        (Some("thin_wall"), Some(0.2), Some(0.3))
+    );
+    let rho = r
+        .warnings
+        .iter()
+        .find(|w| w.field == "shelter.snow_density_kg_m3")
+        .unwrap();
+    assert_eq!(rho.kind, Some("density_range"));
+    assert_eq!(rho.value, Some(120.0));
+    assert!(rho.min.unwrap() > 120.0, "below the regression's range");
 }
 
 #[test]

@@ -1487,7 +1487,7 @@
     openings.push(
       numField(s, 'vent_diameter_m', 'shelter.vent_diameter_m', 'Vent hole diameter', 'thickness', { hint: 'keep it open' }),
       numField(s, 'lining_m2k_per_w', 'shelter.lining_m2k_per_w', 'A lining to compare (R)', 'r_value', { cls: 'span2', hint: 'fabric hung in front of the walls; 0: none' }),
-      numField(s, 'inside_film_w_m2k', 'shelter.inside_film_w_m2k', 'Inside surface film', 'film', { cls: 'span2', hint: 'about 6–8 W/(m²·K)' }));
+      numField(s, 'inside_film_w_m2k', 'shelter.inside_film_w_m2k', 'Inside surface film', 'film', { cls: 'span2', hint: 'about ' + fmt('film', 6) + '–' + fmtU('film', 8) }));
     box('s-openings', grid(...openings));
 
     const c = s.conditions;
@@ -1499,7 +1499,7 @@
         options: (CAT.activities || []).map((a) => ({ value: a.id, text: a.name + ' (' + a.met + ' met)', title: a.source })),
         get: () => c.activity, set: (v) => { c.activity = v; },
       }),
-      numField(c, 'body_area_m2', C + 'body_area_m2', 'Body surface of one person', 'area', { hint: 'about 1.8 m² for an adult' }),
+      numField(c, 'body_area_m2', C + 'body_area_m2', 'Body surface of one person', 'area', { hint: 'about ' + fmtU('area', 1.8) + ' for an adult' }),
       numField(c, 'candles', C + 'candles', 'Candles burning', 'count'),
       numField(c, 'stove_w', C + 'stove_w', 'Stove burning (fuel power)', 'power', { hint: '0: none' }),
       numField(c, 'stove_heat_share', C + 'stove_heat_share', 'Share of the stove heating the air', 'fraction', { hint: 'the rest goes into the pot' })));
@@ -1695,12 +1695,30 @@
     const wl = $('s-warnings');
     clear(wl);
     for (const w of r.warnings || []) {
-      wl.append(el('li', { text: (w.field === 'shelter' ? 'Shelter' : describePath(w.field)) + ': ' + w.message }));
-      placeMessage(w.field, w.message, 'warning');
+      const text = shelterWarning(w);
+      wl.append(el('li', { text: (w.field === 'shelter' ? 'Shelter' : describePath(w.field)) + ': ' + text }));
+      placeMessage(w.field, text, 'warning');
     }
     wl.hidden = !wl.firstChild;
     $('s-night-csv').disabled = false;
     $('s-sweeps-csv').disabled = false;
+  }
+
+  // The warnings whose numbers the core gives in SI, worded in the units shown.
+  function shelterWarning(w) {
+    const sc = state.scenario.shelter;
+    switch (w.kind) {
+      case 'melting':
+        return 'the inner snow surface would pass ' + freezeT() + ': it is held there and about ' + fmtU('mass_rate', w.value) + ' of snow melts; the surface will drip and glaze with ice';
+      case 'thin_wall':
+        return fmtU('thickness', w.value) + ' is thinner than about ' + fmtNum(Math.round(toDisplay('thickness', w.max)), 0) + '\u00a0' + unit('thickness').symbol +
+          ', the least the field manuals give for caves and hollowed piles (US Army FM 21-76); light showing through means it is too thin';
+      case 'density_range': {
+        const c = CAT.snow_correlations.find((k) => sc && k.id === sc.snow_correlation);
+        return fmtU('density', w.value) + ' is outside the ' + fmt('density', w.min) + '–' + fmtU('density', w.max) + ' range ' + (c ? c.name : 'the regression') + ' was fitted to';
+      }
+      default: return w.message;
+    }
   }
 
   function shelterChart(id, draw) {
@@ -1919,6 +1937,8 @@
     $('example-pick').value = id;
     $('example-summary').textContent = ex ? ex.summary : '';
     adopt(W.example(id));
+    // A shelter example is about the shelter: bring its section into view.
+    if (state.scenario && state.scenario.shelter && typeof $('shelter').scrollIntoView === 'function') $('shelter').scrollIntoView({ block: 'start' });
   }
 
   if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', start);
