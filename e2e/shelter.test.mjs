@@ -185,3 +185,21 @@ test('the night and series download as CSV in the units shown', () => withPage(a
   assert.match(series, /^series,x,x unit,air inside \[°F\]/);
   assert.match(series, /\nthickness,[0-9.]+,in,/);
 }));
+
+test('warmer snow at the start makes a warmer first night, and the page says what it assumed', () => withPage(async (page) => {
+  await openDome(page);
+  const night = async () => page.locator('#s-night').textContent();
+  const before = await night();
+  assert.match(before, /snow starting at −20\.0\s°C/);
+  const endOf = async () => Number(/;\s(−?[0-9.]+)\s°C at the end of the first/.exec((await page.locator('#s-interior-sub').textContent()))[1].replace('−', '-'));
+  const cold = await endOf();
+  await type(page, 'shelter.night.snow_start_c', '-5');
+  assert.match(await night(), /snow starting at −5\.0\s°C/);
+  const warm = await endOf();
+  assert.ok(warm > cold + 1, `end of night ${warm} °C from −5 °C snow against ${cold} °C from −20 °C snow`);
+  // The steady state does not depend on where the night starts.
+  const t = await interior(page);
+  await type(page, 'shelter.night.snow_start_c', '');
+  assert.equal(await interior(page), t);
+  assert.match(await night(), /snow starting at −20\.0\s°C/);
+}));

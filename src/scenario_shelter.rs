@@ -607,6 +607,9 @@ pub struct NightPointDoc {
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct NightReportDoc {
     pub duration_s: f64,
+    /// The snow's and the air's temperature at the start, °C (as given or by default).
+    pub snow_start_c: f64,
+    pub air_start_c: f64,
     pub steady_interior_c: f64,
     /// Time for the air to cover 90 % of its rise to the steady temperature, s.
     pub warmup_time_s: Option<f64>,
@@ -1018,6 +1021,8 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         },
         night: NightReportDoc {
             duration_s: settings.duration_s,
+            snow_start_c: settings.snow_start_c,
+            air_start_c: settings.air_start_c,
             steady_interior_c: night.steady_interior_c,
             warmup_time_s: night.warmup_time_s,
             target_time_s: night.target_time_s,

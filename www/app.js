@@ -1511,7 +1511,14 @@
 
     box('s-ask', grid(
       numField(s.design, 'target_c', 'shelter.design.target_c', 'Air inside wanted', 'temperature', { hint: 'for the least wall' }),
-      numField(s.night, 'duration_h', 'shelter.night.duration_h', 'Length of the night', 'time_h')));
+      numField(s.night, 'duration_h', 'shelter.night.duration_h', 'Length of the night', 'time_h'),
+      numField(s.night, 'snow_start_c', 'shelter.night.snow_start_c', 'Snow at the start', 'temperature', {
+        optional: true, placeholder: () => fmtInput('temperature', sh.kind === 'block-dome' || sh.kind === 'hollowed-pile' ? Math.min(0, c.outside_c) : c.snowpack_c),
+        hint: 'blank: the outside air for a dome or pile, the snowpack for a cave or trench',
+      }),
+      numField(s.night, 'air_start_c', 'shelter.night.air_start_c', 'Air inside at the start', 'temperature', {
+        optional: true, placeholder: () => fmtInput('temperature', c.outside_c), hint: 'blank: the outside air',
+      })));
     for (const e of document.querySelectorAll('#shelter [data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
   }
 
@@ -1684,7 +1691,7 @@
 
     const n = r.night;
     const lastN = n.samples[n.samples.length - 1];
-    let nt = 'After ' + hoursText(n.duration_s) + ' the air inside is at ' + fmtU('temperature', lastN ? lastN.interior_c : null) + ', on its way to ' + fmtU('temperature', n.steady_interior_c) + '. ';
+    let nt = 'With the snow starting at ' + fmtU('temperature', n.snow_start_c) + ' and the air at ' + fmtU('temperature', n.air_start_c) + ': after ' + hoursText(n.duration_s) + ' the air inside is at ' + fmtU('temperature', lastN ? lastN.interior_c : null) + ', on its way to ' + fmtU('temperature', n.steady_interior_c) + '. ';
     nt += n.warmup_time_s != null ? 'It covers 90 % of that rise in ' + hoursText(n.warmup_time_s) + '. '
       : 'It does not get within 90 % of that rise during the night: the walls take days to warm through. ';
     nt += n.target_time_s != null ? 'It reaches the ' + fmtU('temperature', lw.target_c) + ' wanted after ' + hoursText(n.target_time_s) + '.'
