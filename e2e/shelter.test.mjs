@@ -68,6 +68,8 @@ test('a shelter example shows the air inside, the cautions and drawn charts', ()
   const box = await page.locator('#s-cautions').boundingBox();
   const big = await page.locator('#s-interior').boundingBox();
   assert.ok(Math.abs(box.y - big.y) < 300, 'cautions beside the big number, not far below');
+  // The band names the spread, and says when the regression in use is the warmest one.
+  assert.match(await page.locator('#s-band').textContent(), /gives the warmest answer/);
   // Losses by path add to 100 %.
   const shares = await page.locator('#s-losses tbody td:last-child').allTextContents();
   const sum = shares.map((s) => Number(s.replace(/[^0-9.]/g, ''))).reduce((a, b) => a + b, 0);
@@ -191,7 +193,7 @@ test('warmer snow at the start makes a warmer first night, and the page says wha
   const night = async () => page.locator('#s-night').textContent();
   const before = await night();
   assert.match(before, /snow starting at −20\.0\s°C/);
-  const endOf = async () => Number(/;\s(−?[0-9.]+)\s°C at the end of the first/.exec((await page.locator('#s-interior-sub').textContent()))[1].replace('−', '-'));
+  const endOf = async () => Number(/^(−?[0-9.]+)\s°C at the end of the first/.exec((await page.locator('#s-interior-sub').textContent()))[1].replace('−', '-'));
   const cold = await endOf();
   await type(page, 'shelter.night.snow_start_c', '-5');
   assert.match(await night(), /snow starting at −5\.0\s°C/);

@@ -541,3 +541,18 @@ mod never_panics {
         }
     }
 }
+
+#[test]
+fn a_winter_and_a_shelter_run_side_by_side() {
+    let mut v = value("training-dome-four");
+    v["winter"] = value("silty-yard-design-winter")["winter"].clone();
+    let s = scenario::from_value(v).unwrap();
+    let c = scenario::compute_all(&s).unwrap();
+    assert!(c.winter.is_some() && c.shelter.is_some());
+    let alone = run(value("training-dome-four")).unwrap();
+    assert_eq!(
+        c.shelter.unwrap().interior_c,
+        alone.interior_c,
+        "the winter does not touch the shelter"
+    );
+}

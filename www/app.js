@@ -1596,8 +1596,8 @@
     $('s-interior').textContent = fmt('temperature', r.interior_c);
     const rise = r.interior_c - r.outside_c;
     const endOfNight = r.night.samples.length ? r.night.samples[r.night.samples.length - 1].interior_c : null;
-    $('s-interior-sub').textContent = fmtU('temperature_difference', rise) + ' warmer than the ' + fmtU('temperature', r.outside_c) + ' outside once the walls have warmed through (steady state); ' +
-      fmtU('temperature', endOfNight) + ' at the end of the first ' + hoursText(r.night.duration_s) + '.';
+    $('s-interior-sub').textContent = fmtU('temperature', endOfNight) + ' at the end of the first ' + hoursText(r.night.duration_s) + '; in the steady state ' +
+      fmtU('temperature_difference', rise) + ' warmer than the ' + fmtU('temperature', r.outside_c) + ' outside.';
     const surf = $('s-surface');
     surf.classList.toggle('melting', r.surface_state === 'melting');
     surf.classList.toggle('frozen', r.surface_state !== 'melting');
@@ -1676,7 +1676,9 @@
     const b = r.band;
     const nameOf = (id) => { const x = CAT.snow_correlations.find((k) => k.id === id); return x ? x.name : id; };
     $('s-band').textContent = 'Across the ' + b.by_correlation.length + ' published snow conductivity regressions the air inside lies between ' + fmt('temperature', b.coldest_c) + ' and ' + fmtU('temperature', b.warmest_c) +
-      ' (coldest with ' + nameOf(b.coldest_id) + ', warmest with ' + nameOf(b.warmest_id) + '): snow conducts heat about twice as well in some measurements as in others.';
+      ' (coldest with ' + nameOf(b.coldest_id) + ', warmest with ' + nameOf(b.warmest_id) + '): snow conducts heat about twice as well in some measurements as in others.' +
+      (scen && scen.snow_correlation === b.warmest_id && b.warmest_c - b.coldest_c > 0.05 ? ' The regression in use gives the warmest answer of them all: plan for the colder end.'
+        : scen && scen.snow_correlation === b.coldest_id && b.warmest_c - b.coldest_c > 0.05 ? ' The regression in use gives the coldest answer of them all.' : '');
     const bt = $('s-band-table');
     clear(bt.tHead); clear(bt.tBodies[0]);
     bt.tHead.append(el('tr', null, headCell('Regression', null), headCell('Snow conductivity', 'conductivity'), headCell('Air inside', 'temperature'), headCell('Melting', 'mass_rate')));
