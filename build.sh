@@ -9,6 +9,8 @@
 set -euo pipefail
 cd "$(dirname "$0")"
 ROOT=$(pwd)
+# Cargo's output directory (CARGO_TARGET_DIR if set, as cargo itself honours it).
+TARGET_DIR=${CARGO_TARGET_DIR:-target}
 
 log() { printf '\033[1m[build]\033[0m %s\n' "$*" >&2; }
 # The wasm-bindgen version Cargo.lock pins; the CLI must match it exactly.
@@ -75,24 +77,25 @@ build_page() {
   ensure_wasm_opt
   log "compiling the core to wasm"
   cargo build --release --target wasm32-unknown-unknown --lib >&2
-  rm -rf target/web
+  rm -rf "$TARGET_DIR/web"
   wasm-bindgen --target no-modules --no-typescript --remove-name-section --remove-producers-section \
-    --out-dir target/web \
-    target/wasm32-unknown-unknown/release/hibernal.wasm >&2
+    --out-dir "$TARGET_DIR/web" \
+    "$TARGET_DIR/wasm32-unknown-unknown/release/hibernal.wasm" >&2
   # binaryen before version 116 mis-encodes the reference types and externref table that
   # this wasm-bindgen emits (Chromium then refuses the module), so older wasm-opt is skipped.
   local wo_version
   wo_version=$(wasm-opt --version 2>/dev/null | awk '{print $3}' || true)
   if [ -n "$wo_version" ] && [ "$wo_version" -ge 116 ] 2>/dev/null; then
-    if wasm-opt -Oz --all-features target/web/hibernal_bg.wasm -o target/web/hibernal_bg.opt.wasm; then
-      mv target/web/hibernal_bg.opt.wasm target/web/hibernal_bg.wasm
+    if wasm-opt -Oz --all-features "$TARGET_DIR/web/hibernal_bg.wasm" -o "$TARGET_DIR/web/hibernal_bg.opt.wasm"; then
+      mv "$TARGET_DIR/web/hibernal_bg.opt.wasm" "$TARGET_DIR/web/hibernal_bg.wasm"
     else
       log "wasm-opt could not optimise this module; using it as built"
     fi
   elif [ -n "$wo_version" ]; then
     log "wasm-opt $wo_version is older than 116 and breaks this module; skipping it"
   fi
-  node tools/inline.mjs >&2
+  HIBERNAL_GLUE="$TARGET_DIR/web/hibernal.js" HIBERNAL_WASM="$TARGET_DIR/web/hibernal_bg.wasm" \
+    node tools/inline.mjs >&2
   echo "$ROOT/dist/hibernal.html"
 }
 

@@ -1,7 +1,7 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
 //! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`], [`shelter`],
-//! [`climate`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
+//! [`climate`], [`design`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
 //! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
 //! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
 //! from CSV text), [`climate_import`] (that record brought into a scenario, with its
@@ -24,6 +24,7 @@ pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;
 pub mod scenario_design;
+pub mod scenario_shelter;
 pub mod scenario_winter;
 
 #[cfg(target_arch = "wasm32")]

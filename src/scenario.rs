@@ -2,10 +2,12 @@
 //! its faces (page, CLI). These are serialisable mirrors of the core types: the core itself
 //! has no serde.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 2, ...}`, all values SI. Version 2
+//! Format: `{"format": "hibernal-scenario", "version": 3, ...}`, all values SI. Version 2
 //! adds the optional `winter` section (a transient run of the same stack,
-//! [`crate::scenario_winter`]); version 1 documents, which have none, still load. A document
-//! from a newer version is refused with a message.
+//! [`crate::scenario_winter`]); version 3 the optional `shelter` section (a snow shelter,
+//! [`crate::scenario_shelter`], which stands on its own beside the stack). Version 1 and 2
+//! documents, which have neither, still load. A document from a newer version is refused
+//! with a message.
 
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
@@ -18,7 +20,7 @@ use crate::steady::{self, SnowBand, SteadyResult};
 /// The `format` tag every scenario carries.
 pub const FORMAT_TAG: &str = "hibernal-scenario";
 /// The newest version this build reads and writes.
-pub const FORMAT_VERSION: u32 = 2;
+pub const FORMAT_VERSION: u32 = 3;
 /// Largest document accepted, bytes.
 pub const MAX_DOCUMENT_BYTES: usize = 1 << 20;
 /// Points per layer in the reported profile.
@@ -30,7 +32,7 @@ pub const PROFILE_POINTS_PER_LAYER: usize = 24;
 pub struct Scenario {
     /// Always "hibernal-scenario".
     pub format: String,
-    /// Format version; this build reads 1.
+    /// Format version; this build reads 1 to 3.
     pub version: u32,
     #[serde(default)]
     pub title: String,
@@ -45,6 +47,9 @@ pub struct Scenario {
     /// A winter run of the same stack (version 2 and later).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub winter: Option<crate::scenario_winter::WinterDoc>,
+    /// A snow shelter (version 3 and later). It does not use `layers`, `top` or `bottom`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub shelter: Option<crate::scenario_shelter::ShelterDoc>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -292,6 +297,12 @@ impl Scenario {
                 InputErrorKind::Format("a winter section needs format version 2 or later".into()),
             );
         }
+        if self.version < 3 && self.shelter.is_some() {
+            errs.push(
+                "shelter",
+                InputErrorKind::Format("a shelter section needs format version 3 or later".into()),
+            );
+        }
         if self.title.chars().count() > 200 {
             errs.push(
                 "title",
@@ -493,6 +504,9 @@ pub struct Report {
     /// The winter run, when the scenario has one and it was asked for.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub winter: Option<crate::scenario_winter::WinterReport>,
+    /// The shelter, when the scenario has one and it was asked for.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub shelter: Option<crate::scenario_shelter::ShelterReport>,
     pub warnings: Vec<ErrorDoc>,
 }
 
@@ -502,8 +516,10 @@ pub struct Computed {
     pub result: SteadyResult,
     pub band: Option<SnowBand>,
     pub depths_m: Vec<f64>,
-    /// Filled by [`compute_with_winter`] only.
+    /// Filled by [`compute_with_winter`] and [`compute_all`] only.
     pub winter: Option<crate::scenario_winter::WinterReport>,
+    /// Filled by [`compute_all`] only.
+    pub shelter: Option<crate::scenario_shelter::ShelterReport>,
 }
 
 /// Solve a scenario: the steady result and the band across snow regressions.
@@ -520,6 +536,7 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
         band,
         depths_m,
         winter: None,
+        shelter: None,
     })
 }
 
@@ -534,6 +551,27 @@ pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
         )?);
     }
     Ok(c)
+}
+
+/// [`compute_with_winter`], plus the shelter when the scenario has a shelter section. The
+/// errors of the stack and of the shelter come together, so every one is named at once.
+pub fn compute_all(s: &Scenario) -> Result<Computed, InputErrors> {
+    let shelter = s
+        .shelter
+        .as_ref()
+        .map(crate::scenario_shelter::run_shelter)
+        .transpose();
+    match (compute_with_winter(s), shelter) {
+        (Ok(mut c), Ok(sh)) => {
+            c.shelter = sh;
+            Ok(c)
+        }
+        (Err(mut a), Err(b)) => {
+            a.0.extend(b.0);
+            Err(a)
+        }
+        (Err(e), _) | (_, Err(e)) => Err(e),
+    }
 }
 
 /// Build the report of a computed scenario.
@@ -635,6 +673,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             .collect(),
         band,
         winter: c.winter.clone(),
+        shelter: c.shelter.clone(),
         warnings: r.warnings.iter().map(ErrorDoc::from).collect(),
     }
 }
@@ -649,7 +688,7 @@ pub struct Example {
 }
 
 /// The bundled examples; the page starts from the first.
-pub const EXAMPLES: [Example; 6] = [
+pub const EXAMPLES: [Example; 8] = [
     Example {
         id: "snow-over-foam-on-silt",
         summary: "40 cm of wind-packed snow over 50 mm of foam board over silty soil",
@@ -679,6 +718,16 @@ pub const EXAMPLES: [Example; 6] = [
         id: "cabin-porch-slab-snowy-winter",
         summary: "A cabin's porch slab on foam board, gravel and silt through a snowy winter: change the board and watch the deepest frost move",
         json: include_str!("../scenarios/cabin-porch-slab-snowy-winter.json"),
+    },
+    Example {
+        id: "training-dome-four",
+        summary: "A snow-block dome for four on a training night at −20 °C in a 5 m/s wind: how warm, how thick, how the night goes",
+        json: include_str!("../scenarios/training-dome-four.json"),
+    },
+    Example {
+        id: "drift-cave-two",
+        summary: "A drift cave for two with a 5 cm vent at −25 °C: the deep snow around it keeps the air at the melt limit, and the roof drips",
+        json: include_str!("../scenarios/drift-cave-two.json"),
     },
 ];
 

@@ -95,8 +95,19 @@ pub const BTU_FT3_PER_J_M3: f64 = 1.0 / 37_258.9;
 /// converts as a temperature interval (1 K = 1.8 °F, NIST SP 811 B.9), with no offset.
 pub const DEG_F_DAYS_PER_DEG_C_DAYS: f64 = DEG_F_PER_K;
 
+/// W → Btu/h (1 Btu_IT/h = 0.293 071 1 W).
+pub const BTU_H_PER_W: f64 = 1.0 / 0.293_071_1;
+/// kg → lb (1 lb = 0.453 592 37 kg, exact).
+pub const LB_PER_KG: f64 = 1.0 / 0.453_592_37;
+/// m/s → mph (1 mph = 0.447 04 m/s, exact).
+pub const MPH_PER_M_S: f64 = 1.0 / 0.447_04;
+/// m³/s → ft³/min (1 ft³/min = 4.719 474 × 10⁻⁴ m³/s).
+pub const CFM_PER_M3_S: f64 = 1.0 / 4.719_474e-4;
+/// m² → ft² (1 ft² = 0.092 903 04 m², exact).
+pub const FT2_PER_M2: f64 = 1.0 / 0.092_903_04;
+
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 19] = [
+pub const QUANTITIES: [Quantity; 30] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -192,6 +203,66 @@ pub const QUANTITIES: [Quantity; 19] = [
         // Stored in seconds, shown in hours.
         si: u("h", 1.0 / 3600.0, 0.0, 2),
         us: u("h", 1.0 / 3600.0, 0.0, 2),
+    },
+    Quantity {
+        id: "hours",
+        // A time stored in seconds, shown in hours (the night of a shelter).
+        si: u("h", 1.0 / 3600.0, 0.0, 1),
+        us: u("h", 1.0 / 3600.0, 0.0, 1),
+    },
+    Quantity {
+        id: "time_h",
+        // A time stored in hours (the length of a shelter's night).
+        si: u("h", 1.0, 0.0, 1),
+        us: u("h", 1.0, 0.0, 1),
+    },
+    Quantity {
+        id: "power",
+        si: u("W", 1.0, 0.0, 0),
+        us: u("Btu/h", BTU_H_PER_W, 0.0, 0),
+    },
+    Quantity {
+        id: "mass_rate",
+        // Stored in kg/h (a melt rate).
+        si: u("kg/h", 1.0, 0.0, 2),
+        us: u("lb/h", LB_PER_KG, 0.0, 2),
+    },
+    Quantity {
+        id: "mass",
+        si: u("kg", 1.0, 0.0, 2),
+        us: u("lb", LB_PER_KG, 0.0, 2),
+    },
+    Quantity {
+        id: "speed",
+        si: u("m/s", 1.0, 0.0, 1),
+        us: u("mph", MPH_PER_M_S, 0.0, 1),
+    },
+    Quantity {
+        id: "ppm",
+        si: u("ppm", 1.0, 0.0, 0),
+        us: u("ppm", 1.0, 0.0, 0),
+    },
+    Quantity {
+        id: "air_flow",
+        // Stored in m³/s, shown in L/s.
+        si: u("L/s", 1000.0, 0.0, 1),
+        us: u("ft³/min", CFM_PER_M3_S, 0.0, 1),
+    },
+    Quantity {
+        id: "area",
+        si: u("m²", 1.0, 0.0, 2),
+        us: u("ft²", FT2_PER_M2, 0.0, 1),
+    },
+    Quantity {
+        id: "count",
+        si: u("", 1.0, 0.0, 0),
+        us: u("", 1.0, 0.0, 0),
+    },
+    Quantity {
+        id: "length",
+        // Room sizes: m or ft.
+        si: u("m", 1.0, 0.0, 2),
+        us: u("ft", FT_PER_M, 0.0, 2),
     },
 ];
 

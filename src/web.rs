@@ -90,6 +90,14 @@ struct NFactorInfo {
 }
 
 #[derive(Serialize)]
+struct ActivityInfo {
+    id: &'static str,
+    name: &'static str,
+    met: f64,
+    source: &'static str,
+}
+
+#[derive(Serialize)]
 struct UnitInfo {
     symbol: &'static str,
     factor: f64,
@@ -116,6 +124,12 @@ struct Catalogue {
     n_factor_presets: Vec<NFactorInfo>,
     /// Kinds of starting state a winter run accepts.
     initial_kinds: Vec<&'static str>,
+    /// Shelter shapes (ids as the scenario names them) with plain names.
+    shelter_shapes: Vec<IdName>,
+    /// What people in a shelter do, with the metabolic rate and its source.
+    activities: Vec<ActivityInfo>,
+    /// The shelter cautions, always shown, with their sources.
+    cautions: Vec<crate::scenario_shelter::CautionDoc>,
     units: std::collections::BTreeMap<&'static str, QuantityInfo>,
 }
 
@@ -204,6 +218,25 @@ pub fn catalogue() -> JsValue {
             })
             .collect(),
         initial_kinds: vec!["uniform", "spin-up", "periodic"],
+        shelter_shapes: [
+            ("block-dome", "Dome of snow blocks"),
+            ("hollowed-pile", "Pile of snow, hollowed out"),
+            ("drift-cave", "Cave dug into a drift"),
+            ("trench", "Trench roofed with snow blocks"),
+        ]
+        .into_iter()
+        .map(|(id, name)| IdName { id, name })
+        .collect(),
+        activities: crate::shelter::Activity::ALL
+            .iter()
+            .map(|a| ActivityInfo {
+                id: a.id(),
+                name: a.name(),
+                met: a.met(),
+                source: a.source(),
+            })
+            .collect(),
+        cautions: crate::scenario_shelter::cautions(),
         units: QUANTITIES
             .iter()
             .map(|q| {
@@ -227,6 +260,15 @@ struct ExampleInfo {
     summary: &'static str,
 }
 
+/// A bundled example read through a JSON value, the path the page's own scenarios take
+/// (`scenario::from_value`): reading text straight into the document would build a second
+/// copy of every deserializer into the module (about 100 KiB) for eight known-good files.
+fn bundled(json: &str) -> Result<scenario::Scenario, scenario::ErrorDoc> {
+    let v: serde_json::Value =
+        serde_json::from_str(json).map_err(|e| ErrorDoc::plain("", e.to_string()))?;
+    scenario::from_value(v).map_err(|e| ErrorDoc::plain("", e.to_string()))
+}
+
 /// The bundled examples: `[{id, title, summary}]`.
 #[wasm_bindgen]
 pub fn examples() -> JsValue {
@@ -234,7 +276,7 @@ pub fn examples() -> JsValue {
         .iter()
         .map(|e| ExampleInfo {
             id: e.id,
-            title: scenario::parse(e.json)
+            title: bundled(e.json)
                 .map(|s| s.title)
                 .unwrap_or_else(|_| e.id.to_string()),
             summary: e.summary,
@@ -246,7 +288,7 @@ pub fn examples() -> JsValue {
 /// One example as a scenario object, or null if there is none by that id.
 #[wasm_bindgen]
 pub fn example(id: &str) -> JsValue {
-    match scenario::example(id).map(|e| scenario::parse(e.json)) {
+    match scenario::example(id).map(|e| bundled(e.json)) {
         Some(Ok(s)) => to_js(&s),
         _ => JsValue::NULL,
     }
@@ -617,6 +659,135 @@ impl WinterRun {
         };
         use plotters::prelude::IntoDrawingArea;
         match f(&backend.into_drawing_area(), w) {
+            Ok(()) => to_js(&DrawOutcome {
+                ok: true,
+                message: None,
+            }),
+            Err(e) => fail(e.to_string()),
+        }
+    }
+}
+
+/// A snow shelter of a scenario, computed at once (steady balance, band, night, least wall,
+/// series: well under 100 ms). Never throws: a scenario that cannot be computed is reported
+/// by [`ShelterRun::errors`], each error naming its field.
+#[wasm_bindgen]
+pub struct ShelterRun {
+    report: Option<crate::scenario_shelter::ShelterReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+#[wasm_bindgen]
+impl ShelterRun {
+    /// Read the scenario and compute its shelter section.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> ShelterRun {
+        let fail = |errors: Vec<ErrorDoc>| ShelterRun {
+            report: None,
+            errors,
+        };
+        let s = match read_scenario(scenario_value) {
+            Ok(s) => s,
+            Err(e) => return fail(e),
+        };
+        let Some(doc) = &s.shelter else {
+            return fail(vec![ErrorDoc::plain(
+                "shelter",
+                "the scenario has no shelter section",
+            )]);
+        };
+        match crate::scenario_shelter::run_shelter(doc) {
+            Ok(r) => ShelterRun {
+                report: Some(r),
+                errors: Vec::new(),
+            },
+            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+        }
+    }
+
+    /// Why there is no result (`[]` when there is one).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// The report (SI), or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+
+    /// The night as CSV text in the chosen units (units in the header); empty without a
+    /// result.
+    pub fn night_csv(&self, unit_system: &str) -> String {
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_shelter::night_csv(r, units(unit_system))
+        })
+    }
+
+    /// The three series as CSV text in the chosen units; empty without a result.
+    pub fn sweeps_csv(&self, unit_system: &str) -> String {
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_shelter::sweeps_csv(r, units(unit_system))
+        })
+    }
+
+    /// Draw the night (air and inner surfaces against the hours) on a canvas.
+    pub fn draw_night(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| {
+            crate::chart::draw_shelter_night(root, r, units(unit_system), pixel_ratio)
+        })
+    }
+
+    /// Draw one series (0: wall thickness, 1: people, 2: outside temperature) on a canvas.
+    pub fn draw_sweep(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        which: u32,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| match r.sweeps.get(which as usize) {
+            Some(s) => crate::chart::draw_shelter_sweep(
+                root,
+                s,
+                r.least_wall.target_c,
+                units(unit_system),
+                pixel_ratio,
+            ),
+            None => Err(crate::chart::ChartError(format!(
+                "there is no series {which}"
+            ))),
+        })
+    }
+}
+
+impl ShelterRun {
+    fn draw(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        f: impl FnOnce(
+            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &crate::scenario_shelter::ShelterReport,
+        ) -> Result<(), crate::chart::ChartError>,
+    ) -> JsValue {
+        let fail = |m: String| {
+            to_js(&DrawOutcome {
+                ok: false,
+                message: Some(m),
+            })
+        };
+        let Some(r) = &self.report else {
+            return fail("the shelter has no result".into());
+        };
+        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+            return fail("the canvas has no 2D context".into());
+        };
+        use plotters::prelude::IntoDrawingArea;
+        match f(&backend.into_drawing_area(), r) {
             Ok(()) => to_js(&DrawOutcome {
                 ok: true,
                 message: None,

@@ -174,3 +174,89 @@ fn a_climate_record_imports_with_its_lines_named() {
     let bad = web::import_climate_csv("date,temperature\n", JsValue::from_str("nonsense"));
     assert_eq!(get(&bad, "ok").as_bool(), Some(false));
 }
+
+#[wasm_bindgen_test]
+fn a_shelter_computes_draws_and_names_its_bad_fields() {
+    let c = web::catalogue();
+    let cautions: Array = get(&c, "cautions").dyn_into().unwrap();
+    assert!(cautions.length() >= 8);
+    let shapes: Array = get(&c, "shelter_shapes").dyn_into().unwrap();
+    assert_eq!(shapes.length(), 4);
+
+    let r = web::ShelterRun::new(example("training-dome-four"));
+    assert_eq!(Array::from(&r.errors()).length(), 0);
+    let rep = r.report();
+    let t = get(&rep, "interior_c").as_f64().unwrap();
+    // Warmer than the −20 °C outside, and no warmer than the melt limit allows.
+    assert!(t > -20.0 && t < 1.0, "{t}");
+    let rc: Array = get(&rep, "cautions").dyn_into().unwrap();
+    assert_eq!(rc.length(), cautions.length());
+    assert!(r.night_csv("us").starts_with("time [h],air inside [°F]"));
+    assert!(r.sweeps_csv("si").contains("thickness,"));
+
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let canvas: web_sys::HtmlCanvasElement =
+        doc.create_element("canvas").unwrap().dyn_into().unwrap();
+    canvas.set_width(600);
+    canvas.set_height(360);
+    let out = r.draw_night(canvas.clone(), "si", 1.0);
+    assert_eq!(get(&out, "ok").as_bool(), Some(true));
+    let ctx: web_sys::CanvasRenderingContext2d = canvas
+        .get_context("2d")
+        .unwrap()
+        .unwrap()
+        .dyn_into()
+        .unwrap();
+    let px = ctx.get_image_data(0.0, 0.0, 600.0, 360.0).unwrap().data();
+    let dark = px.chunks(4).filter(|p| p[0] < 100 && p[3] > 0).count();
+    assert!(dark > 200, "the night chart has ink ({dark} dark pixels)");
+    for which in 0..3 {
+        assert_eq!(
+            get(&r.draw_sweep(canvas.clone(), which, "us", 2.0), "ok").as_bool(),
+            Some(true)
+        );
+    }
+    assert_eq!(
+        get(&r.draw_sweep(canvas, 7, "si", 1.0), "ok").as_bool(),
+        Some(false)
+    );
+
+    // A negative radius is named, with the other bad field, and nothing throws.
+    let s = example("training-dome-four");
+    let sh = get(&s, "shelter");
+    Reflect::set(
+        &get(&sh, "shape"),
+        &"inner_radius_m".into(),
+        &JsValue::from_f64(-1.0),
+    )
+    .unwrap();
+    Reflect::set(
+        &get(&sh, "conditions"),
+        &"outside_c".into(),
+        &JsValue::from_f64(5.0),
+    )
+    .unwrap();
+    let bad = web::ShelterRun::new(s);
+    let errs: Array = bad.errors().dyn_into().unwrap();
+    let fields: Vec<String> = errs
+        .iter()
+        .map(|e| get(&e, "field").as_string().unwrap())
+        .collect();
+    assert!(
+        fields.contains(&"shelter.shape.inner_radius_m".to_string()),
+        "{fields:?}"
+    );
+    assert!(
+        fields.contains(&"shelter.conditions.outside_c".to_string()),
+        "{fields:?}"
+    );
+    assert!(bad.report().is_null());
+    for junk in [
+        JsValue::NULL,
+        JsValue::from_str("x"),
+        example("snow-block-wall"),
+    ] {
+        let r = web::ShelterRun::new(junk);
+        assert!(Array::from(&r.errors()).length() > 0);
+    }
+}

@@ -32,10 +32,12 @@ mod cli {
         command: Command,
     }
 
+    // Parsed once per process: the size of `Run` costs nothing.
+    #[allow(clippy::large_enum_variant)]
     #[derive(Subcommand)]
     enum Command {
-        /// Compute a scenario file (and its winter run, if it has one) and print the report as
-        /// JSON (SI units).
+        /// Compute a scenario file (and its winter run and its snow shelter, if it has them)
+        /// and print the report as JSON (SI units). A shelter's report carries its cautions.
         Run {
             /// Scenario file (JSON).
             file: PathBuf,
@@ -70,6 +72,22 @@ mod cli {
             /// day, to this CSV file (in the units of --units, named in the header).
             #[arg(long, value_name = "OUT.csv")]
             profiles_csv: Option<PathBuf>,
+            /// Also write the shelter's first night (air and inner surface temperatures against
+            /// the hours) to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            night_svg: Option<PathBuf>,
+            /// Also write the shelter's night series (air, surfaces, melt, CO2 every 10
+            /// minutes) to this CSV file (in the units of --units, named in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            night_csv: Option<PathBuf>,
+            /// Also write the shelter's three series (air inside against wall thickness,
+            /// people and outside temperature) to this SVG file, one panel each.
+            #[arg(long, value_name = "OUT.svg")]
+            sweeps_svg: Option<PathBuf>,
+            /// Also write the shelter's three series to this CSV file (in the units of
+            /// --units, named in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            sweeps_csv: Option<PathBuf>,
             /// Units of the charts and of the CSV files: si or us.
             #[arg(long, default_value = "si")]
             units: String,
@@ -165,6 +183,10 @@ mod cli {
                 profile_day,
                 series_svg,
                 profiles_csv,
+                night_svg,
+                night_csv,
+                sweeps_svg,
+                sweeps_csv,
                 units,
             } => {
                 let Some(sys) = UnitSystem::from_id(&units) else {
@@ -178,7 +200,7 @@ mod cli {
                     Ok(s) => s,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
-                let computed = match scenario::compute_with_winter(&sc) {
+                let computed = match scenario::compute_all(&sc) {
                     Ok(c) => c,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
@@ -242,6 +264,32 @@ mod cli {
                         return fail("--profiles-csv needs a scenario with a winter section");
                     };
                     if let Err(e) = std::fs::write(&out, profiles_csv_text(w, sys)) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
+                let shelter_outputs: [(&str, Option<PathBuf>); 4] = [
+                    ("--night-svg", night_svg),
+                    ("--night-csv", night_csv),
+                    ("--sweeps-svg", sweeps_svg),
+                    ("--sweeps-csv", sweeps_csv),
+                ];
+                for (option, out) in shelter_outputs {
+                    let Some(out) = out else { continue };
+                    let Some(r) = &computed.shelter else {
+                        return fail(format!("{option} needs a scenario with a shelter section"));
+                    };
+                    use hibernal::scenario_shelter::{night_csv, sweeps_csv};
+                    let text = match option {
+                        "--night-svg" => hibernal::chart::shelter_night_svg(r, sys, 900, 520),
+                        "--sweeps-svg" => hibernal::chart::shelter_sweeps_svg(r, sys, 1500, 480),
+                        "--night-csv" => Ok(night_csv(r, sys)),
+                        _ => Ok(sweeps_csv(r, sys)),
+                    };
+                    let text = match text {
+                        Ok(t) => t,
+                        Err(e) => return fail(e),
+                    };
+                    if let Err(e) = std::fs::write(&out, text) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
                 }

@@ -15,7 +15,7 @@ pub struct Caution {
     pub source: &'static str,
 }
 
-const CAUTIONS: [Caution; 7] = [
+const CAUTIONS: [Caution; 8] = [
     Caution {
         id: "carbon-monoxide",
         text: "Stoves, lamps and candles make carbon monoxide, which cannot be seen or smelt, and it builds up fast in a snow shelter. Never sleep with a stove, lamp or candle burning.",
@@ -35,6 +35,11 @@ const CAUTIONS: [Caution; 7] = [
         id: "light-through-roof",
         text: "If daylight shows through the roof, it is too thin.",
         source: "US Army FM 21-76 / FM 3-05.70",
+    },
+    Caution {
+        id: "collapse",
+        text: "A snow roof can sag and collapse, the more so when it is thin or melting: keep a shovel inside, within reach.",
+        source: "common practice in snow-shelter instruction (from memory, no single source)",
     },
     Caution {
         id: "avalanche",
