@@ -7,7 +7,9 @@
 //! ground; a physical property, not a theorem of the discrete model, so the search checks
 //! the sign change it relies on and says so when it is missing). The search is a bracketed
 //! regula falsi with the Illinois modification (Dowell & Jarratt 1971): superlinear on a
-//! smooth g, never leaving the bracket, and ended by a width tolerance. The answer is the
+//! smooth g, never leaving the bracket, with a bisection whenever two runs in a row move
+//! the same end (so a g that jumps costs about what bisection costs), and ended by a width
+//! tolerance. The answer is the
 //! bracket's safe end, which is checked to meet the target by a run of its own.
 //!
 //! The frost depth read from a run moves in small steps when a layer's thickness moves the
@@ -101,6 +103,8 @@ pub struct Searcher {
     side: i8,
     pending: Option<f64>,
     answer: Option<DesignAnswer>,
+    /// Whether the last two runs inside the bracket moved the same end.
+    same_side_twice: bool,
 }
 
 impl Searcher {
@@ -115,6 +119,7 @@ impl Searcher {
             side: 0,
             pending: Some(search.lo),
             answer: None,
+            same_side_twice: false,
         }
     }
 
@@ -167,6 +172,7 @@ impl Searcher {
                     let trials = self.trials.clone();
                     return self.end(DesignAnswer::NotMonotone { trials });
                 }
+                self.same_side_twice = (g > 0.0 && self.side == -1) || (g <= 0.0 && self.side == 1);
                 if g > 0.0 {
                     self.a = Some(t);
                     self.ga = g;
@@ -199,11 +205,18 @@ impl Searcher {
                 trials,
             });
         }
-        // Secant point of the (weighted) bracket, kept off the ends by a tenth.
+        // Secant point of the (weighted) bracket, kept off the ends by a tenth; bisection
+        // when two runs in a row have moved the same end (frost that jumps — soil that
+        // starts to freeze at all — makes the secant crawl from one side).
         let width = b.value - a.value;
-        let x = b.value - self.gb * width / (self.gb - self.ga);
-        let margin = 0.1 * width;
-        self.pending = Some(x.clamp(a.value + margin, b.value - margin));
+        let x = if self.same_side_twice {
+            0.5 * (a.value + b.value)
+        } else {
+            let x = b.value - self.gb * width / (self.gb - self.ga);
+            let margin = 0.1 * width;
+            x.clamp(a.value + margin, b.value - margin)
+        };
+        self.pending = Some(x);
     }
 
     fn end(&mut self, answer: DesignAnswer) {

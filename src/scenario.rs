@@ -544,11 +544,15 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
 pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
     let mut c = compute(s)?;
     if let Some(w) = &s.winter {
-        c.winter = Some(crate::scenario_winter::run_winter(
-            w,
-            &c.result.stack,
-            &s.layers,
-        )?);
+        let mut report = crate::scenario_winter::run_winter(w, &c.result.stack, &s.layers)?;
+        if w.least_thickness.is_some() {
+            report.least_thickness = Some(crate::scenario_design::run_design(
+                w,
+                &c.result.stack,
+                &s.layers,
+            )?);
+        }
+        c.winter = Some(report);
     }
     Ok(c)
 }

@@ -155,7 +155,8 @@ pub struct LeastThicknessReport {
     pub frost_depth_m: f64,
     pub limit_m: f64,
     /// d(frost − limit)/d(thickness) near the answer (m per m; negative: more of the layer
-    /// lifts the frost).
+    /// lifts the frost); absent where frost jumps across the answer (with the answer's
+    /// thickness the ground below does not freeze at all).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub slope: Option<f64>,
     pub resolution_m: f64,
@@ -322,7 +323,9 @@ impl DesignJob {
                     frost_depth_m: *frost_depth_m,
                     limit_m: *limit_m,
                 },
-                Some(*slope),
+                // Where the holding run's ground does not freeze at all, frost jumps
+                // across the answer and a slope means nothing.
+                (*frost_depth_m > 0.0).then_some(*slope),
             ),
             DesignAnswer::SmallestSuffices { trial } => {
                 base("smallest-suffices", Some(trial.value), trial, None)

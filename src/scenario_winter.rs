@@ -471,6 +471,10 @@ pub struct WinterReport {
     /// Notes on the run: a model that does not cover part of the input, a start that did
     /// not settle.
     pub warnings: Vec<ErrorDoc>,
+    /// The least-thickness search, when the section asks for one and it was run
+    /// ([`crate::scenario::compute_with_winter`] runs it; the page runs it on request).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub least_thickness: Option<crate::scenario_design::LeastThicknessReport>,
     /// The temperature of each cell (centres in `envelope`) at the end of each day; left out
     /// of the JSON report (the CLI writes it as CSV on request).
     #[serde(skip)]
@@ -695,6 +699,7 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         layer_names,
         warnings: Vec::new(),
         freezable_top_m: 0.0,
+        least_thickness: None,
         profiles: r
             .profiles
             .into_iter()

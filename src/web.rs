@@ -494,6 +494,95 @@ struct Step<'a> {
     errors: Option<&'a [ErrorDoc]>,
 }
 
+/// The least-thickness search of a scenario's winter section, advanced a slice at a time
+/// (each of its runs is a whole winter). Never throws: problems come back through
+/// [`DesignRun::errors`] and `advance`.
+#[wasm_bindgen]
+pub struct DesignRun {
+    job: Option<crate::scenario_design::DesignJob>,
+    report: Option<crate::scenario_design::LeastThicknessReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+#[wasm_bindgen]
+impl DesignRun {
+    /// Check the scenario (stack, winter section and its `least_thickness`) and set up.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> DesignRun {
+        let fail = |errors: Vec<ErrorDoc>| DesignRun {
+            job: None,
+            report: None,
+            errors,
+        };
+        let (s, c) = match computed(scenario_value) {
+            Ok(v) => v,
+            Err(e) => return fail(e),
+        };
+        let Some(w) = &s.winter else {
+            return fail(vec![ErrorDoc::plain(
+                "winter",
+                "the scenario has no winter section",
+            )]);
+        };
+        match crate::scenario_design::DesignJob::new(w, &c.result.stack, &s.layers) {
+            Ok(job) => DesignRun {
+                job: Some(job),
+                report: None,
+                errors: Vec::new(),
+            },
+            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+        }
+    }
+
+    /// Why the search cannot go on (`[]` while it can).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
+    pub fn advance(&mut self, budget_ms: f64) -> JsValue {
+        let t0 = clock_ms();
+        let budget = if budget_ms.is_finite() {
+            budget_ms.clamp(1.0, 10_000.0)
+        } else {
+            16.0
+        };
+        while let Some(job) = self.job.as_mut() {
+            match job.advance(48) {
+                Ok(p) if p.finished => {
+                    self.report = self.job.take().and_then(|j| j.report());
+                    break;
+                }
+                Ok(_) => {
+                    if clock_ms() - t0 >= budget {
+                        break;
+                    }
+                }
+                Err(e) => {
+                    self.errors = e.0.iter().map(ErrorDoc::from).collect();
+                    self.job = None;
+                }
+            }
+        }
+        let (fraction, finished) = match (&self.job, &self.report) {
+            (Some(j), _) => (j.progress().fraction, false),
+            (None, Some(_)) => (1.0, true),
+            (None, None) => (0.0, false),
+        };
+        to_js(&Step {
+            ok: self.errors.is_empty(),
+            fraction,
+            finished,
+            errors: (!self.errors.is_empty()).then_some(&self.errors[..]),
+        })
+    }
+
+    /// The report once finished, or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+}
+
 /// A winter run of a scenario, advanced a slice at a time so that the page can show
 /// progress and stay responsive. Never throws: a scenario that cannot run is reported by
 /// [`WinterRun::errors`], and a run that fails by `advance`.

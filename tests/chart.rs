@@ -87,6 +87,7 @@ fn hand_report(
         layer_names: vec!["Top & gravel <fill>".into(), String::new()],
         warnings: Vec::new(),
         freezable_top_m: 0.0,
+        least_thickness: None,
         profiles,
     }
 }

@@ -521,6 +521,7 @@
   function run() {
     clearTimeout(state.timer);
     clearMessages();
+    designStale();
     const local = localErrors();
     if (local.length) {
       for (const e of local) {
@@ -761,6 +762,10 @@
   const WINTER_DEBOUNCE_MS = 200;
   const SLICE_MS = 14;
   const winter = {
+    design: null, // the least-thickness search being set up (applied to the scenario when run)
+    designRun: null, // the DesignRun under way
+    designGen: 0,
+    designReport: null,
     job: null, // the WinterRun that finished last (drawn from), or null
     running: null, // the WinterRun under way
     generation: 0,
@@ -1010,7 +1015,179 @@
     );
     det.append(gg);
     ru.append(det);
+    renderDesignFields();
     for (const e of document.querySelectorAll('#winter [data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
+  }
+
+  // ---------- least thickness ----------
+  function defaultDesign() {
+    const L = state.scenario.layers;
+    let i = L.findIndex((l) => l.material && l.material.kind === 'insulation');
+    if (i < 0) i = 0;
+    return { layer: i, keep_frost_above: { kind: 'layer-bottom', layer: i }, min_m: 0, max_m: 0.3, resolution_m: 0.002 };
+  }
+
+  function designDraft() {
+    const w = state.scenario.winter;
+    if (!winter.design) winter.design = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultDesign();
+    const d = winter.design;
+    const n = state.scenario.layers.length;
+    if (d.layer >= n) d.layer = n - 1;
+    if (d.keep_frost_above.kind === 'layer-bottom' && d.keep_frost_above.layer >= n) d.keep_frost_above.layer = n - 1;
+    return d;
+  }
+
+  function renderDesignFields() {
+    const box = $('w-design-fields');
+    clear(box);
+    const d = designDraft();
+    const layerOptions = state.scenario.layers.map((l, i) => ({ value: String(i), text: (i + 1) + '. ' + (l.name && l.name.trim() ? l.name : 'layer ' + (i + 1)) }));
+    const redraw = () => { renderDesignFields(); designStale(); };
+    box.append(field({
+      path: 'winter.least_thickness.layer', label: 'Layer to size', cls: 'wide', options: layerOptions,
+      get: () => String(d.layer), set: (v) => { d.layer = Number(v); }, after: redraw,
+    }));
+    box.append(field({
+      path: 'winter.least_thickness.keep_frost_above.kind', label: 'Keep frost above', cls: 'wide',
+      options: [
+        { value: 'layer-bottom', text: 'the bottom of a layer (nothing below it freezes)' },
+        { value: 'depth', text: 'a depth below the top face' },
+      ],
+      get: () => d.keep_frost_above.kind,
+      set: (v) => { d.keep_frost_above = v === 'depth' ? { kind: 'depth', depth_m: 1.0 } : { kind: 'layer-bottom', layer: d.layer }; },
+      after: redraw,
+    }));
+    if (d.keep_frost_above.kind === 'depth') {
+      box.append(numField(d.keep_frost_above, 'depth_m', 'winter.least_thickness.keep_frost_above.depth_m', 'Depth', 'depth', { after: designStale }));
+    } else {
+      box.append(field({
+        path: 'winter.least_thickness.keep_frost_above.layer', label: 'Bottom of layer', cls: 'wide', options: layerOptions,
+        get: () => String(d.keep_frost_above.layer), set: (v) => { d.keep_frost_above.layer = Number(v); }, after: redraw,
+      }));
+    }
+    box.append(
+      numField(d, 'min_m', 'winter.least_thickness.min_m', 'Thinnest to try', 'thickness', { after: designStale }),
+      numField(d, 'max_m', 'winter.least_thickness.max_m', 'Thickest to try', 'thickness', { after: designStale }),
+    );
+  }
+
+  function designStale() {
+    const box = $('w-design');
+    if (winter.designRun) { winter.designGen++; winter.designRun.free(); winter.designRun = null; }
+    if (box.dataset.state === 'done' || box.dataset.state === 'running') {
+      box.dataset.state = 'stale';
+      $('w-design-status').textContent = 'Out of date: the scenario changed since this search. Run it again.';
+      $('w-design-answer').classList.add('is-stale');
+    }
+  }
+
+  function startDesign() {
+    const box = $('w-design');
+    const list = $('w-design-errors');
+    clear(list); list.hidden = true;
+    for (const m of document.querySelectorAll('#w-design .field-msg')) clear(m);
+    const d = designDraft();
+    const badText = [...bad(d).values(), ...bad(d.keep_frost_above).values()];
+    if (badText.length) {
+      for (const b of badText) list.append(el('li', { text: b.label + ': enter a number' }));
+      list.hidden = false;
+      return;
+    }
+    // The search is part of the scenario from now on (saved with it).
+    state.scenario.winter.least_thickness = JSON.parse(JSON.stringify(d));
+    if (winter.designRun) { winter.designRun.free(); winter.designRun = null; }
+    const gen = ++winter.designGen;
+    let job;
+    try {
+      job = new W.DesignRun(state.scenario);
+    } catch (err) {
+      console.error(err);
+      generalError('The search failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const errs = job.errors();
+    if (errs.length) {
+      job.free();
+      for (const e of errs) {
+        if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
+      }
+      list.hidden = !list.firstChild;
+      box.dataset.state = 'stale';
+      $('w-design-status').textContent = 'Fix the marked inputs.';
+      return;
+    }
+    winter.designRun = job;
+    box.dataset.state = 'running';
+    const t0 = performance.now();
+    $('w-design-go').disabled = true;
+    const slice = () => {
+      if (gen !== winter.designGen) { $('w-design-go').disabled = false; return; }
+      const st = job.advance(14);
+      $('w-design-progress').value = st.fraction;
+      if (!st.ok) {
+        for (const e of st.errors || []) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
+        list.hidden = !list.firstChild;
+        box.dataset.state = 'stale';
+        $('w-design-status').textContent = 'The search stopped.';
+        $('w-design-go').disabled = false;
+        job.free(); winter.designRun = null;
+        return;
+      }
+      if (!st.finished) {
+        $('w-design-status').textContent = 'Searching… ' + Math.round(st.fraction * 100) + ' %';
+        setTimeout(slice, 0);
+        return;
+      }
+      winter.designReport = job.report();
+      job.free(); winter.designRun = null;
+      $('w-design-go').disabled = false;
+      box.dataset.state = 'done';
+      box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
+      const ms = performance.now() - t0;
+      $('w-design-status').textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + winter.designReport.trials.length + ' winters run.';
+      renderDesignReport();
+    };
+    $('w-design-status').textContent = 'Searching…';
+    $('w-design-progress').value = 0;
+    slice();
+  }
+
+  function renderDesignReport() {
+    const r = winter.designReport;
+    const ans = $('w-design-answer');
+    ans.classList.remove('is-stale');
+    const tb = $('w-design-trials').querySelector('tbody');
+    clear(tb);
+    if (!r) { ans.textContent = ''; $('w-design-trials').hidden = true; return; }
+    const name = r.layer_name && r.layer_name.trim() ? r.layer_name : 'layer ' + (r.layer + 1);
+    const limitWords = 'above ' + fmtU('depth', r.limit_m);
+    let text;
+    if (r.outcome === 'found') {
+      text = 'At least ' + fmtU('thickness', r.thickness_m) + ' of ' + name + ' keeps the deepest frost ' + limitWords +
+        (r.frost_depth_m > 0 ? ' (with it, frost reaches ' + fmtU('depth', r.frost_depth_m) + ')' : ' (with it, the ground below does not freeze)') + ', found to within ' + fmtU('thickness', r.resolution_m) + '.';
+      if (r.slope != null && r.slope < 0) {
+        text += ' Near the answer each extra ' + fmtU('thickness', 0.01) + ' lifts the frost by about ' + fmtU('depth', -r.slope * 0.01) + '.';
+      } else if (r.frost_depth_m === 0) {
+        text += ' From this thickness on the ground below does not freeze at all, so the answer is sharp: a little less lets frost in.';
+      }
+    } else if (r.outcome === 'smallest-suffices') {
+      text = 'Even ' + fmtU('thickness', r.thickness_m) + ' of ' + name + ' (the thinnest tried) keeps the frost ' + limitWords + '.';
+    } else if (r.outcome === 'not-reachable') {
+      text = 'Even the thickest tried lets frost reach ' + fmtU('depth', r.frost_depth_m) + ', below the limit (' + fmtU('depth', r.limit_m) + '). Try a thicker range, another layer, or more cover.';
+    } else {
+      text = 'Frost reached deeper with more of this layer between two tries, so no least thickness can be named here; look at the table.';
+    }
+    ans.textContent = text;
+    r.trials.forEach((t, i) => {
+      const ok = t.frost_depth_m <= t.limit_m;
+      tb.append(el('tr', {},
+        el('td', { text: String(i + 1) }),
+        el('td', { text: fmtU('thickness', t.thickness_m) }),
+        el('td', { text: t.frost_depth_m > 0 ? fmtU('depth', t.frost_depth_m) : 'none' }),
+        el('td', { text: fmtU('depth', t.limit_m) }),
+        el('td', { text: ok ? 'yes' : 'no', class: ok ? 'ok' : 'no' })));
+    });
+    $('w-design-trials').hidden = false;
   }
 
   function winterOwners() {
@@ -1311,6 +1488,7 @@
   }
 
   function setUpWinter() {
+    $('w-design-go').addEventListener('click', startDesign);
     $('winter-add').addEventListener('click', () => {
       state.scenario.winter = winter.past.whole || defaultWinter();
       // A winter section needs the current format version (older files load without one).
@@ -1796,6 +1974,12 @@
     winter.day = null;
     winter.past = {};
     winter.summary = null;
+    winter.design = null;
+    winter.designReport = null;
+    designStale();
+    $('w-design').dataset.state = 'idle';
+    $('w-design-status').textContent = '';
+    renderDesignReport();
     $('w-csv').disabled = true;
     dropShelterResult();
     shelter.past = {};
