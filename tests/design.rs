@@ -261,3 +261,61 @@ fn a_soil_cover_over_a_pipe_grows_until_frost_stays_above_it() {
         "cover equals the frost depth in uniform gravel",
     );
 }
+
+#[test]
+fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
+    // The scenario format: `winter.least_thickness` round-trips, a bad layer index or an
+    // empty range is refused naming its field, and the CLI's report carries the answer with
+    // every run. The answer is checked against runs of its own: the cabin example's board
+    // at the answer keeps frost out of the ground below it, a resolution thinner does not.
+    use hibernal::scenario;
+    let mut v: serde_json::Value = serde_json::from_str(
+        scenario::example("cabin-porch-slab-snowy-winter")
+            .unwrap()
+            .json,
+    )
+    .unwrap();
+    v["winter"]["initial"] = serde_json::json!({"kind": "uniform", "temperature_c": 4});
+    v["winter"]["least_thickness"] = serde_json::json!({
+        "layer": 1, "keep_frost_above": {"kind": "layer-bottom", "layer": 1},
+        "min_m": 0.0, "max_m": 0.2
+    });
+    let s = scenario::from_value(v.clone()).unwrap();
+    let text = serde_json::to_string(&s).unwrap();
+    assert_eq!(scenario::parse(&text).unwrap(), s, "round trip");
+    let c = scenario::compute_with_winter(&s).unwrap();
+    let d = c.winter.unwrap().least_thickness.unwrap();
+    assert_eq!(d.outcome, "found");
+    let t = d.thickness_m.unwrap();
+    assert!(d.trials.len() <= 16 && d.trials.len() >= 4, "{} runs", d.trials.len());
+    let frost_with = |board: f64| {
+        let mut w = v.clone();
+        w["layers"][1]["thickness_m"] = serde_json::json!(board);
+        w["winter"].as_object_mut().unwrap().remove("least_thickness");
+        let s = scenario::from_value(w).unwrap();
+        scenario::compute_with_winter(&s)
+            .unwrap()
+            .winter
+            .unwrap()
+            .max_frost_depth_m
+    };
+    assert!(frost_with(t) <= 0.1 + t + 1e-9, "holds at the answer");
+    assert!(
+        frost_with(t - d.resolution_m) > 0.1 + t - d.resolution_m,
+        "fails a resolution thinner"
+    );
+    // Bad input, every field named at once.
+    v["winter"]["least_thickness"] = serde_json::json!({
+        "layer": 9, "keep_frost_above": {"kind": "depth", "depth_m": -1},
+        "min_m": 0.3, "max_m": 0.2
+    });
+    let s = scenario::from_value(v).unwrap();
+    let e = scenario::compute_with_winter(&s).unwrap_err();
+    let fields: Vec<&str> = e.0.iter().map(|x| x.field.as_str()).collect();
+    for f in [
+        "winter.least_thickness.layer",
+        "winter.least_thickness.keep_frost_above.depth_m",
+    ] {
+        assert!(fields.contains(&f), "{f} in {fields:?}");
+    }
+}
