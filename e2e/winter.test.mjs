@@ -257,3 +257,19 @@ test('the least board that keeps frost out of the gravel pad is found and holds'
   const frost = (await shown(page, '#w-max-frost')).value;
   assert.ok(frost > 0.1 + (mm - 6) / 1000, `frost ${frost} m passes the board's bottom`);
 }));
+
+test('the hand methods sit beside the run, the more conservative deeper', () => withPage(async (page) => {
+  // Stefan's law ignores sensible heat and so puts frost deeper than the transient run;
+  // with the slab and board as a resistance it comes closer; the modified Berggren method
+  // takes the layers' sensible heat into λ (TM 5-852-6). On the cabin example they must
+  // come out in that order, each above the run's depth, the run's row equal to the big
+  // number.
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  const depth = async (m) => {
+    const t = await page.locator(`#w-hand tr[data-method="${m}"] td.num`).textContent();
+    return parseShown(t).value;
+  };
+  const [st, sr, bg, tr] = [await depth('stefan'), await depth('stefan-resistance'), await depth('berggren'), await depth('transient')];
+  assert.ok(st > sr && sr > bg && bg > tr, `Stefan ${st}, with resistance ${sr}, Berggren ${bg}, run ${tr}`);
+  assert.equal(tr, (await shown(page, '#w-max-frost')).value);
+}));

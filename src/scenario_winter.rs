@@ -4,8 +4,10 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
+use crate::analytic;
 use crate::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
 use crate::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::materials::Material;
 use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc, SnowCorrelationDoc};
 use crate::stack::ResolvedStack;
 use crate::transient::grid::GridSpec;
@@ -475,10 +477,157 @@ pub struct WinterReport {
     /// ([`crate::scenario::compute_with_winter`] runs it; the page runs it on request).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub least_thickness: Option<crate::scenario_design::LeastThicknessReport>,
+    /// The hand methods on the same winter and the same layers, beside this run.
+    pub hand_methods: Vec<HandMethodRow>,
     /// The temperature of each cell (centres in `envelope`) at the end of each day; left out
     /// of the JSON report (the CLI writes it as CSV on request).
     #[serde(skip)]
     pub profiles: Vec<DayProfile>,
+}
+
+/// One method's deepest frost for the winter run's case.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct HandMethodRow {
+    /// `stefan`, `stefan-resistance`, `berggren`, `transient`.
+    pub method: &'static str,
+    pub name: &'static str,
+    /// Deepest frost, m below the top face; absent where the method does not apply.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub depth_m: Option<f64>,
+    /// What the method takes and leaves out, or why it does not apply.
+    pub note: String,
+}
+
+/// The hand methods (models.md §4) on the winter run's own case, so that users see how
+/// conservative each is. All take the run's ground-surface freezing index (under the snow
+/// when there is snow) as the surface index nF, and the layers from the top face down.
+///
+/// - **Stefan** (Stefan's law, X = √(2 k_f nF / L), for the first layer that freezes, taken
+///   to start at the surface): ignores sensible heat and everything above that layer.
+/// - **Stefan with the resistance above** ([`analytic::stefan_depth_with_resistance_m`]):
+///   the layers above the first freezing one (slab, board) as a resistance that stores no
+///   heat; frost depth counted from the top face.
+/// - **Modified Berggren** ([`analytic::modified_berggren_layered`], TM 5-852-6 /
+///   UFC 3-130-04): every layer, with k and C the means of frozen and unfrozen (TM 5-852-6,
+///   from memory); mean annual temperature v₀ = the mean ground-surface temperature over
+///   the run when it lasts a year or more, else the climate's annual mean; freezing season
+///   = the days with the daily ground surface below 0 °C. Not applicable when v₀ < 0 °C.
+fn hand_methods(
+    r: &RunResult,
+    layers: &[(f64, Material)],
+    climate_mean_c: f64,
+) -> Vec<HandMethodRow> {
+    let fs = r.surface_freezing_index_c_days * 86_400.0;
+    let mut rows = Vec::new();
+    let first = layers
+        .iter()
+        .position(|(_, m)| m.freezes && m.latent_j_per_m3 > 0.0);
+    let above: f64 = first.map_or(0.0, |i| {
+        layers[..i].iter().map(|(d, _)| d).sum::<f64>() + 0.0
+    });
+    let r_above: f64 = first.map_or(0.0, |i| {
+        layers[..i]
+            .iter()
+            .map(|(d, m)| {
+                d / (0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0)))
+            })
+            .sum()
+    });
+    match first {
+        Some(i) => {
+            let m = &layers[i].1;
+            let kf = m.conductivity.frozen.k(-1.0);
+            rows.push(HandMethodRow {
+                method: "stefan",
+                name: "Stefan's law",
+                depth_m: Some(analytic::stefan_depth_m(kf, m.latent_j_per_m3, fs)),
+                note: format!("{} alone from the surface, latent heat only", m.label),
+            });
+            rows.push(HandMethodRow {
+                method: "stefan-resistance",
+                name: "Stefan's law under the layers above",
+                depth_m: Some(
+                    above
+                        + analytic::stefan_depth_with_resistance_m(
+                            kf,
+                            m.latent_j_per_m3,
+                            fs,
+                            r_above,
+                        ),
+                ),
+                note: if above > 0.0 {
+                    format!("the {above:.3} m above it as a resistance of {r_above:.2} m²K/W")
+                } else {
+                    "nothing above it: the same as Stefan's law".into()
+                },
+            });
+        }
+        None => rows.push(HandMethodRow {
+            method: "stefan",
+            name: "Stefan's law",
+            depth_m: None,
+            note: "no layer holds water that freezes".into(),
+        }),
+    }
+    // Time below 0 °C at the ground surface, and its time-mean temperature.
+    let (mut below_s, mut sum, mut total) = (0.0, 0.0, 0.0);
+    for w in r.samples.windows(2) {
+        let dt = w[1].time_s - w[0].time_s;
+        if w[1].surface_c < 0.0 {
+            below_s += dt;
+        }
+        sum += w[1].surface_c * dt;
+        total += dt;
+    }
+    let days_below = below_s / 86_400.0;
+    let v0 = if total >= 364.0 * 86_400.0 {
+        sum / total
+    } else {
+        climate_mean_c
+    };
+    let bl: Vec<analytic::BerggrenLayer> = layers
+        .iter()
+        .map(|(d, m)| analytic::BerggrenLayer {
+            thickness_m: *d,
+            k_w_m_k: 0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0)),
+            latent_j_m3: if m.freezes { m.latent_j_per_m3 } else { 0.0 },
+            c_j_m3k: 0.5 * (m.c_frozen_j_per_m3_k + m.c_unfrozen_j_per_m3_k),
+        })
+        .collect();
+    let berggren = if fs <= 0.0 || days_below < 1.0 {
+        Err("the ground surface does not freeze".to_string())
+    } else if v0 < 0.0 {
+        Err(format!(
+            "mean annual temperature {v0:.1} °C is below 0 °C (permafrost: outside the method)"
+        ))
+    } else {
+        analytic::modified_berggren_layered(&bl, 1.0, fs, v0, days_below * 86_400.0)
+            .map_err(|e| e.to_string())
+    };
+    rows.push(match berggren {
+        Ok(b) => HandMethodRow {
+            method: "berggren",
+            name: "Modified Berggren",
+            depth_m: Some(b.depth_m),
+            note: format!(
+                "every layer; λ {:.3}, α {:.2}, season {days_below:.0} days, mean {v0:.1} °C",
+                b.lambda, b.alpha
+            ),
+        },
+        Err(why) => HandMethodRow {
+            method: "berggren",
+            name: "Modified Berggren",
+            depth_m: None,
+            note: why,
+        },
+    });
+    rows.push(HandMethodRow {
+        method: "transient",
+        name: "This run (transient, with freezing)",
+        depth_m: Some(r.max_frost_depth_m),
+        note: "every layer, sensible and latent heat, snow as it lies".into(),
+    });
+    rows
 }
 
 /// The temperature profile at one instant.
@@ -540,6 +689,8 @@ pub struct WinterJob {
     warnings: Vec<ErrorDoc>,
     max_years: u32,
     freezable_top_m: f64,
+    hand_layers: Vec<(f64, Material)>,
+    climate_mean_c: f64,
 }
 
 fn run_error(e: crate::transient::TransientError) -> InputErrors {
@@ -557,6 +708,7 @@ impl WinterJob {
         layers: &[LayerDoc],
     ) -> Result<WinterJob, InputErrors> {
         let (spec, climate) = w.run_spec(stack, layers)?;
+        let climate_mean_c = climate.annual_wave().mean_c;
         let run = run::Run::new(&spec).map_err(run_error)?;
         let mut warnings = Vec::new();
         if matches!(spec.top, TopModel::NFactor { .. }) {
@@ -596,6 +748,13 @@ impl WinterJob {
             warnings,
             max_years,
             freezable_top_m,
+            hand_layers: stack
+                .layers
+                .iter()
+                .map(|l| l.thickness_m)
+                .zip(stack.materials.iter().cloned())
+                .collect(),
+            climate_mean_c,
         })
     }
 
@@ -630,7 +789,9 @@ impl WinterJob {
                 ));
             }
         }
+        let hand = hand_methods(&r, &self.hand_layers, self.climate_mean_c);
         let mut report = report_of(r, self.faces_m, self.layer_names);
+        report.hand_methods = hand;
         report.warnings = warnings;
         report.freezable_top_m = self.freezable_top_m;
         report
@@ -700,6 +861,7 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         warnings: Vec::new(),
         freezable_top_m: 0.0,
         least_thickness: None,
+        hand_methods: Vec::new(),
         profiles: r
             .profiles
             .into_iter()

@@ -88,6 +88,7 @@ fn hand_report(
         warnings: Vec::new(),
         freezable_top_m: 0.0,
         least_thickness: None,
+        hand_methods: Vec::new(),
         profiles,
     }
 }

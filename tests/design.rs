@@ -287,11 +287,18 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
     let d = c.winter.unwrap().least_thickness.unwrap();
     assert_eq!(d.outcome, "found");
     let t = d.thickness_m.unwrap();
-    assert!(d.trials.len() <= 16 && d.trials.len() >= 4, "{} runs", d.trials.len());
+    assert!(
+        d.trials.len() <= 16 && d.trials.len() >= 4,
+        "{} runs",
+        d.trials.len()
+    );
     let frost_with = |board: f64| {
         let mut w = v.clone();
         w["layers"][1]["thickness_m"] = serde_json::json!(board);
-        w["winter"].as_object_mut().unwrap().remove("least_thickness");
+        w["winter"]
+            .as_object_mut()
+            .unwrap()
+            .remove("least_thickness");
         let s = scenario::from_value(w).unwrap();
         scenario::compute_with_winter(&s)
             .unwrap()

@@ -351,6 +351,23 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
         "surface index = nF",
     );
     assert!(w.energy_imbalance_relative < 1e-9);
+    // The report's own hand-method rows on this case: Stefan's law as computed above (the
+    // run's surface index is nF to 1e-3), the modified Berggren row within 10 % of the run.
+    let row = |m: &str| {
+        w.hand_methods
+            .iter()
+            .find(|h| h.method == m)
+            .and_then(|h| h.depth_m)
+            .unwrap()
+    };
+    assert_rel(row("stefan"), stefan, 2e-3, "Stefan row");
+    assert_eq!(
+        row("stefan-resistance"),
+        row("stefan"),
+        "nothing above the silt"
+    );
+    assert_rel(row("berggren"), w.max_frost_depth_m, 0.10, "Berggren row");
+    assert_eq!(row("transient"), w.max_frost_depth_m);
     assert_eq!(w.daily.len(), 366, "day 0 and the end of each day");
     // The report carries it; CSV export has a header with units and a row per day.
     let r = scenario::report(&s, &c);

@@ -1428,6 +1428,15 @@
     $('w-solver').textContent = rep.cells + ' cells, ' + rep.steps + ' steps, ' + fmtNum(rep.iterations_per_step, 2) + ' passes per step' +
       (rep.split_steps ? ', ' + rep.split_steps + ' steps split' : '') + (rep.spin_up_years ? ', ' + rep.spin_up_years + ' years to settle' : '') +
       '; energy balance closes to ' + rep.energy_imbalance_relative.toExponential(1) + ' of the heat through the faces.';
+    const hb = $('w-hand').querySelector('tbody');
+    clear(hb);
+    for (const h of rep.hand_methods || []) {
+      hb.append(el('tr', { 'data-method': h.method },
+        el('th', { scope: 'row', text: h.name }),
+        el('td', { class: 'num', text: h.depth_m != null ? fmtU('depth', h.depth_m) : 'does not apply' }),
+        el('td', { text: h.note })));
+    }
+    $('w-hand').hidden = !hb.firstChild;
     const wl = $('w-warnings');
     clear(wl);
     for (const w of rep.warnings || []) wl.append(el('li', { text: describeWinterPath(w.field) + ': ' + w.message }));
