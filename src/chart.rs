@@ -15,13 +15,13 @@ use crate::units::{quantity, UnitSystem};
 #[error("chart: {0}")]
 pub struct ChartError(pub String);
 
-fn err<E: std::fmt::Debug>(e: E) -> ChartError {
+pub(crate) fn err<E: std::fmt::Debug>(e: E) -> ChartError {
     ChartError(format!("{e:?}"))
 }
 
 /// The font and line scale a chart uses: the caller's (device pixel ratio), kept within
 /// 0.5–4, or 1 if it is not a number.
-fn chart_scale(scale: f64) -> f64 {
+pub(crate) fn chart_scale(scale: f64) -> f64 {
     if scale.is_finite() {
         scale.clamp(0.5, 4.0)
     } else {
@@ -284,7 +284,7 @@ pub fn profile_svg(
 }
 
 /// Render a chart into an SVG document string.
-fn svg_document(
+pub(crate) fn svg_document(
     width: u32,
     height: u32,
     draw: impl FnOnce(&DrawingArea<SVGBackend<'_>, Shift>) -> Result<(), ChartError>,

@@ -20,6 +20,7 @@ pub mod transient;
 pub mod units;
 
 pub mod chart;
+pub mod chart_field;
 pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;

@@ -724,3 +724,63 @@ fn cli_writes_the_day_profile_the_series_and_the_profiles_csv() {
         assert_eq!(out.status.code(), Some(2), "{opt} without a winter");
     }
 }
+
+#[test]
+fn a_field_map_draws_every_cell_and_finds_the_0c_line_where_it_is() {
+    // A field linear in depth, T = 20 z − 10 (°C, z in m), on an uneven grid: the 0 °C line
+    // lies at z = 0.5 m exactly (marching squares with linear interpolation along edges is
+    // exact for a linear field), across the whole width. The SVG holds one rectangle per
+    // cell, the caption, the outlines; US units label the colour bar in °F (NIST SP 811).
+    use hibernal::chart_field::{field_map_svg, zero_line, FieldMap, Outline, OutlineKind};
+    use hibernal::units::UnitSystem;
+    let x: Vec<f64> = [0.0, 0.1, 0.3, 0.6, 1.0, 1.5, 2.2, 3.0].to_vec();
+    let z: Vec<f64> = (0..=12).map(|k| (k as f64 * 0.1).powf(1.2)).collect();
+    let (nx, nz) = (x.len() - 1, z.len() - 1);
+    let mut t = Vec::new();
+    for k in 0..nz {
+        let zc = 0.5 * (z[k] + z[k + 1]);
+        for _ in 0..nx {
+            t.push(20.0 * zc - 10.0);
+        }
+    }
+    let outlines = [Outline {
+        x0_m: 0.3,
+        x1_m: 0.6,
+        z0_m: 0.0,
+        z1_m: 0.4,
+        kind: OutlineKind::Concrete,
+        label: "Footing <b>".into(),
+    }];
+    let f = FieldMap {
+        x_faces_m: &x,
+        z_faces_m: &z,
+        temperature_c: &t,
+        outlines: &outlines,
+        caption: "Ground on day 90",
+    };
+    let segs = zero_line(&f).unwrap();
+    assert_eq!(segs.len(), nx - 1, "one segment per column gap");
+    for s in &segs {
+        for p in s {
+            assert!((p.1 - 0.5).abs() < 1e-12, "{p:?}");
+        }
+    }
+    let svg = field_map_svg(&f, UnitSystem::Si, 800, 500).unwrap();
+    assert!(svg.contains("Ground on day 90"));
+    assert!(
+        svg.matches("<rect").count() > nx * nz,
+        "every cell and the outline"
+    );
+    assert!(svg.contains("0 °C line"));
+    let us = field_map_svg(&f, UnitSystem::Us, 800, 500).unwrap();
+    assert!(
+        us.contains("32 °F line") && us.contains("(ft)"),
+        "US labels"
+    );
+    // A field that does not fit its grid is refused, not drawn wrong.
+    let short = FieldMap {
+        temperature_c: &t[1..],
+        ..f.clone()
+    };
+    assert!(field_map_svg(&short, UnitSystem::Si, 400, 300).is_err());
+}
