@@ -273,3 +273,19 @@ test('the hand methods sit beside the run, the more conservative deeper', () => 
   assert.ok(st > sr && sr > bg && bg > tr, `Stefan ${st}, with resistance ${sr}, Berggren ${bg}, run ${tr}`);
   assert.equal(tr, (await shown(page, '#w-max-frost')).value);
 }));
+
+test('every chart saves as a PNG image of what it shows', () => withPage(async (page) => {
+  // One button under each chart; the file is a PNG (its 8-byte signature, ISO/IEC 15948)
+  // of the canvas's own size, named after the scenario and the chart.
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  const ids = await page.evaluate(() => [...document.querySelectorAll('canvas[id]')].map((c) => c.id));
+  const buttons = await page.locator('.png-btn').count();
+  assert.equal(buttons, ids.length, 'a button for every chart');
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('[data-png-for="frost-chart"]')]);
+  assert.match(dl.suggestedFilename(), /frost-chart\.png$/);
+  const bytes = readFileSync(await dl.path());
+  assert.deepEqual([...bytes.subarray(0, 8)], [137, 80, 78, 71, 13, 10, 26, 10], 'PNG signature');
+  const width = bytes.readUInt32BE(16);
+  const canvasWidth = await page.evaluate(() => document.getElementById('frost-chart').width);
+  assert.equal(width, canvasWidth, 'the image is the canvas as drawn');
+}));

@@ -1946,6 +1946,30 @@
   }
   const fileStem = (fallback) => (state.scenario.title || fallback).replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || fallback;
 
+  // Every chart can be saved as a PNG of what it shows (its canvas, at the screen's
+  // resolution), named after the scenario and the chart.
+  function setUpChartSaving() {
+    for (const c of document.querySelectorAll('canvas[id]')) {
+      const what = (c.getAttribute('aria-label') || c.id).toLowerCase();
+      const b = el('button', {
+        type: 'button', class: 'btn subtle png-btn', 'data-png-for': c.id,
+        text: 'Save chart as PNG', 'aria-label': 'Save the chart (' + what + ') as a PNG image',
+      });
+      b.addEventListener('click', () => {
+        c.toBlob((blob) => {
+          if (!blob) return;
+          const url = URL.createObjectURL(blob);
+          const a = el('a', { href: url, download: fileStem('hibernal') + '-' + c.id + '.png' });
+          document.body.append(a);
+          a.click();
+          a.remove();
+          setTimeout(() => URL.revokeObjectURL(url), 5000);
+        }, 'image/png');
+      });
+      c.after(b);
+    }
+  }
+
   function setUpShelter() {
     renderCautions();
     $('shelter-add').addEventListener('click', () => {
@@ -2120,6 +2144,7 @@
     $('open-file').addEventListener('change', openFile);
     setUpWinter();
     setUpShelter();
+    setUpChartSaving();
 
     let resizeTimer = 0;
     window.addEventListener('resize', () => {
