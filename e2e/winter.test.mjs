@@ -289,3 +289,22 @@ test('every chart saves as a PNG image of what it shows', () => withPage(async (
   const canvasWidth = await page.evaluate(() => document.getElementById('frost-chart').width);
   assert.equal(width, canvasWidth, 'the image is the canvas as drawn');
 }));
+
+test('the printed page is a report: stamped with version and date, controls left out', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  await page.emulateMedia({ media: 'print' });
+  const stamp = await page.locator('#print-stamp').textContent();
+  assert.ok(await page.locator('#print-stamp').isVisible(), 'the stamp prints');
+  const version = await page.locator('#core-version').textContent();
+  assert.ok(stamp.includes('Hibernal ' + version), stamp);
+  assert.match(stamp, /printed \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC/);
+  assert.match(stamp, /licensed engineer/);
+  for (const sel of ['#example-pick', '#print-report', '.png-btn >> nth=0', '#w-csv']) {
+    assert.ok(await page.locator(sel).isHidden(), `${sel} is left out of the print`);
+  }
+  for (const sel of ['#frost-chart', '#w-max-frost', '.cautions']) {
+    assert.ok(await page.locator(sel).first().isVisible(), `${sel} is printed`);
+  }
+  await page.emulateMedia({ media: 'screen' });
+  assert.ok(await page.locator('#print-stamp').isHidden(), 'the stamp is for paper only');
+}));

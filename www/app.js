@@ -522,6 +522,7 @@
     clearTimeout(state.timer);
     clearMessages();
     designStale();
+    printStamp();
     const local = localErrors();
     if (local.length) {
       for (const e of local) {
@@ -1946,6 +1947,23 @@
   }
   const fileStem = (fallback) => (state.scenario.title || fallback).replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || fallback;
 
+  // Printing: the page's print style sheet leaves out the controls and keeps inputs,
+  // results, charts, methods with their sources and the cautions; a stamp names the
+  // scenario, the tool's version and the date.
+  function printStamp() {
+    const sc = state.scenario || {};
+    const title = sc.title && sc.title.trim() ? sc.title : 'Untitled scenario';
+    const units = state.units === 'us' ? 'US customary units' : 'SI units';
+    $('print-stamp').textContent = title + ' — printed ' + new Date().toISOString().slice(0, 16).replace('T', ' ') +
+      ' UTC from Hibernal ' + (CAT ? CAT.version : '?') + ' (scenario format ' + (CAT ? CAT.format_version : '?') + '), in ' + units +
+      '. Engineering estimates: follow local codes and have a licensed engineer or qualified instructor check a design.';
+  }
+
+  function setUpPrinting() {
+    window.addEventListener('beforeprint', printStamp);
+    $('print-report').addEventListener('click', () => { printStamp(); window.print(); });
+  }
+
   // Every chart can be saved as a PNG of what it shows (its canvas, at the screen's
   // resolution), named after the scenario and the chart.
   function setUpChartSaving() {
@@ -2145,6 +2163,7 @@
     setUpWinter();
     setUpShelter();
     setUpChartSaving();
+    setUpPrinting();
 
     let resizeTimer = 0;
     window.addEventListener('resize', () => {
