@@ -308,3 +308,22 @@ test('the printed page is a report: stamped with version and date, controls left
   await page.emulateMedia({ media: 'screen' });
   assert.ok(await page.locator('#print-stamp').isHidden(), 'the stamp is for paper only');
 }));
+
+test('a reload brings the last work back, in its units, and says so', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  await andRecompute(page, () => page.fill('#f-title', 'My porch, second try'));
+  await andRecompute(page, () => field(page, 'layers[1].thickness_m').fill('7.5'));
+  await andRecompute(page, () => page.check('#units-us'));
+  await page.reload();
+  await page.waitForSelector('html[data-ready="true"]', { state: 'attached' });
+  assert.equal(await page.inputValue('#f-title'), 'My porch, second try');
+  assert.ok(await page.locator('#units-us').isChecked(), 'US units kept');
+  // 75 mm shown in inches: 75 / 25.4 (NIST SP 811).
+  const inches = Number(await field(page, 'layers[1].thickness_m').inputValue());
+  assert.ok(Math.abs(inches - 75 / 25.4) < 0.01, `${inches} in`);
+  assert.ok(await page.locator('#restore-note').isVisible());
+  assert.match(await page.locator('#restore-text').textContent(), /last work in this browser is back \(saved \d{4}-\d{2}-\d{2}/);
+  await page.click('#start-fresh');
+  assert.ok(await page.locator('#restore-note').isHidden());
+  assert.notEqual(await page.inputValue('#f-title'), 'My porch, second try');
+}));

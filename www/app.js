@@ -523,6 +523,7 @@
     clearMessages();
     designStale();
     printStamp();
+    autosave();
     const local = localErrors();
     if (local.length) {
       for (const e of local) {
@@ -1947,6 +1948,33 @@
   }
   const fileStem = (fallback) => (state.scenario.title || fallback).replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || fallback;
 
+  // Autosave: the scenario (SI, as edited) and the unit system go into this browser's
+  // storage on every recompute, so a reload or a closed tab loses nothing; the page opens on
+  // it next time, saying so. Storage that is full or switched off is skipped quietly.
+  const AUTOSAVE_KEY = 'hibernal.autosave.1';
+  function autosave() {
+    if (!state.scenario) return;
+    try {
+      localStorage.setItem(AUTOSAVE_KEY, JSON.stringify({ saved_at: new Date().toISOString(), units: state.units, scenario: state.scenario }));
+    } catch (e) { /* no storage: nothing to do */ }
+  }
+
+  function restoreAutosave() {
+    let saved = null;
+    try { saved = JSON.parse(localStorage.getItem(AUTOSAVE_KEY) || 'null'); } catch (e) { saved = null; }
+    if (!saved || !looksLikeScenario(saved.scenario)) return false;
+    if (saved.units === 'us' || saved.units === 'si') {
+      const r = $('units-' + saved.units);
+      if (r) { r.checked = true; state.units = saved.units; document.documentElement.dataset.units = state.units; }
+    }
+    adopt(saved.scenario);
+    $('example-pick').value = '';
+    const when = typeof saved.saved_at === 'string' ? saved.saved_at.slice(0, 16).replace('T', ' ') + ' UTC' : 'earlier';
+    $('restore-text').textContent = 'Your last work in this browser is back (saved ' + when + ').';
+    $('restore-note').hidden = false;
+    return true;
+  }
+
   // Printing: the page's print style sheet leaves out the controls and keeps inputs,
   // results, charts, methods with their sources and the cautions; a stamp names the
   // scenario, the tool's version and the date.
@@ -2174,12 +2202,17 @@
     renderSources();
     $('load-status').hidden = true;
     $('app').hidden = false;
-    if (EXAMPLES.length) loadExample(EXAMPLES[0].id);
+    $('start-fresh').addEventListener('click', () => {
+      $('restore-note').hidden = true;
+      if (EXAMPLES.length) loadExample(EXAMPLES[0].id);
+    });
+    if (!restoreAutosave() && EXAMPLES.length) loadExample(EXAMPLES[0].id);
     document.documentElement.dataset.ready = 'true';
   }
 
   function loadExample(id) {
     const ex = EXAMPLES.find((e) => e.id === id);
+    $('restore-note').hidden = true;
     $('example-pick').value = id;
     $('example-summary').textContent = ex ? ex.summary : '';
     adopt(W.example(id));
