@@ -327,3 +327,31 @@ test('a reload brings the last work back, in its units, and says so', () => with
   assert.ok(await page.locator('#restore-note').isHidden());
   assert.notEqual(await page.inputValue('#f-title'), 'My porch, second try');
 }));
+
+test('a link carries the whole scenario to another page, and a broken one is named', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  await andRecompute(page, () => page.fill('#f-title', 'Porch <b>for</b> a colleague'));
+  await page.click('#share-make');
+  await page.waitForFunction(() => /#s=/.test(document.querySelector('#share-link').value));
+  const url = await page.inputValue('#share-link');
+  assert.ok(url.startsWith('file://') && url.length < 4000, `${url.length} characters`);
+  const { context, page: other, problems } = await openPage(browser);
+  try {
+    // Only the fragment differs from the page already open: reload to open it afresh.
+    await other.goto(url);
+    await other.reload();
+    await other.waitForSelector('html[data-ready="true"]', { state: 'attached' });
+    assert.equal(await other.inputValue('#f-title'), 'Porch <b>for</b> a colleague', 'title as text, not markup');
+    assert.equal(await other.locator('#f-title b, h1 b').count(), 0);
+    assert.match(await other.locator('#restore-text').textContent(), /this link carries/);
+    assert.ok(await other.locator('#w-snow-on').isChecked(), 'the winter came with it');
+    // A damaged link: the page says so and opens an example instead.
+    await other.goto(url.split('#')[0] + '#s=not-a-scenario');
+    await other.reload();
+    await other.waitForSelector('html[data-ready="true"]', { state: 'attached' });
+    assert.match(await other.locator('#restore-text').textContent(), /does not carry a scenario it can read/);
+    assertNoProblems(problems.filter((p) => !/console error/.test(p)));
+  } finally {
+    await context.close();
+  }
+}));

@@ -1948,6 +1948,65 @@
   }
   const fileStem = (fallback) => (state.scenario.title || fallback).replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || fallback;
 
+  // A link that carries the scenario: its JSON, deflated (the browser's CompressionStream,
+  // RFC 1951) and base64url-encoded (RFC 4648 §5), in the fragment after "#s=", which never
+  // leaves the browser. Opening the page with such a fragment opens that scenario.
+  const b64url = (bytes) => {
+    let bin = '';
+    for (let i = 0; i < bytes.length; i += 0x8000) bin += String.fromCharCode.apply(null, bytes.subarray(i, i + 0x8000));
+    return btoa(bin).replace(/\+/g, '-').replace(/\//g, '_').replace(/=+$/, '');
+  };
+  const unb64url = (text) => {
+    const b = atob(text.replace(/-/g, '+').replace(/_/g, '/') + '==='.slice((text.length + 3) % 4));
+    const out = new Uint8Array(b.length);
+    for (let i = 0; i < b.length; i++) out[i] = b.charCodeAt(i);
+    return out;
+  };
+  async function through(stream, bytes) {
+    const s = new Blob([bytes]).stream().pipeThrough(stream);
+    return new Uint8Array(await new Response(s).arrayBuffer());
+  }
+  const MAX_LINK_BYTES = 2_000_000;
+  async function makeShareLink() {
+    const msg = $('file-msg');
+    clear(msg);
+    try {
+      const json = new TextEncoder().encode(JSON.stringify(state.scenario));
+      const packed = await through(new CompressionStream('deflate-raw'), json);
+      const url = location.href.split('#')[0] + '#s=' + b64url(packed);
+      $('share-box').hidden = false;
+      const box = $('share-link');
+      box.value = url;
+      box.focus();
+      box.select();
+      let copied = false;
+      try { if (navigator.clipboard) { await navigator.clipboard.writeText(url); copied = true; } } catch (e) { copied = false; }
+      msg.append(el('span', { class: 'msg ok', text: (copied ? 'Link copied' : 'Link made: copy it from the box') + ' (' + url.length + ' characters).' }));
+    } catch (e) {
+      msg.append(el('span', { class: 'msg error', text: 'This browser could not make the link: ' + String(e && e.message || e) }));
+    }
+  }
+
+  // The scenario a link carries, or null (with the reason shown) when it carries none or a
+  // broken one.
+  async function scenarioFromLink() {
+    const h = location.hash || '';
+    if (!h.startsWith('#s=')) return null;
+    const note = (text) => { $('restore-text').textContent = text; $('restore-note').hidden = false; };
+    try {
+      const packed = unb64url(h.slice(3));
+      if (packed.length > MAX_LINK_BYTES) throw new Error('it is too long');
+      const json = await through(new DecompressionStream('deflate-raw'), packed);
+      if (json.length > 20 * MAX_LINK_BYTES) throw new Error('it unpacks too large');
+      const s = JSON.parse(new TextDecoder().decode(json));
+      if (!looksLikeScenario(s)) throw new Error('what it carries is not a scenario');
+      return s;
+    } catch (e) {
+      note('The link this page was opened with does not carry a scenario it can read (' + String(e && e.message || e) + ').');
+      return null;
+    }
+  }
+
   // Autosave: the scenario (SI, as edited) and the unit system go into this browser's
   // storage on every recompute, so a reload or a closed tab loses nothing; the page opens on
   // it next time, saying so. Storage that is full or switched off is skipped quietly.
@@ -2206,8 +2265,29 @@
       $('restore-note').hidden = true;
       if (EXAMPLES.length) loadExample(EXAMPLES[0].id);
     });
-    if (!restoreAutosave() && EXAMPLES.length) loadExample(EXAMPLES[0].id);
-    document.documentElement.dataset.ready = 'true';
+    $('share-make').addEventListener('click', makeShareLink);
+    scenarioFromLink().then((linked) => {
+      if (linked) {
+        adopt(linked);
+        $('example-pick').value = '';
+        $('restore-text').textContent = 'Opened the scenario this link carries.';
+        $('restore-note').hidden = false;
+      } else {
+        // A broken link's note is kept, followed by what opened instead.
+        const linkNote = $('restore-note').hidden ? '' : $('restore-text').textContent;
+        const restored = restoreAutosave();
+        if (!restored && EXAMPLES.length) loadExample(EXAMPLES[0].id);
+        if (linkNote) {
+          $('restore-text').textContent = linkNote + ' ' + (restored ? $('restore-text').textContent : 'The first example is open instead.');
+          $('restore-note').hidden = false;
+        }
+      }
+      document.documentElement.dataset.ready = 'true';
+    }).catch((err) => {
+      console.error(err);
+      $('load-status').hidden = false;
+      $('load-status').textContent = 'The page could not be set up: ' + String(err && err.message || err);
+    });
   }
 
   function loadExample(id) {
