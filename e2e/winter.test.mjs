@@ -355,3 +355,14 @@ test('a link carries the whole scenario to another page, and a broken one is nam
     await context.close();
   }
 }));
+
+test('the gallery lists every example and opens the one clicked', () => withPage(async (page) => {
+  const options = await page.locator('#example-pick option').count();
+  await page.click('#gallery > summary');
+  assert.equal(await page.locator('.gallery-card').count(), options, 'one card per example');
+  const before = await winterRuns(page);
+  await page.click('.gallery-card[data-example="cabin-porch-slab-snowy-winter"]');
+  assert.equal(await winterDone(page, before), 'done');
+  assert.match(await page.inputValue('#f-title'), /Cabin porch slab/);
+  assert.equal(await page.inputValue('#example-pick'), 'cabin-porch-slab-snowy-winter');
+}));

@@ -2222,6 +2222,15 @@
   function setUp() {
     const pick = $('example-pick');
     for (const ex of EXAMPLES) pick.append(el('option', { value: ex.id, text: ex.title }));
+    // The gallery: every example as a card with what it shows.
+    const gl = $('gallery-list');
+    for (const ex of EXAMPLES) {
+      const b = el('button', { type: 'button', class: 'gallery-card', 'data-example': ex.id },
+        el('strong', { text: ex.title }), el('span', { text: ex.summary }));
+      b.addEventListener('click', () => { loadExample(ex.id); $('gallery').open = false; });
+      gl.append(el('li', {}, b));
+    }
+    $('gallery').hidden = !EXAMPLES.length;
     pick.addEventListener('change', () => loadExample(pick.value));
 
     for (const r of document.querySelectorAll('input[name="units"]')) {
