@@ -366,3 +366,26 @@ test('the gallery lists every example and opens the one clicked', () => withPage
   assert.match(await page.inputValue('#f-title'), /Cabin porch slab/);
   assert.equal(await page.inputValue('#example-pick'), 'cabin-porch-slab-snowy-winter');
 }));
+
+test('undo and redo step through the edits', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  const board = () => field(page, 'layers[1].thickness_m').inputValue();
+  assert.equal(await board(), '5');
+  await andRecompute(page, () => field(page, 'layers[1].thickness_m').fill('7'));
+  await andRecompute(page, () => field(page, 'layers[1].thickness_m').fill('9'));
+  await andRecompute(page, () => page.click('#undo'));
+  assert.equal(await board(), '7');
+  await andRecompute(page, () => page.click('#undo'));
+  assert.equal(await board(), '5');
+  await andRecompute(page, () => page.click('#redo'));
+  assert.equal(await board(), '7');
+  // The keyboard, outside a text box.
+  await page.locator('#units-si').focus();
+  await andRecompute(page, () => page.keyboard.press('Control+z'));
+  assert.equal(await board(), '5');
+  await andRecompute(page, () => page.keyboard.press('Control+Shift+z'));
+  assert.equal(await board(), '7');
+  // A new edit drops what could be redone.
+  await andRecompute(page, () => field(page, 'layers[1].thickness_m').fill('12'));
+  assert.ok(await page.locator('#redo').isDisabled());
+}));

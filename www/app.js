@@ -524,6 +524,7 @@
     designStale();
     printStamp();
     autosave();
+    remember();
     const local = localErrors();
     if (local.length) {
       for (const e of local) {
@@ -2007,6 +2008,60 @@
     }
   }
 
+  // Undo and redo: each recompute records the scenario (as JSON) when it differs from the
+  // last record; undo adopts the one before, redo the one after. A new edit after an undo
+  // drops what could be redone. At most HISTORY_MAX records.
+  const HISTORY_MAX = 200;
+  const history = { past: [], future: [], replaying: false };
+  function remember() {
+    if (!state.scenario || history.replaying) return;
+    const now = JSON.stringify(state.scenario);
+    if (history.past.length && history.past[history.past.length - 1] === now) return;
+    history.past.push(now);
+    if (history.past.length > HISTORY_MAX) history.past.shift();
+    history.future = [];
+    historyButtons();
+  }
+  function historyButtons() {
+    $('undo').disabled = history.past.length < 2;
+    $('redo').disabled = !history.future.length;
+  }
+  function replay(text) {
+    history.replaying = true;
+    try {
+      const example = $('example-pick').value;
+      adopt(JSON.parse(text));
+      $('example-pick').value = example;
+    } finally {
+      history.replaying = false;
+    }
+    historyButtons();
+  }
+  function undo() {
+    if (history.past.length < 2) return;
+    history.future.push(history.past.pop());
+    replay(history.past[history.past.length - 1]);
+  }
+  function redo() {
+    if (!history.future.length) return;
+    const next = history.future.pop();
+    history.past.push(next);
+    replay(next);
+  }
+  function setUpHistory() {
+    $('undo').addEventListener('click', undo);
+    $('redo').addEventListener('click', redo);
+    document.addEventListener('keydown', (e) => {
+      if (!(e.ctrlKey || e.metaKey) || e.altKey) return;
+      const t = e.target;
+      // Inside a text box the browser's own undo of the typing applies.
+      if (t && (t.tagName === 'TEXTAREA' || (t.tagName === 'INPUT' && /^(text|search|number|)$/.test(t.type || '')))) return;
+      const k = e.key.toLowerCase();
+      if (k === 'z' && !e.shiftKey) { e.preventDefault(); undo(); }
+      else if ((k === 'z' && e.shiftKey) || k === 'y') { e.preventDefault(); redo(); }
+    });
+  }
+
   // Autosave: the scenario (SI, as edited) and the unit system go into this browser's
   // storage on every recompute, so a reload or a closed tab loses nothing; the page opens on
   // it next time, saying so. Storage that is full or switched off is skipped quietly.
@@ -2260,6 +2315,7 @@
     setUpShelter();
     setUpChartSaving();
     setUpPrinting();
+    setUpHistory();
 
     let resizeTimer = 0;
     window.addEventListener('resize', () => {
