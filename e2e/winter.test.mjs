@@ -389,3 +389,25 @@ test('undo and redo step through the edits', () => withPage(async (page) => {
   await andRecompute(page, () => field(page, 'layers[1].thickness_m').fill('12'));
   assert.ok(await page.locator('#redo').isDisabled());
 }));
+
+test('every input has a label and a tooltip with its unit', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  const unlabelled = () => page.evaluate(() => {
+    const out = [];
+    for (const i of document.querySelectorAll('[data-field]')) {
+      if (!(i.matches('input, select, textarea'))) continue;
+      const labelled = i.labels && i.labels.length > 0;
+      if (!labelled || !i.title) out.push(i.dataset.field);
+    }
+    return out;
+  });
+  assert.deepEqual(await unlabelled(), []);
+  const t = await field(page, 'layers[1].thickness_m').getAttribute('title');
+  assert.match(t, /^Thickness, in cm/);
+  await page.check('#units-us');
+  await page.waitForFunction(() => /in in/.test(document.querySelector('[data-field="layers[1].thickness_m"]').title));
+  // The shelter's inputs too.
+  await pickExample(page, 'training-dome-four', false);
+  await page.waitForSelector('[data-field^="shelter."]');
+  assert.deepEqual(await unlabelled(), []);
+}));

@@ -216,6 +216,9 @@
     }
     if (spec.hint) wrap.append(el('span', { class: 'field-hint', text: spec.hint }));
     wrap.append(el('span', { class: 'field-msg', id: msgId, 'data-msg-for': spec.path, 'aria-live': 'polite' }));
+    // The tooltip: what the input is and its unit.
+    input.title = spec.label + (u ? ', in ' + u : '') + (spec.hint ? ' — ' + spec.hint : '') +
+      (spec.q && !spec.options && !spec.text ? '. Decimal comma or point.' : '');
     return wrap;
   }
 
@@ -888,7 +891,7 @@
     clear(sb);
     if (c.kind !== 'daily') {
       const on = !!c.snow;
-      const check = el('input', { type: 'checkbox', id: 'w-snow-on', 'data-field': 'winter.climate.snow', checked: on });
+      const check = el('input', { type: 'checkbox', id: 'w-snow-on', 'data-field': 'winter.climate.snow', checked: on, title: 'Lay a season of snow on the ground: it comes, deepens, settles and melts as set below' });
       check.addEventListener('change', () => {
         if (check.checked) c.snow = (winter.past.snow && winter.past.snow[c.kind]) || defaultSnowSeason(c.kind);
         else { winter.past.snow = winter.past.snow || {}; winter.past.snow[c.kind] = c.snow; delete c.snow; }
