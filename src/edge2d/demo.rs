@@ -103,7 +103,7 @@ pub fn design_winter_section() -> EdgeSection {
             gradient_k_per_m: 0.2,
         },
         grid: AxisSpacing {
-            fine_m: 0.025,
+            fine_m: 0.04,
             growth_ratio: 1.2,
             max_cell_m: 0.6,
         },

@@ -143,6 +143,10 @@ pub struct PlaneTolerances {
     pub min_step_fraction: f64,
     /// Conjugate-gradient iterations allowed per pass.
     pub max_linear_iterations: usize,
+    /// Start each step's passes from the state the last step's rate of change predicts
+    /// (H + Δt (H − Hⁿ⁻¹)/Δtⁿ⁻¹) rather than from the state itself. Only the starting point
+    /// of the iteration: the converged step is the same to the tolerance.
+    pub predict: bool,
 }
 
 impl Default for PlaneTolerances {
@@ -153,6 +157,7 @@ impl Default for PlaneTolerances {
             max_iterations: 40,
             min_step_fraction: 1.0 / 1024.0,
             max_linear_iterations: 2000,
+            predict: true,
         }
     }
 }
@@ -208,6 +213,8 @@ pub struct Plane {
     g_bot: Vec<f64>,
     slope: Vec<f64>,
     h_old: Vec<f64>,
+    /// dH/dt of the last converged step, J/m³/s (empty before the first).
+    trend: Vec<f64>,
     /// V/Δt per cell.
     cap: Vec<f64>,
     /// −F (the negated residual), W/m.
@@ -286,6 +293,7 @@ impl Plane {
             g_bot: vec![0.0; nx],
             slope: vec![0.0; n],
             h_old: vec![0.0; n],
+            trend: Vec::new(),
             cap: vec![0.0; n],
             res: vec![0.0; n],
             diag: vec![0.0; n],
@@ -661,6 +669,12 @@ impl Plane {
         let (nx, nz) = (self.nx, self.nz);
         let n = nx * nz;
         self.h_old.copy_from_slice(&self.enthalpy);
+        if self.tolerances.predict && self.trend.len() == n {
+            for p in 0..n {
+                self.enthalpy[p] += self.trend[p] * dt;
+                self.temperature[p] = self.phases[p].temperature(self.enthalpy[p]);
+            }
+        }
         for j in 0..nz {
             for i in 0..nx {
                 self.cap[j * nx + i] = self.dx[i] * self.dz[j] / dt;
@@ -693,6 +707,10 @@ impl Plane {
                     (top.iter().map(|q| q.abs()).sum::<f64>() + bot.abs()) * dt;
                 self.last_top_w_m = top;
                 self.last_bottom_w_m = bot;
+                self.trend.resize(n, 0.0);
+                for p in 0..n {
+                    self.trend[p] = (self.enthalpy[p] - self.h_old[p]) / dt;
+                }
                 return Ok(iter.max(1));
             }
             if iter == self.tolerances.max_iterations {
