@@ -375,6 +375,37 @@ fn bad_inputs_are_named_by_their_field() {
         assert!(fields.contains(&f), "{f} in {fields:?}");
     }
     assert!(EdgeRun::new(&s, "edge").is_err());
+    // A grid too fine to run is refused, naming the grid.
+    let mut s = design_winter_section();
+    s.grid = AxisSpacing {
+        fine_m: 0.002,
+        growth_ratio: 1.0,
+        max_cell_m: 0.002,
+    };
+    let e = s.layout("edge").unwrap_err();
+    assert_eq!(e.0[0].field, "edge.grid.fine_m");
+}
+
+/// A step that cannot converge is a typed error, never a silent answer.
+#[test]
+fn non_convergence_is_an_error() {
+    let mut s = design_winter_section();
+    s.duration_s = 30.0 * DAY;
+    let mut run = EdgeRun::new(&s, "edge").unwrap();
+    let climate = design_winter_climate();
+    // One pass and no split allowed: a freezing winter step cannot converge in that.
+    run.set_tolerances(hibernal::edge2d::PlaneTolerances {
+        max_iterations: 1,
+        min_step_fraction: 0.9,
+        ..Default::default()
+    });
+    match run.advance(&climate, usize::MAX) {
+        Err(hibernal::edge2d::EdgeError::Solver(hibernal::edge2d::PlaneError::NoConvergence {
+            residual,
+            ..
+        })) => assert!(residual > 1e-3),
+        other => panic!("expected no convergence, got {other:?}"),
+    }
 }
 
 /// Slicing the run changes no number.

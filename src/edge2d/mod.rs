@@ -228,6 +228,10 @@ pub enum Region {
     Wing,
 }
 
+/// Most cells a section's grid may have (a grid this fine takes minutes natively; a setting
+/// of this tool).
+pub const MAX_CELLS: usize = 250_000;
+
 /// Top groups of the plane built for a section.
 pub const TOP_INSIDE: usize = 0;
 pub const TOP_WALL: usize = 1;
@@ -548,6 +552,16 @@ impl EdgeSection {
         let x_faces = axis::faces(&xr, &xf, &self.grid);
         let z_faces = axis::faces(&zr, &zf, &self.grid);
         let (nx, nz) = (x_faces.len() - 1, z_faces.len() - 1);
+        if nx * nz > MAX_CELLS {
+            return Err(InputErrors(vec![crate::error::InputError::new(
+                format!("{prefix}.grid.fine_m"),
+                InputErrorKind::Count {
+                    count: nx * nz,
+                    min: 1,
+                    max: MAX_CELLS,
+                },
+            )]));
+        }
         let inside = |a: f64, b: f64, c: f64| c > a && c < b;
         let mut regions = Vec::with_capacity(nx * nz);
         let mut phases = Vec::with_capacity(nx * nz);

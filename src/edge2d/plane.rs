@@ -225,6 +225,10 @@ pub struct Plane {
     /// conductance, or 0 where either cell is masked).
     cw: Vec<f64>,
     cn: Vec<f64>,
+    fw: Vec<f64>,
+    fn_: Vec<f64>,
+    bw: Vec<f64>,
+    bn: Vec<f64>,
     ic: Vec<f64>,
     x: Vec<f64>,
     r: Vec<f64>,
@@ -299,6 +303,10 @@ impl Plane {
             diag: vec![0.0; n],
             cw: vec![0.0; n],
             cn: vec![0.0; n],
+            fw: vec![0.0; n],
+            fn_: vec![0.0; n],
+            bw: vec![0.0; n],
+            bn: vec![0.0; n],
             ic: vec![0.0; n],
             x: vec![0.0; n],
             r: vec![0.0; n],
@@ -555,9 +563,11 @@ impl Plane {
         }
     }
 
-    /// IC(0) pivots of M (stored inverted). M is a symmetric M-matrix (positive diagonal,
-    /// non-positive couplings, diagonally dominant), so the pivots stay positive (Meijerink &
-    /// van der Vorst 1977); a guard keeps them so anyway.
+    /// IC(0) of M: pivots d_p = m_pp − Σ_lower c² / d_q (Meijerink & van der Vorst 1977).
+    /// M is a symmetric M-matrix (positive diagonal, non-positive couplings, diagonally
+    /// dominant), so the pivots stay positive; a guard keeps them so anyway. Stored for the
+    /// sweeps already divided by the pivot: `ic` = 1/d_p, `fw`, `fn_` = c/d_p of the west and
+    /// north couplings, `bw`, `bn` = c/d_p of the east and south ones.
     fn factorise(&mut self) {
         let (nx, n) = (self.nx, self.len());
         for p in 0..n {
@@ -570,33 +580,41 @@ impl Plane {
             }
             self.ic[p] = if d > 0.0 { 1.0 / d } else { 1.0 / self.diag[p] };
         }
+        for p in 0..n {
+            let inv = self.ic[p];
+            self.fw[p] = self.cw[p] * inv;
+            self.fn_[p] = self.cn[p] * inv;
+            self.bw[p] = if p + 1 < n { self.cw[p + 1] * inv } else { 0.0 };
+            self.bn[p] = if p + nx < n {
+                self.cn[p + nx] * inv
+            } else {
+                0.0
+            };
+        }
     }
 
     /// z = (IC(0))⁻¹ r: forward u_p = (r_p + Σ_lower c u_q)/d_p, then backward
     /// z_p = u_p + Σ_upper c z_q / d_p (the couplings of M are −c).
     fn precondition(&self, r: &[f64], z: &mut [f64]) {
         let (nx, n) = (self.nx, self.len());
-        let (cw, cn, ic) = (&self.cw[..n], &self.cn[..n], &self.ic[..n]);
+        let (ic, fw, fnn) = (&self.ic[..n], &self.fw[..n], &self.fn_[..n]);
+        let (bw, bn) = (&self.bw[..n], &self.bn[..n]);
         let (r, z) = (&r[..n], &mut z[..n]);
-        for p in 0..n {
-            let mut v = r[p];
-            if p >= 1 {
-                v += cw[p] * z[p - 1];
-            }
-            if p >= nx {
-                v += cn[p] * z[p - nx];
-            }
-            z[p] = v * ic[p];
+        // First row: west couplings only; then every row with its north neighbour.
+        z[0] = r[0] * ic[0];
+        for p in 1..nx.min(n) {
+            z[p] = r[p] * ic[p] + fw[p] * z[p - 1];
         }
-        for p in (0..n).rev() {
-            let mut v = 0.0;
-            if p + 1 < n {
-                v += cw[p + 1] * z[p + 1];
-            }
-            if p + nx < n {
-                v += cn[p + nx] * z[p + nx];
-            }
-            z[p] += v * ic[p];
+        for p in nx..n {
+            z[p] = r[p] * ic[p] + fw[p] * z[p - 1] + fnn[p] * z[p - nx];
+        }
+        // Backward: last row east only; then every row with its south neighbour.
+        let last_row = n.saturating_sub(nx);
+        for p in (last_row..n.saturating_sub(1)).rev() {
+            z[p] += bw[p] * z[p + 1];
+        }
+        for p in (0..last_row).rev() {
+            z[p] += bw[p] * z[p + 1] + bn[p] * z[p + nx];
         }
     }
 

@@ -113,6 +113,11 @@ impl EdgeRun {
         &self.layout
     }
 
+    /// Change the solver's iteration settings (before or between slices).
+    pub fn set_tolerances(&mut self, t: super::PlaneTolerances) {
+        self.layout.plane.tolerances = t;
+    }
+
     /// The top conditions at time t: inside, wall top, outside.
     fn tops(&self, forcing: &dyn Forcing, t: f64) -> ([TopFace; 3], f64) {
         let air = forcing.air_c(t);
