@@ -313,7 +313,7 @@ fn far_field_column_follows_the_neumann_solution() {
     run.advance(&air, usize::MAX).unwrap();
     let r = run.finish();
     for day in [30usize, 60] {
-        let got = r.days[day - 1].far_frost_depth_m;
+        let got = r.records[day - 1].far_frost_depth_m;
         let want = exact.front_depth_m(day as f64 * DAY);
         println!("day {day}: far column {got:.4} m, Neumann {want:.4} m");
         // 1.5 %: the grid under the outside grows from 2.5 cm to 60 cm cells; the front at
@@ -427,6 +427,17 @@ fn slices_give_the_same_run() {
     }
     let sliced = run.finish();
     assert_eq!(whole, sliced);
+    // The fields: one at the start and one a day for 20 days, each row-major on the grid.
+    assert_eq!(whole.fields.len(), 21);
+    assert_eq!(whole.records.len(), 20);
+    let n = whole.nx * whole.nz;
+    assert_eq!(whole.x_faces_m.len(), whole.nx + 1);
+    assert_eq!(whole.z_faces_m.len(), whole.nz + 1);
+    assert_eq!(whole.regions.len(), n);
+    for f in &whole.fields {
+        assert_eq!((f.temperature_c.len(), f.frozen_fraction.len()), (n, n));
+        assert!(f.frozen_fraction.iter().all(|v| (0.0..=1.0).contains(v)));
+    }
 }
 
 /// The daily step is converged and the design grid's error is known: against 6-hour steps

@@ -50,7 +50,7 @@ use crate::transient::phase::{Phase, UnfrozenWater};
 use crate::transient::BottomCondition;
 pub use axis::AxisSpacing;
 pub use plane::{Plane, PlaneError, PlaneTolerances, PlaneWork, TopFace};
-pub use run::{run_edge, EdgeDay, EdgeError, EdgeField, EdgeResult, EdgeRun};
+pub use run::{run_edge, EdgeError, EdgeField, EdgeRecord, EdgeResult, EdgeRun};
 
 /// A board of insulation (or any thin layer that stores little heat).
 #[derive(Debug, Clone, Copy, PartialEq)]

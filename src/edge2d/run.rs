@@ -25,7 +25,7 @@ impl From<InputErrors> for EdgeError {
 
 /// One record per step.
 #[derive(Debug, Clone, Copy, PartialEq)]
-pub struct EdgeDay {
+pub struct EdgeRecord {
     /// End of the step, s from the start.
     pub time_s: f64,
     pub air_c: f64,
@@ -61,7 +61,7 @@ pub struct EdgeResult {
     pub x_faces_m: Vec<f64>,
     pub z_faces_m: Vec<f64>,
     pub regions: Vec<Region>,
-    pub days: Vec<EdgeDay>,
+    pub records: Vec<EdgeRecord>,
     pub fields: Vec<EdgeField>,
     pub max_frost_below_base_m: f64,
     pub max_frost_below_base_time_s: f64,
@@ -84,7 +84,7 @@ pub struct EdgeRun {
     done: usize,
     n_steps: usize,
     dt: f64,
-    days: Vec<EdgeDay>,
+    records: Vec<EdgeRecord>,
     fields: Vec<EdgeField>,
     next_field: f64,
 }
@@ -101,7 +101,7 @@ impl EdgeRun {
             done: 0,
             n_steps,
             dt,
-            days: Vec::new(),
+            records: Vec::new(),
             fields: Vec::new(),
             next_field: 0.0,
         };
@@ -178,7 +178,7 @@ impl EdgeRun {
         }
     }
 
-    /// Frost below the footing's base now (see [`EdgeDay::frost_below_base_m`]).
+    /// Frost below the footing's base now (see [`EdgeRecord::frost_below_base_m`]).
     pub fn frost_below_base_m(&self) -> f64 {
         let l = &self.layout;
         let p = &l.plane;
@@ -238,7 +238,7 @@ impl EdgeRun {
             self.done += 1;
             budget -= 1;
             let p = &self.layout.plane;
-            self.days.push(EdgeDay {
+            self.records.push(EdgeRecord {
                 time_s: t_end,
                 air_c: air,
                 frost_below_base_m: self.frost_below_base_m(),
@@ -257,21 +257,21 @@ impl EdgeRun {
     pub fn finish(self) -> EdgeResult {
         let p = &self.layout.plane;
         let (mut max_b, mut max_t) = (f64::NEG_INFINITY, 0.0);
-        for d in &self.days {
+        for d in &self.records {
             if d.frost_below_base_m > max_b {
                 max_b = d.frost_below_base_m;
                 max_t = d.time_s;
             }
         }
         let max_far = self
-            .days
+            .records
             .iter()
             .map(|d| d.far_frost_depth_m)
             .fold(0.0, f64::max);
-        let mean_slab = if self.days.is_empty() {
+        let mean_slab = if self.records.is_empty() {
             0.0
         } else {
-            self.days.iter().map(|d| d.slab_heat_w_m).sum::<f64>() / self.days.len() as f64
+            self.records.iter().map(|d| d.slab_heat_w_m).sum::<f64>() / self.records.len() as f64
         };
         EdgeResult {
             nx: p.nx,
@@ -289,7 +289,7 @@ impl EdgeRun {
             iterations: p.work.iterations,
             linear_iterations: p.work.linear_iterations,
             splits: p.work.splits,
-            days: self.days,
+            records: self.records,
             fields: self.fields,
         }
     }
