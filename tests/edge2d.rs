@@ -144,7 +144,8 @@ fn laterally_uniform_plane_equals_the_column_solver() {
 
 /// (b) Steady conduction in a rectangle W × H, sides adiabatic, bottom held at T0, top held
 /// at T1 for x < a and at T0 beyond: the Fourier cosine series (separation of variables,
-/// Carslaw & Jaeger 1959 §5.3; Incropera & DeWitt §4.2 for the method)
+/// Carslaw & Jaeger 1959 §5.3; Incropera & DeWitt §4.2 for the method; section numbers from
+/// memory)
 /// θ = (a/W)(1 − z/H) + Σ (2/(nπ)) sin(nπa/W) cos(nπx/W) sinh(nπ(H − z)/W)/sinh(nπH/W),
 /// θ = (T − T0)/(T1 − T0). Checked: the heat flux through the bottom at x = 0 and x = W,
 /// q/(kΔT) = a/(WH) + (2/W) Σ sin(nπa/W) cos(nπx/W)/sinh(nπH/W), and θ at interior points;
