@@ -1,7 +1,7 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
 //! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`], [`shelter`],
-//! [`climate`], [`design`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
+//! [`climate`], [`design`], [`edge2d`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
 //! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
 //! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
 //! from CSV text), [`climate_import`] (that record brought into a scenario, with its
@@ -11,6 +11,7 @@
 pub mod analytic;
 pub mod climate;
 pub mod design;
+pub mod edge2d;
 pub mod error;
 pub mod materials;
 pub mod shelter;
