@@ -255,6 +255,20 @@ pub fn limit_depth_m(limit: FrostLimit, thicknesses_m: &[f64]) -> f64 {
 /// Below this thickness a trial runs without the layer, m (0.1 mm; a setting of this tool).
 pub const MIN_LAYER_M: f64 = 1e-4;
 
+/// `spec` with layer `layer` this thick: without the layer below [`MIN_LAYER_M`] (a grid
+/// cannot hold a thinner one), when other layers remain.
+pub fn with_layer_thickness(spec: &RunSpec, layer: usize, x: f64) -> RunSpec {
+    let mut sp = spec.clone();
+    if x < MIN_LAYER_M && sp.thicknesses_m.len() > 1 {
+        sp.thicknesses_m.remove(layer);
+        sp.materials.remove(layer);
+        sp.curves.remove(layer);
+    } else {
+        sp.thicknesses_m[layer] = x.max(MIN_LAYER_M);
+    }
+    sp
+}
+
 /// The least thickness of layer `layer` (m, within `s`) of the 1D column `spec` under
 /// `forcing` for which the deepest frost of the run stays at or above `limit`. Each trial
 /// is a whole run (its start, spin-up included, as `spec` says).
@@ -268,16 +282,7 @@ pub fn least_layer_thickness(
     least_value(s, |x| {
         let mut thicknesses = spec.thicknesses_m.clone();
         thicknesses[layer] = x.max(0.0);
-        let mut sp = spec.clone();
-        if x < MIN_LAYER_M && sp.thicknesses_m.len() > 1 {
-            // No layer at all (a grid cannot hold a layer thinner than this).
-            sp.thicknesses_m.remove(layer);
-            sp.materials.remove(layer);
-            sp.curves.remove(layer);
-        } else {
-            sp.thicknesses_m[layer] = x.max(MIN_LAYER_M);
-        }
-        let r = run(&sp, forcing)?;
+        let r = run(&with_layer_thickness(spec, layer, x), forcing)?;
         Ok(Trial {
             value: x,
             frost_depth_m: r.max_frost_depth_m,

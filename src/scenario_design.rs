@@ -7,7 +7,7 @@ use serde::{Deserialize, Serialize};
 
 use crate::climate::Climate;
 use crate::design::{
-    limit_depth_m, DesignAnswer, FrostLimit, Search, Searcher, Trial, MIN_LAYER_M,
+    limit_depth_m, with_layer_thickness, DesignAnswer, FrostLimit, Search, Searcher, Trial,
 };
 use crate::error::{check, InputError, InputErrorKind, InputErrors};
 use crate::scenario::LayerDoc;
@@ -227,18 +227,6 @@ impl DesignJob {
         })
     }
 
-    fn spec_for(&self, x: f64) -> RunSpec {
-        let mut sp = self.spec.clone();
-        if x < MIN_LAYER_M && sp.thicknesses_m.len() > 1 {
-            sp.thicknesses_m.remove(self.layer);
-            sp.materials.remove(self.layer);
-            sp.curves.remove(self.layer);
-        } else {
-            sp.thicknesses_m[self.layer] = x.max(MIN_LAYER_M);
-        }
-        sp
-    }
-
     /// Advance by at most `max_steps` time steps; the share of the work done (each run
     /// counted as an equal share of [`MAX_RUNS`] until the search ends) and whether it has
     /// ended.
@@ -249,7 +237,8 @@ impl DesignJob {
                 let Some(x) = self.searcher.next_value() else {
                     break;
                 };
-                let r = run::Run::new(&self.spec_for(x)).map_err(run_error)?;
+                let r = run::Run::new(&with_layer_thickness(&self.spec, self.layer, x))
+                    .map_err(run_error)?;
                 self.current = Some((x, r));
             }
             let Some((x, r)) = self.current.as_mut() else {
