@@ -494,6 +494,57 @@ struct Step<'a> {
     errors: Option<&'a [ErrorDoc]>,
 }
 
+/// Drive a sliced job for about `budget_ms` milliseconds (48 steps at a time): the job when
+/// it has ended (taken out of `job`), or `None` while it runs; a failure empties `job` and
+/// fills `errors`.
+fn advance_for<J>(
+    job: &mut Option<J>,
+    errors: &mut Vec<ErrorDoc>,
+    budget_ms: f64,
+    mut step: impl FnMut(&mut J) -> Result<crate::transient::run::Progress, crate::error::InputErrors>,
+) -> Option<J> {
+    let t0 = clock_ms();
+    let budget = if budget_ms.is_finite() {
+        budget_ms.clamp(1.0, 10_000.0)
+    } else {
+        16.0
+    };
+    while let Some(j) = job.as_mut() {
+        match step(j) {
+            Ok(p) if p.finished => return job.take(),
+            Ok(_) => {
+                if clock_ms() - t0 >= budget {
+                    break;
+                }
+            }
+            Err(e) => {
+                *errors = e.0.iter().map(ErrorDoc::from).collect();
+                *job = None;
+            }
+        }
+    }
+    None
+}
+
+/// `{ok, fraction, finished, errors?}` of a sliced job.
+fn step_outcome(
+    running: &Option<crate::transient::run::Progress>,
+    finished: bool,
+    errors: &[ErrorDoc],
+) -> JsValue {
+    let (fraction, finished) = match (running, finished) {
+        (Some(p), _) => (p.fraction, false),
+        (None, true) => (1.0, true),
+        (None, false) => (0.0, false),
+    };
+    to_js(&Step {
+        ok: errors.is_empty(),
+        fraction,
+        finished,
+        errors: (!errors.is_empty()).then_some(errors),
+    })
+}
+
 /// The least-thickness search of a scenario's winter section, advanced a slice at a time
 /// (each of its runs is a whole winter). Never throws: problems come back through
 /// [`DesignRun::errors`] and `advance`.
@@ -541,40 +592,17 @@ impl DesignRun {
 
     /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
     pub fn advance(&mut self, budget_ms: f64) -> JsValue {
-        let t0 = clock_ms();
-        let budget = if budget_ms.is_finite() {
-            budget_ms.clamp(1.0, 10_000.0)
-        } else {
-            16.0
-        };
-        while let Some(job) = self.job.as_mut() {
-            match job.advance(48) {
-                Ok(p) if p.finished => {
-                    self.report = self.job.take().and_then(|j| j.report());
-                    break;
-                }
-                Ok(_) => {
-                    if clock_ms() - t0 >= budget {
-                        break;
-                    }
-                }
-                Err(e) => {
-                    self.errors = e.0.iter().map(ErrorDoc::from).collect();
-                    self.job = None;
-                }
-            }
+        let ended = advance_for(&mut self.job, &mut self.errors, budget_ms, |j| {
+            j.advance(48)
+        });
+        if let Some(job) = ended {
+            self.report = job.report();
         }
-        let (fraction, finished) = match (&self.job, &self.report) {
-            (Some(j), _) => (j.progress().fraction, false),
-            (None, Some(_)) => (1.0, true),
-            (None, None) => (0.0, false),
-        };
-        to_js(&Step {
-            ok: self.errors.is_empty(),
-            fraction,
-            finished,
-            errors: (!self.errors.is_empty()).then_some(&self.errors[..]),
-        })
+        step_outcome(
+            &self.job.as_ref().map(|j| j.progress()),
+            self.report.is_some(),
+            &self.errors,
+        )
     }
 
     /// The report once finished, or null.
@@ -636,40 +664,17 @@ impl WinterRun {
 
     /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
     pub fn advance(&mut self, budget_ms: f64) -> JsValue {
-        let t0 = clock_ms();
-        let budget = if budget_ms.is_finite() {
-            budget_ms.clamp(1.0, 10_000.0)
-        } else {
-            16.0
-        };
-        while let Some(job) = self.job.as_mut() {
-            match job.advance(48) {
-                Ok(p) if p.finished => {
-                    self.report = self.job.take().map(|j| j.finish());
-                    break;
-                }
-                Ok(_) => {
-                    if clock_ms() - t0 >= budget {
-                        break;
-                    }
-                }
-                Err(e) => {
-                    self.errors = e.0.iter().map(ErrorDoc::from).collect();
-                    self.job = None;
-                }
-            }
+        let ended = advance_for(&mut self.job, &mut self.errors, budget_ms, |j| {
+            j.advance(48)
+        });
+        if let Some(job) = ended {
+            self.report = Some(job.finish());
         }
-        let (fraction, finished) = match (&self.job, &self.report) {
-            (Some(j), _) => (j.progress().fraction, false),
-            (None, Some(_)) => (1.0, true),
-            (None, None) => (0.0, false),
-        };
-        to_js(&Step {
-            ok: self.errors.is_empty(),
-            fraction,
-            finished,
-            errors: (!self.errors.is_empty()).then_some(&self.errors[..]),
-        })
+        step_outcome(
+            &self.job.as_ref().map(|j| j.progress()),
+            self.report.is_some(),
+            &self.errors,
+        )
     }
 
     /// The report once finished (daily series, envelope, indices; no profiles), or null.

@@ -1465,10 +1465,12 @@
     return dpr;
   }
 
-  function winterChart(id, draw) {
+  // Draw one chart from a finished job (`draw(canvas, dpr)` returns {ok, message}); a
+  // chart that fails says why under its canvas.
+  function jobChart(id, job, draw) {
     const c = $(id);
     const dpr = sizeCanvas(c);
-    if (!dpr || !winter.job) return;
+    if (!dpr || !job) return;
     let r;
     try { r = draw(c, dpr); } catch (err) { console.error(err); r = { ok: false, message: String(err && err.message || err) }; }
     let msg = c.parentElement.querySelector('.chart-msg');
@@ -1476,6 +1478,8 @@
     msg.textContent = r && r.ok ? '' : 'The chart could not be drawn: ' + ((r && r.message) || 'unknown reason');
     c.dataset.draws = String(Number(c.dataset.draws || 0) + 1);
   }
+
+  const winterChart = (id, draw) => jobChart(id, winter.job, draw);
 
   function drawDayChart() {
     if (!winter.job || typeof winter.job.draw_day_profile !== 'function') return;
@@ -1491,15 +1495,7 @@
 
   function downloadCsv() {
     if (!winter.job) return;
-    const text = winter.job.csv(state.units);
-    const blob = new Blob([text], { type: 'text/csv' });
-    const url = URL.createObjectURL(blob);
-    const name = (state.scenario.title || 'winter').replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || 'winter';
-    const a = el('a', { href: url, download: name + '-daily.csv' });
-    document.body.append(a);
-    a.click();
-    a.remove();
-    setTimeout(() => URL.revokeObjectURL(url), 5000);
+    download(winter.job.csv(state.units), fileStem('winter') + '-daily.csv');
   }
 
   function setUpWinter() {
@@ -1923,17 +1919,7 @@
     }
   }
 
-  function shelterChart(id, draw) {
-    const c = $(id);
-    const dpr = sizeCanvas(c);
-    if (!dpr || !shelter.job) return;
-    let r;
-    try { r = draw(c, dpr); } catch (err) { console.error(err); r = { ok: false, message: String(err && err.message || err) }; }
-    let msg = c.parentElement.querySelector('.chart-msg');
-    if (!msg) { msg = el('p', { class: 'msg error chart-msg', role: 'status' }); c.after(msg); }
-    msg.textContent = r && r.ok ? '' : 'The chart could not be drawn: ' + ((r && r.message) || 'unknown reason');
-    c.dataset.draws = String(Number(c.dataset.draws || 0) + 1);
-  }
+  const shelterChart = (id, draw) => jobChart(id, shelter.job, draw);
 
   function drawShelter() {
     if (!shelter.job) return;
@@ -1941,8 +1927,8 @@
     for (let i = 0; i < 3; i++) shelterChart('s-sweep-' + i, (c, dpr) => shelter.job.draw_sweep(c, i, state.units, dpr));
   }
 
-  function download(text, name) {
-    const blob = new Blob([text], { type: 'text/csv' });
+  // Hand a file to the browser's download (a blob URL; nothing leaves the computer).
+  function saveBlob(blob, name) {
     const url = URL.createObjectURL(blob);
     const a = el('a', { href: url, download: name });
     document.body.append(a);
@@ -1950,6 +1936,7 @@
     a.remove();
     setTimeout(() => URL.revokeObjectURL(url), 5000);
   }
+  const download = (text, name, type = 'text/csv') => saveBlob(new Blob([text], { type }), name);
   const fileStem = (fallback) => (state.scenario.title || fallback).replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || fallback;
 
   // A link that carries the scenario: its JSON, deflated (the browser's CompressionStream,
@@ -2119,15 +2106,7 @@
         text: 'Save chart as PNG', 'aria-label': 'Save the chart (' + what + ') as a PNG image',
       });
       b.addEventListener('click', () => {
-        c.toBlob((blob) => {
-          if (!blob) return;
-          const url = URL.createObjectURL(blob);
-          const a = el('a', { href: url, download: fileStem('hibernal') + '-' + c.id + '.png' });
-          document.body.append(a);
-          a.click();
-          a.remove();
-          setTimeout(() => URL.revokeObjectURL(url), 5000);
-        }, 'image/png');
+        c.toBlob((blob) => { if (blob) saveBlob(blob, fileStem('hibernal') + '-' + c.id + '.png'); }, 'image/png');
       });
       c.after(b);
     }
@@ -2191,15 +2170,7 @@
   }
 
   function saveFile() {
-    const text = JSON.stringify(state.scenario, null, 2) + '\n';
-    const blob = new Blob([text], { type: 'application/json' });
-    const url = URL.createObjectURL(blob);
-    const name = (state.scenario.title || 'scenario').replace(/[^A-Za-z0-9_-]+/g, '-').replace(/^-+|-+$/g, '').toLowerCase() || 'scenario';
-    const a = el('a', { href: url, download: name + '.hibernal.json' });
-    document.body.append(a);
-    a.click();
-    a.remove();
-    setTimeout(() => URL.revokeObjectURL(url), 5000);
+    download(JSON.stringify(state.scenario, null, 2) + '\n', fileStem('scenario') + '.hibernal.json', 'application/json');
   }
 
   function openFile(ev) {
