@@ -2,6 +2,7 @@
 // network refused. Run from the repository root: node --test e2e/
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
+import { readFileSync } from 'node:fs';
 import {
   launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor,
   chartDigest, chartInkedPixels, parseShown,
@@ -284,4 +285,32 @@ test('every material kind can be chosen, computes, and survives the unit switch'
       assert.ok(Number.isFinite((await shown(page, '#r-total')).value), `${kind}: an R-value is shown`);
     }
   }
+}));
+
+test('every results table saves as CSV, numbers bare and units in the heading', () => withPage(async (page) => {
+  // Each table.data with an id has its own button; the layer table of the first example is
+  // read back: a heading row with units in brackets, a row per layer, numbers that parse.
+  const tables = await page.locator('table.data[id]').evaluateAll((ts) => ts.map((t) => t.id));
+  const buttons = await page.locator('.csv-btn').evaluateAll((bs) => bs.map((b) => b.dataset.csvFor));
+  assert.deepEqual(buttons.sort(), tables.sort(), 'a button for every table');
+  const layers = await page.locator('#layer-list > li').count();
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('[data-csv-for="layer-results"]')]);
+  const text = readFileSync(await dl.path(), 'utf8');
+  const lines = text.trim().split(/\r\n/);
+  assert.equal(lines.length, 1 + layers, text);
+  assert.match(lines[0], /\[m²·K\/W\]|\[m²K\/W\]|\[m2K\/W\]|\[[^\]]*K[^\]]*W\]/, lines[0]);
+  // RFC 4180 fields: quoted ones may hold commas.
+  const fields = (l) => [...l.matchAll(/("(?:[^"]|"")*"|[^,]*)(,|$)/g)].slice(0, -1).map((m) => m[1].replace(/^"|"$/g, '').replace(/""/g, '"'));
+  const head = fields(lines[0]);
+  const rCol = head.findIndex((h) => /^R \[/.test(h));
+  assert.ok(rCol >= 0, lines[0]);
+  for (const l of lines.slice(1)) {
+    const f = fields(l);
+    assert.equal(f.length, head.length, l);
+    assert.ok(Number(f[rCol]) > 0, l);
+  }
+  // In US units the same table says so in its heading.
+  await andRecompute(page, () => page.check('#units-us'));
+  const [dl2] = await Promise.all([page.waitForEvent('download'), page.click('[data-csv-for="layer-results"]')]);
+  assert.match(readFileSync(await dl2.path(), 'utf8').split(/\r\n/)[0], /ft²·°F·h\/Btu|ft2/);
 }));

@@ -242,6 +242,10 @@ test('the least board that keeps frost out of the gravel pad is found and holds'
   assert.ok(m, text);
   const mm = Number(m[1]) * (m[2] === 'cm' ? 10 : 1);
   assert.ok(mm > 60 && mm < 120, `${mm} mm`);
+  // The answer as an R-value too (a board's R = thickness / k; foam boards 0.02–0.05 W/m/K).
+  const r = /R-value ([\d.]+)/.exec(text);
+  assert.ok(r, text);
+  assert.ok(Number(r[1]) > mm / 1000 / 0.05 && Number(r[1]) < mm / 1000 / 0.02, `R ${r[1]}`);
   assert.ok(await page.locator('#w-design-trials tbody tr').count() >= 4, 'the tries are listed');
   // The search is kept in the scenario: a reload of the same file would find it.
   assert.equal(await page.evaluate(() => document.querySelector('#w-design').dataset.runs), '1');

@@ -160,6 +160,11 @@ pub struct LeastThicknessReport {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub slope: Option<f64>,
     pub resolution_m: f64,
+    /// For an insulation board: the R-value of the thickness found (or of the smallest of
+    /// the range), m²K/W, at the board's conductivity as the run used it (moisture
+    /// derating included), R = thickness / k.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub r_value_m2k_w: Option<f64>,
     /// Every run, in the order run.
     pub trials: Vec<TrialDoc>,
 }
@@ -283,6 +288,16 @@ impl DesignJob {
     }
 
     /// The report (`None` before the search has ended).
+    /// R = t / k of the sized layer when it is an insulation board (constant k).
+    fn board_r_value(&self, thickness_m: f64) -> Option<f64> {
+        let m = self.spec.materials.get(self.layer)?;
+        if m.family != crate::materials::Family::Insulation {
+            return None;
+        }
+        let k = m.conductivity.k(0.0);
+        (k > 0.0 && k.is_finite()).then(|| thickness_m / k)
+    }
+
     pub fn report(&self) -> Option<LeastThicknessReport> {
         let answer = self.searcher.answer()?;
         let trials: Vec<TrialDoc> = self.searcher.trials().iter().map(TrialDoc::from).collect();
@@ -295,6 +310,7 @@ impl DesignJob {
             limit_m: t.limit_m,
             slope,
             resolution_m: self.resolution_m,
+            r_value_m2k_w: thickness_m.and_then(|t: f64| self.board_r_value(t)),
             trials: trials.clone(),
         };
         Some(match answer {

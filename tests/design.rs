@@ -287,6 +287,19 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
     let d = c.winter.unwrap().least_thickness.unwrap();
     assert_eq!(d.outcome, "found");
     let t = d.thickness_m.unwrap();
+    // The board's R at the answer: the steady report's layer R scaled to the thickness
+    // found (a board's k is constant, so R is proportional to thickness; the derating the
+    // steady part applies is the one the run uses).
+    let steady = scenario::report(&s, &scenario::compute(&s).unwrap());
+    let layer = &steady.layers[1];
+    let r = d
+        .r_value_m2k_w
+        .expect("a board's answer carries its R-value");
+    assert!(
+        (r - layer.r_m2k_w * t / layer.thickness_m).abs() < 1e-9 * r,
+        "R {r} vs {}",
+        layer.r_m2k_w * t / layer.thickness_m
+    );
     assert!(
         d.trials.len() <= 16 && d.trials.len() >= 4,
         "{} runs",

@@ -404,6 +404,7 @@
     renderFaces();
     renderWinter();
     renderShelter();
+    renderEdge();
     for (const e of document.querySelectorAll('[data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
     for (const e of document.querySelectorAll('.freeze-t')) e.textContent = freezeT();
   }
@@ -504,6 +505,7 @@
     add(state.scenario.bottom, 'bottom.');
     for (const [owner, prefix] of winterOwners()) add(owner, prefix);
     for (const [owner, prefix] of shelterOwners()) add(owner, prefix);
+    for (const [owner, prefix] of edgeOwners()) add(owner, prefix);
     return out;
   }
 
@@ -537,14 +539,17 @@
       cancelWinter();
       if (state.scenario.winter) setWinterStale(true);
       runShelter(true);
+      scheduleEdge(true);
       finish();
       return;
     }
     // The shelter is computed on its own: it does not read the layers, and the layers do
     // not read it.
     runShelter(false);
+    scheduleEdge(false);
     const stackOnly = Object.assign({}, state.scenario);
     delete stackOnly.shelter;
+    delete stackOnly.edge;
     let res;
     try {
       res = W.compute(stackOnly);
@@ -847,134 +852,14 @@
     if (!w) return;
     const rerender = (focus) => () => { renderWinter(); if (focus) { const f = document.querySelector('[data-field="' + CSS.escape(focus) + '"]'); if (f) f.focus(); } run(); };
 
-    // climate
+    // climate, snow, surface, deep ground (the same inputs as the building edge's)
     const c = w.climate;
-    const box = $('w-climate');
-    clear(box);
-    const kinds = [
-      { value: 'sinusoid', text: 'A year of sine-shaped air temperature' },
-      { value: 'design-winter', text: 'A design winter from a freezing index' },
-      { value: 'daily', text: 'Daily records from a CSV file' },
-    ];
-    const grid = el('div', { class: 'w-fields' });
-    grid.append(field({
-      path: 'winter.climate.kind', label: 'Climate from', options: kinds, cls: 'wide',
-      get: () => c.kind,
-      set: (v) => {
-        const past = (winter.past.climate = winter.past.climate || {});
-        past[c.kind] = c;
-        w.climate = past[v] || defaultClimate(v);
-        badText.delete(w.climate);
-      },
-      after: rerender('winter.climate.kind'),
-    }));
-    if (c.kind === 'sinusoid') {
-      grid.append(
-        numField(c, 'mean_c', 'winter.climate.mean_c', 'Mean annual air temperature', 'temperature'),
-        numField(c, 'amplitude_k', 'winter.climate.amplitude_k', 'Swing either side of the mean', 'temperature_difference'),
-        numField(c, 'coldest_day_of_year', 'winter.climate.coldest_day_of_year', 'Coldest day of the year (1 = 1 January)', 'days'),
-      );
-    } else if (c.kind === 'design-winter') {
-      grid.append(
-        numField(c, 'freezing_index_c_days', 'winter.climate.freezing_index_c_days', 'Air freezing index', 'degree_days'),
-        numField(c, 'season_days', 'winter.climate.season_days', 'Length of the freezing season', 'days'),
-        numField(c, 'mean_annual_c', 'winter.climate.mean_annual_c', 'Mean annual air temperature', 'temperature'),
-      );
-    }
-    box.append(grid);
-    box.append(el('span', { class: 'field-msg block', 'data-msg-for': 'winter.climate' }));
+    climateEditor($('w-climate'), w, 'winter.', winter.past, rerender, true);
     $('w-import').hidden = c.kind !== 'daily';
     renderClimateSummary();
-
-    // snow season (the daily record carries its own snow)
-    const sb = $('w-snow');
-    clear(sb);
-    if (c.kind !== 'daily') {
-      const on = !!c.snow;
-      const check = el('input', { type: 'checkbox', id: 'w-snow-on', 'data-field': 'winter.climate.snow', checked: on, title: 'Lay a season of snow on the ground: it comes, deepens, settles and melts as set below' });
-      check.addEventListener('change', () => {
-        if (check.checked) c.snow = (winter.past.snow && winter.past.snow[c.kind]) || defaultSnowSeason(c.kind);
-        else { winter.past.snow = winter.past.snow || {}; winter.past.snow[c.kind] = c.snow; delete c.snow; }
-        rerender('winter.climate.snow')();
-      });
-      sb.append(el('label', { class: 'check', for: 'w-snow-on' }, check, ' Snow lies on the ground'));
-      if (on) {
-        const s = c.snow;
-        const dayHint = c.kind === 'design-winter' ? 'days after freeze-up' : 'day of the year, 0 = 1 January';
-        const g = el('div', { class: 'w-fields' });
-        g.append(
-          numField(s, 'start_day', 'winter.climate.snow.start_day', 'First snow', 'days', { hint: dayHint }),
-          numField(s, 'peak_day', 'winter.climate.snow.peak_day', 'Deepest on', 'days'),
-          numField(s, 'end_day', 'winter.climate.snow.end_day', 'Melted by', 'days'),
-          numField(s, 'peak_depth_m', 'winter.climate.snow.peak_depth_m', 'Greatest depth', 'thickness'),
-          numField(s, 'fresh_density_kg_m3', 'winter.climate.snow.fresh_density_kg_m3', 'Density when fresh', 'density'),
-          numField(s, 'settled_density_kg_m3', 'winter.climate.snow.settled_density_kg_m3', 'Density when settled', 'density'),
-        );
-        sb.append(g, el('p', { class: 'hint', text: 'Depth rises in a straight line from the first snow to the deepest day, then falls to nothing; density rises from fresh to settled over the season. The snow is simulated as layers of its own above the ground.' }));
-      }
-      sb.append(el('span', { class: 'field-msg block', 'data-msg-for': 'winter.climate.snow' }));
-    }
-
-    // surface
-    const su = $('w-surface');
-    clear(su);
-    const sg = el('div', { class: 'w-fields' });
-    sg.append(field({
-      path: 'winter.surface.kind', label: 'Top of the ground meets the weather', cls: 'wide',
-      options: [
-        { value: 'film', text: 'Through an air film (snow adds its own layers)' },
-        { value: 'n-factor', text: 'Surface temperature = n-factor × air temperature' },
-      ],
-      get: () => w.surface.kind,
-      set: (v) => switchSub('surface', v, W_SUB.surface[v]),
-      after: rerender('winter.surface.kind'),
-    }));
-    if (w.surface.kind === 'film') {
-      sg.append(
-        numField(w.surface, 'film_w_m2k', 'winter.surface.film_w_m2k', 'Film coefficient', 'film'),
-        field({
-          path: 'winter.surface.snow_correlation', label: 'Snow conductivity from', cls: 'wide',
-          options: CAT.snow_correlations.map((x) => ({ value: x.id, text: x.name, title: x.citation })),
-          get: () => w.surface.snow_correlation, set: (v) => { w.surface.snow_correlation = v; },
-        }),
-      );
-    } else {
-      const presets = CAT.n_factor_presets || [];
-      const same = (p) => p && Math.abs(p.freezing - w.surface.freezing) < 1e-9;
-      const chosen = presets.find((p) => p.id === winter.nPreset);
-      const match = same(chosen) ? chosen : presets.find(same);
-      sg.append(
-        field({
-          path: 'winter.surface.preset', label: 'Surface (freezing n-factor)', cls: 'wide',
-          options: [{ value: '', text: 'Own value' }].concat(presets.map((p) => ({ value: p.id, text: p.name + ' — ' + p.freezing, title: p.source }))),
-          get: () => (match ? match.id : ''),
-          set: (v) => { const p = presets.find((x) => x.id === v); winter.nPreset = v; if (p) { w.surface.freezing = p.freezing; badText.delete(w.surface); } },
-          after: rerender('winter.surface.preset'),
-        }),
-        numField(w.surface, 'freezing', 'winter.surface.freezing', 'Freezing n-factor', 'fraction'),
-        numField(w.surface, 'thawing', 'winter.surface.thawing', 'Thawing n-factor', 'fraction'),
-      );
-      su.append(sg, el('p', { class: 'hint', text: 'Freezing n-factors: ' + ((presets[0] && presets[0].source) || '') + '. With n-factors, snow cover is taken as part of the factor and not simulated.' }));
-    }
-    if (!su.contains(sg)) su.append(sg);
-
-    // bottom and start
-    const bo = $('w-bottom');
-    clear(bo);
-    const bg = el('div', { class: 'w-fields' });
-    bg.append(field({
-      path: 'winter.bottom.kind', label: 'At the bottom face', cls: 'wide',
-      options: [
-        { value: 'flux', text: 'Heat rising from deep ground (geothermal flux)' },
-        { value: 'temperature', text: 'Held at a fixed temperature' },
-      ],
-      get: () => w.bottom.kind,
-      set: (v) => switchSub('bottom', v, W_SUB.bottom[v]),
-      after: rerender('winter.bottom.kind'),
-    }));
-    if (w.bottom.kind === 'flux') bg.append(numField(w.bottom, 'upward_w_m2', 'winter.bottom.upward_w_m2', 'Heat flux from below', 'heat_flux'));
-    else bg.append(numField(w.bottom, 'temperature_c', 'winter.bottom.temperature_c', 'Bottom temperature', 'temperature'));
-    bo.append(bg);
+    snowEditor($('w-snow'), c, 'winter.', 'w-snow-on', winter.past, rerender, 'The snow is simulated as layers of its own above the ground.');
+    surfaceEditor($('w-surface'), w, 'surface', 'winter.', winter, (v) => switchSub('surface', v, W_SUB.surface[v]), rerender);
+    bottomEditor($('w-bottom'), w, 'winter.', (v) => switchSub('bottom', v, W_SUB.bottom[v]), rerender);
 
     const ini = $('w-initial');
     clear(ini);
@@ -1023,6 +908,146 @@
     ru.append(det);
     renderDesignFields();
     for (const e of document.querySelectorAll('#winter [data-unit]')) e.textContent = unit(e.dataset.unit).symbol;
+  }
+
+  // ---------- weather inputs shared by the winter and the building edge ----------
+  // The climate of a section (`sect.climate`, paths under `prefix`): its kind and numbers.
+  // `allowDaily`: offer daily records (the winter imports them from a CSV file).
+  function climateEditor(box, sect, prefix, past, rerender, allowDaily) {
+    const c = sect.climate;
+    clear(box);
+    const kinds = [
+      { value: 'sinusoid', text: 'A year of sine-shaped air temperature' },
+      { value: 'design-winter', text: 'A design winter from a freezing index' },
+    ];
+    if (allowDaily || c.kind === 'daily') kinds.push({ value: 'daily', text: allowDaily ? 'Daily records from a CSV file' : 'Daily records (from the scenario file)' });
+    const P = prefix + 'climate.';
+    const grid = el('div', { class: 'w-fields' });
+    grid.append(field({
+      path: P + 'kind', label: 'Climate from', options: kinds, cls: 'wide',
+      get: () => c.kind,
+      set: (v) => {
+        const p = (past.climate = past.climate || {});
+        p[c.kind] = c;
+        sect.climate = p[v] || defaultClimate(v);
+        badText.delete(sect.climate);
+      },
+      after: rerender(P + 'kind'),
+    }));
+    if (c.kind === 'sinusoid') {
+      grid.append(
+        numField(c, 'mean_c', P + 'mean_c', 'Mean annual air temperature', 'temperature'),
+        numField(c, 'amplitude_k', P + 'amplitude_k', 'Swing either side of the mean', 'temperature_difference'),
+        numField(c, 'coldest_day_of_year', P + 'coldest_day_of_year', 'Coldest day of the year (1 = 1 January)', 'days'),
+      );
+    } else if (c.kind === 'design-winter') {
+      grid.append(
+        numField(c, 'freezing_index_c_days', P + 'freezing_index_c_days', 'Air freezing index', 'degree_days'),
+        numField(c, 'season_days', P + 'season_days', 'Length of the freezing season', 'days'),
+        numField(c, 'mean_annual_c', P + 'mean_annual_c', 'Mean annual air temperature', 'temperature'),
+      );
+    } else if (!allowDaily) {
+      grid.append(el('p', { class: 'hint', text: (c.days ? c.days.length : 0) + ' days of records, as the scenario file gives them.' }));
+    }
+    box.append(grid, el('span', { class: 'field-msg block', 'data-msg-for': P.slice(0, -1) }));
+  }
+
+  // The snow season of a sine year or a design winter (a daily record carries its own snow).
+  function snowEditor(sb, c, prefix, checkId, past, rerender, note) {
+    clear(sb);
+    if (c.kind === 'daily') return;
+    const P = prefix + 'climate.snow';
+    const on = !!c.snow;
+    const check = el('input', { type: 'checkbox', id: checkId, 'data-field': P, checked: on, title: 'Lay a season of snow on the ground: it comes, deepens, settles and melts as set below' });
+    check.addEventListener('change', () => {
+      if (check.checked) c.snow = (past.snow && past.snow[c.kind]) || defaultSnowSeason(c.kind);
+      else { past.snow = past.snow || {}; past.snow[c.kind] = c.snow; delete c.snow; }
+      rerender(P)();
+    });
+    sb.append(el('label', { class: 'check', for: checkId }, check, ' Snow lies on the ground'));
+    if (on) {
+      const s = c.snow;
+      const dayHint = c.kind === 'design-winter' ? 'days after freeze-up' : 'day of the year, 0 = 1 January';
+      const g = el('div', { class: 'w-fields' });
+      g.append(
+        numField(s, 'start_day', P + '.start_day', 'First snow', 'days', { hint: dayHint }),
+        numField(s, 'peak_day', P + '.peak_day', 'Deepest on', 'days'),
+        numField(s, 'end_day', P + '.end_day', 'Melted by', 'days'),
+        numField(s, 'peak_depth_m', P + '.peak_depth_m', 'Greatest depth', 'thickness'),
+        numField(s, 'fresh_density_kg_m3', P + '.fresh_density_kg_m3', 'Density when fresh', 'density'),
+        numField(s, 'settled_density_kg_m3', P + '.settled_density_kg_m3', 'Density when settled', 'density'),
+      );
+      sb.append(g, el('p', { class: 'hint', text: 'Depth rises in a straight line from the first snow to the deepest day, then falls to nothing; density rises from fresh to settled over the season. ' + note }));
+    }
+    sb.append(el('span', { class: 'field-msg block', 'data-msg-for': P }));
+  }
+
+  // How the ground surface meets the weather (`sect[key]`): a film (snow on top of it) or
+  // n-factors. `memo.nPreset` keeps the preset chosen.
+  function surfaceEditor(su, sect, key, prefix, memo, switchTo, rerender) {
+    clear(su);
+    const s = sect[key];
+    const P = prefix + key + '.';
+    const sg = el('div', { class: 'w-fields' });
+    sg.append(field({
+      path: P + 'kind', label: 'Top of the ground meets the weather', cls: 'wide',
+      options: [
+        { value: 'film', text: 'Through an air film (snow adds its own layers)' },
+        { value: 'n-factor', text: 'Surface temperature = n-factor × air temperature' },
+      ],
+      get: () => s.kind,
+      set: switchTo,
+      after: rerender(P + 'kind'),
+    }));
+    su.append(sg);
+    if (s.kind === 'film') {
+      sg.append(
+        numField(s, 'film_w_m2k', P + 'film_w_m2k', 'Film coefficient', 'film'),
+        field({
+          path: P + 'snow_correlation', label: 'Snow conductivity from', cls: 'wide',
+          options: CAT.snow_correlations.map((x) => ({ value: x.id, text: x.name, title: x.citation })),
+          get: () => s.snow_correlation, set: (v) => { s.snow_correlation = v; },
+        }),
+      );
+      return;
+    }
+    const presets = CAT.n_factor_presets || [];
+    const same = (p) => p && Math.abs(p.freezing - s.freezing) < 1e-9;
+    const chosen = presets.find((p) => p.id === memo.nPreset);
+    const match = same(chosen) ? chosen : presets.find(same);
+    sg.append(
+      field({
+        path: P + 'preset', label: 'Surface (freezing n-factor)', cls: 'wide',
+        options: [{ value: '', text: 'Own value' }].concat(presets.map((p) => ({ value: p.id, text: p.name + ' — ' + p.freezing, title: p.source }))),
+        get: () => (match ? match.id : ''),
+        set: (v) => { const p = presets.find((x) => x.id === v); memo.nPreset = v; if (p) { s.freezing = p.freezing; badText.delete(s); } },
+        after: rerender(P + 'preset'),
+      }),
+      numField(s, 'freezing', P + 'freezing', 'Freezing n-factor', 'fraction'),
+      numField(s, 'thawing', P + 'thawing', 'Thawing n-factor', 'fraction'),
+    );
+    su.append(el('p', { class: 'hint', text: 'Freezing n-factors: ' + ((presets[0] && presets[0].source) || '') + '. With n-factors, snow cover is taken as part of the factor and not simulated.' }));
+  }
+
+  // The deep boundary (`sect.bottom`): a geothermal flux or a held temperature.
+  function bottomEditor(bo, sect, prefix, switchTo, rerender) {
+    clear(bo);
+    const b = sect.bottom;
+    const P = prefix + 'bottom.';
+    const bg = el('div', { class: 'w-fields' });
+    bg.append(field({
+      path: P + 'kind', label: 'At the bottom face', cls: 'wide',
+      options: [
+        { value: 'flux', text: 'Heat rising from deep ground (geothermal flux)' },
+        { value: 'temperature', text: 'Held at a fixed temperature' },
+      ],
+      get: () => b.kind,
+      set: switchTo,
+      after: rerender(P + 'kind'),
+    }));
+    if (b.kind === 'flux') bg.append(numField(b, 'upward_w_m2', P + 'upward_w_m2', 'Heat flux from below', 'heat_flux'));
+    else bg.append(numField(b, 'temperature_c', P + 'temperature_c', 'Bottom temperature', 'temperature'));
+    bo.append(bg);
   }
 
   // ---------- least thickness ----------
@@ -1169,7 +1194,7 @@
     const limitWords = 'above ' + fmtU('depth', r.limit_m);
     let text;
     if (r.outcome === 'found') {
-      text = 'At least ' + fmtU('thickness', r.thickness_m) + ' of ' + name + ' keeps the deepest frost ' + limitWords +
+      text = 'At least ' + fmtU('thickness', r.thickness_m) + ' of ' + name + (r.r_value_m2k_w != null ? ' (R-value ' + fmtU('r_value', r.r_value_m2k_w) + ' as derated)' : '') + ' keeps the deepest frost ' + limitWords +
         (r.frost_depth_m > 0 ? ' (with it, frost reaches ' + fmtU('depth', r.frost_depth_m) + ')' : ' (with it, the ground below does not freeze)') + ', found to within ' + fmtU('thickness', r.resolution_m) + '.';
       if (r.slope != null && r.slope < 0) {
         text += ' Near the answer each extra ' + fmtU('thickness', 0.01) + ' lifts the frost by about ' + fmtU('depth', -r.slope * 0.01) + '.';
@@ -1342,6 +1367,7 @@
     try {
       const stackOnly = Object.assign({}, state.scenario);
       delete stackOnly.shelter;
+      delete stackOnly.edge;
       job = new W.WinterRun(stackOnly);
     } catch (err) {
       console.error(err);
@@ -1743,6 +1769,7 @@
     if (blocked) { shelterStale(true, 'Out of date: fix the marked inputs.'); return; }
     const scen = Object.assign({}, state.scenario);
     delete scen.winter;
+    delete scen.edge;
     let job;
     const t0 = performance.now();
     try {
@@ -2098,6 +2125,53 @@
 
   // Every chart can be saved as a PNG of what it shows (its canvas, at the screen's
   // resolution), named after the scenario and the chart.
+  // Every results table can be saved as CSV (RFC 4180) of what it shows. A column whose
+  // cells all read "number unit" with one unit gets the unit in its heading and bare numbers
+  // (ASCII minus, point decimals) in its cells, so a spreadsheet reads them as numbers.
+  function textOf(node) {
+    const parts = [];
+    // A heading's unit (headCell's span.u) goes in brackets.
+    for (const n of node.childNodes) parts.push(n.nodeType !== 1 ? n.textContent : n.classList.contains('u') ? '[' + textOf(n) + ']' : textOf(n));
+    return parts.join(' ').replace(/\s+/g, ' ').trim();
+  }
+  const csvCell = (t) => (/[",\r\n]/.test(t) ? '"' + t.replace(/"/g, '""') + '"' : t);
+  function tableCsv(table) {
+    const head = [...table.querySelectorAll('thead tr')].map((tr) => [...tr.children].map(textOf));
+    const body = [...table.querySelectorAll('tbody tr')].map((tr) => [...tr.children].map(textOf));
+    const NUM = /^([\u2212-]?\d+(?:\.\d+)?(?:e[\u2212+-]?\d+)?)\s+(\S.*)$/i;
+    const cols = Math.max(0, ...head.concat(body).map((r) => r.length));
+    for (let j = 0; j < cols; j++) {
+      const cells = body.map((r) => r[j]).filter((t) => t != null && t !== '' && t !== '–');
+      const m = cells.map((t) => NUM.exec(t));
+      if (!cells.length || m.some((x) => !x) || new Set(m.map((x) => x[2])).size !== 1) continue;
+      const u = m[0][2];
+      if (head.length && head[head.length - 1][j] != null) head[head.length - 1][j] += ' [' + u + ']';
+      for (const r of body) {
+        const x = r[j] != null ? NUM.exec(r[j]) : null;
+        if (x) r[j] = x[1].replace('\u2212', '-');
+      }
+    }
+    const lines = head.concat(body).map((r) => r.map((t) => csvCell(t.replace(/\u2212/g, '-'))).join(','));
+    const cap = table.querySelector('caption');
+    return (cap ? '# ' + textOf(cap) + '\r\n' : '') + lines.join('\r\n') + '\r\n';
+  }
+  function tableName(t) {
+    const cap = t.querySelector('caption');
+    if (cap) return textOf(cap).toLowerCase();
+    const h = t.closest('div, details, section') && t.closest('div, details, section').querySelector('h3, summary, h2');
+    return h ? textOf(h).toLowerCase() : t.id;
+  }
+  function setUpTableSaving() {
+    for (const t of document.querySelectorAll('table.data[id]')) {
+      const b = el('button', {
+        type: 'button', class: 'btn subtle csv-btn', 'data-csv-for': t.id,
+        text: 'Save table as CSV', 'aria-label': 'Save the table (' + tableName(t) + ') as a CSV file',
+      });
+      b.addEventListener('click', () => download(tableCsv(t), fileStem('hibernal') + '-' + t.id + '.csv'));
+      t.after(b);
+    }
+  }
+
   function setUpChartSaving() {
     for (const c of document.querySelectorAll('canvas[id]')) {
       const what = (c.getAttribute('aria-label') || c.id).toLowerCase();
@@ -2135,6 +2209,593 @@
     $('s-sweeps-csv').addEventListener('click', () => { if (shelter.job) download(shelter.job.sweeps_csv(state.units), fileStem('shelter') + '-series.csv'); });
   }
 
+  // ---------- building edge (a cross-section in the plane) ----------
+  // The edge section of the scenario (SI, as the core reads it), its inputs and its run: an
+  // EdgeRun in the core advanced a slice at a time from timers, like the winter run. A
+  // newer input cancels the run under way.
+  const EDGE_DEBOUNCE_MS = 400;
+  const edge = {
+    job: null, // the EdgeRun that finished last (drawn from), or null
+    running: null, // the EdgeRun under way
+    generation: 0,
+    timer: 0,
+    report: null,
+    day: null, // the day the field map shows
+    past: {}, // earlier sub-sections by kind, so switching back restores them
+    nPreset: null,
+    design: null, // the search being set up (copied into the scenario when run)
+    designRun: null,
+    designGen: 0,
+    designReport: null,
+  };
+
+  // Invented defaults: a heated building on a shallow footing with a board against the
+  // wall and a wing board, in silt, through a design winter of 1500 °C·days with snow.
+  function defaultBoard(extra) {
+    return Object.assign({ material: { kind: 'insulation', board: 'xps', conductivity_w_m_k: null, moisture_derating_pct: 10 }, thickness_m: 0.05 }, extra);
+  }
+  function defaultEdge() {
+    const corr = CAT.snow_correlations[0] ? CAT.snow_correlations[0].id : 'sturm-1997-quadratic';
+    return {
+      inside_half_width_m: 5,
+      outside_extent_m: 8,
+      depth_m: 8,
+      slab: { thickness_m: 0.1, material: { kind: 'concrete', conductivity_w_m_k: null } },
+      wall: { width_m: 0.2, base_depth_m: 0.6, material: { kind: 'concrete', conductivity_w_m_k: null } },
+      wall_board: defaultBoard({ depth_m: 0.6 }),
+      wing: defaultBoard({ width_m: 0.6, depth_m: 0.3 }),
+      soil: [{ name: 'silt', thickness_m: 8, material: defaultMaterial('soil') }],
+      // Film on a floor, heat flowing down: about 6 W/m²K (common practice, no source).
+      inside: { kind: 'heated', air_c: 20, film_w_m2k: 6 },
+      outside: { kind: 'film', film_w_m2k: 20, snow_correlation: corr },
+      climate: { kind: 'design-winter', freezing_index_c_days: 1500, season_days: 160, mean_annual_c: 2, snow: defaultSnowSeason('design-winter') },
+      bottom: { kind: 'flux', upward_w_m2: 0.06 },
+      start: { surface_c: 5, gradient_k_per_m: 0.03 },
+      step_s: 86400,
+      field_every_days: 7,
+    };
+  }
+
+  function edgeOwners() {
+    const e = state.scenario.edge;
+    if (!e) return [];
+    const out = [[e, 'edge.'], [e.slab, 'edge.slab.'], [e.slab.material, 'edge.slab.material.'], [e.wall, 'edge.wall.'], [e.wall.material, 'edge.wall.material.'],
+      [e.inside, 'edge.inside.'], [e.outside, 'edge.outside.'], [e.climate, 'edge.climate.'], [e.bottom, 'edge.bottom.'], [e.start, 'edge.start.']];
+    if (e.wall_board) out.push([e.wall_board, 'edge.wall_board.']);
+    if (e.wing) out.push([e.wing, 'edge.wing.']);
+    if (e.climate.snow) out.push([e.climate.snow, 'edge.climate.snow.']);
+    if (e.grid) out.push([e.grid, 'edge.grid.']);
+    e.soil.forEach((s, i) => out.push([s, 'edge.soil[' + i + '].']));
+    return out;
+  }
+
+  function switchEdgePart(part, kind, make) {
+    const e = state.scenario.edge;
+    const past = (edge.past[part] = edge.past[part] || {});
+    past[e[part].kind] = e[part];
+    e[part] = past[kind] || make(kind);
+    badText.delete(e[part]);
+  }
+
+  // Fields of a material held at `owner.material` (paths under `prefix`), as in the layer list.
+  function materialFieldsOf(owner, prefix, rerender) {
+    return materialFields(owner.material).map((f) => {
+      const relayout = (f.key === 'texture' || f.key === 'model' || f.key === 'board');
+      return field(Object.assign({}, f, {
+        path: prefix + 'material.' + f.key, owner, key: 'material.' + f.key,
+        get: () => owner.material[f.key],
+        set: (v) => { owner.material[f.key] = v; },
+        after: relayout ? rerender(prefix + 'material.' + f.key) : null,
+      }));
+    });
+  }
+
+  function renderEdge() {
+    const e = state.scenario.edge;
+    $('edge-off').hidden = !!e;
+    $('edge-on').hidden = !e;
+    if (!e) return;
+    const rerender = (focus) => () => { renderEdge(); const f = document.querySelector('[data-field="' + CSS.escape(focus) + '"]'); if (f) f.focus(); run(); };
+    const grid = (...kids) => el('div', { class: 'w-fields' }, ...kids);
+    const box = (id, ...kids) => { const b = $(id); clear(b); b.append(...kids); };
+
+    // building
+    const inside = e.inside;
+    const bg = grid(field({
+      path: 'edge.inside.kind', label: 'Inside the building', cls: 'wide',
+      options: [
+        { value: 'heated', text: 'Heated: the floor meets warm air' },
+        { value: 'closed', text: 'Unheated: no heat through the floor' },
+      ],
+      get: () => inside.kind,
+      set: (v) => switchEdgePart('inside', v, (k) => (k === 'heated' ? { kind: k, air_c: 20, film_w_m2k: 6 } : { kind: k })),
+      after: rerender('edge.inside.kind'),
+    }));
+    if (inside.kind === 'heated') {
+      bg.append(
+        numField(inside, 'air_c', 'edge.inside.air_c', 'Air inside', 'temperature'),
+        numField(inside, 'film_w_m2k', 'edge.inside.film_w_m2k', 'Floor surface film', 'film'),
+      );
+    }
+    bg.append(
+      numField(e, 'inside_half_width_m', 'edge.inside_half_width_m', 'Half the building width', 'length', { hint: 'from the centre to the inner face of the wall' }),
+      numField(e.slab, 'thickness_m', 'edge.slab.thickness_m', 'Slab thickness', 'thickness'),
+      ...materialFieldsOf(e.slab, 'edge.slab.', rerender),
+    );
+    box('e-building', bg, el('p', { class: 'hint', text: 'An unheated building is taken as giving no heat to the ground at all, the cautious reading.' }));
+
+    // wall and footing
+    box('e-wall', grid(
+      numField(e.wall, 'width_m', 'edge.wall.width_m', 'Wall and footing width', 'thickness'),
+      numField(e.wall, 'base_depth_m', 'edge.wall.base_depth_m', 'Footing base below grade', 'depth'),
+      ...materialFieldsOf(e.wall, 'edge.wall.', rerender),
+    ), el('p', { class: 'hint', text: 'The wall and its footing are drawn as one block from grade down to the base.' }));
+
+    // boards
+    const bb = [];
+    const boardToggle = (key, label, make) => {
+      const id = 'e-' + key.replace('_', '-') + '-on';
+      const check = el('input', { type: 'checkbox', id, 'data-field': 'edge.' + key, checked: !!e[key], title: label });
+      check.addEventListener('change', () => {
+        if (check.checked) e[key] = (edge.past[key] && edge.past[key].board) || make();
+        else { edge.past[key] = { board: e[key] }; e[key] = null; }
+        rerender('edge.' + key)();
+      });
+      return el('label', { class: 'check', for: id }, check, ' ' + label);
+    };
+    bb.push(boardToggle('wall_board', 'A board against the outer face of the wall', () => defaultBoard({ depth_m: e.wall.base_depth_m })));
+    if (e.wall_board) {
+      const b = e.wall_board;
+      bb.push(grid(
+        numField(b, 'thickness_m', 'edge.wall_board.thickness_m', 'Board thickness', 'thickness'),
+        numField(b, 'depth_m', 'edge.wall_board.depth_m', 'Reaches down to', 'depth'),
+        ...materialFieldsOf(b, 'edge.wall_board.', rerender),
+      ));
+    }
+    bb.push(boardToggle('wing', 'A wing board running out from the wall under the ground', () => defaultBoard({ width_m: 0.6, depth_m: 0.3 })));
+    if (e.wing) {
+      const b = e.wing;
+      bb.push(grid(
+        numField(b, 'thickness_m', 'edge.wing.thickness_m', 'Board thickness', 'thickness'),
+        numField(b, 'width_m', 'edge.wing.width_m', 'Width out from the wall', 'length'),
+        numField(b, 'depth_m', 'edge.wing.depth_m', 'Top of the board below grade', 'depth'),
+        ...materialFieldsOf(b, 'edge.wing.', rerender),
+      ));
+    }
+    bb.push(el('p', { class: 'hint', text: 'Buried boards take up water and lose part of their R-value over the years: the moisture share entered is taken off in the run.' }));
+    box('e-boards', ...bb);
+
+    // soil bands
+    const sl = el('ol', { class: 'layer-list soil-list' });
+    e.soil.forEach((s, i) => {
+      const base = 'edge.soil[' + i + '].';
+      const li = el('li', { class: 'layer kind-soil', 'data-index': i });
+      const main = el('div', { class: 'layer-main' });
+      main.append(
+        el('span', { class: 'layer-no', 'aria-hidden': 'true', text: String(i + 1) }),
+        field({ path: base + 'name', label: 'Name', text: true, cls: 'name', get: () => s.name, set: (v) => { s.name = v; } }),
+        numField(s, 'thickness_m', base + 'thickness_m', 'Thickness', 'thickness'),
+        el('button', {
+          type: 'button', class: 'icon-btn danger', 'data-act': 'remove', disabled: e.soil.length <= 1,
+          'aria-label': 'Remove soil band ' + (i + 1), title: 'Remove this band',
+          onclick: () => { e.soil.splice(i, 1); rerender('edge.soil[0].thickness_m')(); }, text: '✕',
+        }),
+      );
+      li.append(main, el('div', { class: 'layer-material' }, ...materialFieldsOf(s, base, rerender)));
+      sl.append(li);
+    });
+    const add = el('button', { type: 'button', class: 'btn', id: 'e-add-soil', text: 'Add a soil band below' });
+    add.addEventListener('click', () => {
+      const last = e.soil[e.soil.length - 1];
+      e.soil.push({ name: '', thickness_m: 2, material: clone(last.material) });
+      rerender('edge.soil[' + (e.soil.length - 1) + '].thickness_m')();
+    });
+    box('e-soil', sl, add, el('p', { class: 'hint', text: 'Bands run level under the building and beside it; the bands should reach the bottom of the section.' }));
+
+    // climate, surface, deep ground
+    climateEditor($('e-climate'), e, 'edge.', edge.past, rerender, false);
+    snowEditor($('e-snow'), e.climate, 'edge.', 'e-snow-on', edge.past, rerender, 'In the cross-section the snow insulates the open ground but stores no heat of its own.');
+    surfaceEditor($('e-surface'), e, 'outside', 'edge.', edge, (v) => switchEdgePart('outside', v, W_SUB.surface[v]), rerender);
+    bottomEditor($('e-bottom'), e, 'edge.', (v) => switchEdgePart('bottom', v, W_SUB.bottom[v]), rerender);
+
+    // section and run
+    const grd = e.grid || { fine_m: 0.05, growth_ratio: 1.25, max_cell_m: 0.5 };
+    const ensureGrid = () => { if (!e.grid) e.grid = grd; };
+    const det = el('details', { class: 'grid-opts' }, el('summary', { text: 'Grid' }), grid(
+      numField(grd, 'fine_m', 'edge.grid.fine_m', 'Finest cell', 'thickness', { after: ensureGrid, hint: 'at grade, the slab, the wall, the footing and the boards' }),
+      numField(grd, 'growth_ratio', 'edge.grid.growth_ratio', 'Growth from cell to cell', 'fraction', { after: ensureGrid }),
+      numField(grd, 'max_cell_m', 'edge.grid.max_cell_m', 'Largest cell', 'thickness', { after: ensureGrid }),
+    ));
+    box('e-run', grid(
+      numField(e, 'outside_extent_m', 'edge.outside_extent_m', 'Ground beside the wall', 'length', { hint: 'far enough that its edge is open ground' }),
+      numField(e, 'depth_m', 'edge.depth_m', 'Depth of the section', 'depth'),
+      numField(e.start, 'surface_c', 'edge.start.surface_c', 'Ground at the start, at grade', 'temperature'),
+      numField(e.start, 'gradient_k_per_m', 'edge.start.gradient_k_per_m', 'Warming with depth at the start', 'gradient'),
+      numField(e, 'step_s', 'edge.step_s', 'Time step', 'step'),
+      numField(e, 'duration_days', 'edge.duration_days', 'Length of the run', 'days', { optional: true, placeholder: () => 'the climate\'s' }),
+      numField(e, 'field_every_days', 'edge.field_every_days', 'Keep the field every', 'days'),
+    ), det);
+    renderEdgeDesignFields();
+    for (const u of document.querySelectorAll('#edge [data-unit]')) u.textContent = unit(u.dataset.unit).symbol;
+  }
+
+  function renderEdgeCautions(rep) {
+    const ul = $('e-caution-list');
+    clear(ul);
+    for (const c of (rep && rep.cautions) || []) {
+      const text = typeof c === 'string' ? c : c.text;
+      ul.append(el('li', { 'data-caution': typeof c === 'string' ? '' : (c.id || '') }, text));
+    }
+  }
+
+  // ---------- running the edge ----------
+  function cancelEdge() {
+    clearTimeout(edge.timer);
+    edge.generation++;
+    if (edge.running) { edge.running.free(); edge.running = null; }
+  }
+
+  function edgeStale(stale, why) {
+    const res = $('edge-results');
+    res.classList.toggle('is-stale', stale);
+    if (stale) {
+      res.dataset.state = 'stale';
+      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
+      $('e-status').textContent = why || 'Out of date: fix the marked inputs.';
+    }
+  }
+
+  function dropEdgeResult() {
+    cancelEdge();
+    if (edge.job) { edge.job.free(); edge.job = null; }
+    edge.report = null;
+    edge.day = null;
+    $('e-csv').disabled = true;
+    $('e-field-csv').disabled = true;
+  }
+
+  // Called from run() after its debounce: starts the edge run a little later, so typing
+  // several characters runs it once.
+  function scheduleEdge(blocked) {
+    cancelEdge();
+    const res = $('edge-results');
+    if (!state.scenario.edge) { res.dataset.state = 'idle'; return; }
+    if (blocked) { edgeStale(true); return; }
+    res.dataset.state = 'pending';
+    edge.timer = setTimeout(startEdge, EDGE_DEBOUNCE_MS);
+  }
+
+  function edgeErrors(errors) {
+    const list = $('e-errors');
+    for (const e of errors) {
+      if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
+    }
+    list.hidden = !list.firstChild;
+  }
+
+  function edgeScenario() {
+    const scen = Object.assign({}, state.scenario);
+    delete scen.winter;
+    delete scen.shelter;
+    return scen;
+  }
+
+  function startEdge() {
+    const res = $('edge-results');
+    const list = $('e-errors');
+    clear(list); list.hidden = true;
+    const gen = ++edge.generation;
+    let job;
+    try {
+      job = new W.EdgeRun(edgeScenario());
+    } catch (err) {
+      console.error(err);
+      generalError('The building edge failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const errs = job.errors();
+    if (errs && errs.length) {
+      job.free();
+      edgeErrors(errs);
+      edgeStale(true);
+      return;
+    }
+    edge.running = job;
+    res.dataset.state = 'running';
+    const t0 = performance.now();
+    const slice = () => {
+      if (gen !== edge.generation) return;
+      const st = job.advance(SLICE_MS);
+      $('e-progress').value = st.fraction;
+      if (!st.ok) {
+        edge.running = null;
+        job.free();
+        edgeErrors(st.errors || []);
+        edgeStale(true, 'The run stopped.');
+        return;
+      }
+      if (!st.finished) {
+        $('e-status').textContent = 'Running the cross-section… ' + Math.round(st.fraction * 100) + ' %';
+        edge.timer = setTimeout(slice, 0);
+        return;
+      }
+      edge.running = null;
+      if (edge.job) edge.job.free();
+      edge.job = job;
+      edge.report = job.report();
+      const ms = performance.now() - t0;
+      res.classList.remove('is-stale');
+      res.dataset.state = 'done';
+      res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
+      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
+      res.dataset.ms = String(Math.round(ms));
+      $('e-status').textContent = 'Done in ' + (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s') + '.';
+      renderEdgeReport();
+      drawEdge();
+    };
+    $('e-status').textContent = 'Running the cross-section…';
+    $('e-progress').value = 0;
+    slice();
+  }
+
+  function edgeDayWords(day) {
+    const c = state.scenario.edge && state.scenario.edge.climate;
+    if (!c) return 'day ' + Math.round(day);
+    return dayWords(day, { winter: { climate: c } });
+  }
+
+  // The frost against the footing base in words: below it by so much, or above it.
+  function belowBaseWords(m) {
+    if (m == null || !Number.isFinite(m)) return '–';
+    return m > 0 ? fmtU('depth', m) + ' below the base' : fmtU('depth', -m) + ' above the base';
+  }
+
+  function renderEdgeReport() {
+    const rep = edge.report;
+    if (!rep) return;
+    const below = rep.max_frost_below_base_m;
+    const out = $('e-below');
+    out.textContent = belowBaseWords(below);
+    out.classList.toggle('bad', below > 0);
+    out.classList.toggle('good', !(below > 0));
+    $('e-below-sub').textContent = below > 0
+      ? 'Frost gets under the footing (deepest on ' + edgeDayWords(rep.max_frost_below_base_day) + '). Frost-susceptible soil there would heave.'
+      : 'Frost stays above the footing base all winter (closest on ' + edgeDayWords(rep.max_frost_below_base_day) + ').';
+    $('e-far').textContent = fmtU('depth', rep.far_frost_depth_m);
+    $('e-far-sub').textContent = rep.column_frost_depth_m != null
+      ? 'A single column of the same soil gives ' + fmtU('depth', rep.column_frost_depth_m) + '.'
+      : '';
+    $('e-heat').textContent = fmtU('linear_heat', rep.mean_slab_heat_w_m);
+    $('e-heat-sub').textContent = 'Mean over the run, per length of wall; at most ' + fmtU('linear_heat', rep.peak_slab_heat_w_m) + '.';
+    $('e-solver').textContent = rep.nx + ' × ' + rep.nz + ' cells, ' + rep.steps + ' steps' +
+      (rep.iterations != null ? ', ' + rep.iterations + ' passes' : '') +
+      '; energy balance closes to ' + Number(rep.energy_imbalance_relative).toExponential(1) + ' of the heat through the boundaries.';
+    const hb = $('e-hand').querySelector('tbody');
+    clear(hb);
+    for (const h of rep.hand_methods || []) {
+      hb.append(el('tr', { 'data-method': h.method },
+        el('th', { scope: 'row', text: h.name }),
+        el('td', { class: 'num', text: h.depth_m != null ? fmtU('depth', h.depth_m) : 'does not apply' }),
+        el('td', { text: h.note })));
+    }
+    $('e-hand').hidden = !hb.firstChild;
+    const wl = $('e-warnings');
+    clear(wl);
+    for (const w of rep.warnings || []) wl.append(el('li', { text: describePath(w.field) + ': ' + w.message }));
+    wl.hidden = !wl.firstChild;
+    renderEdgeCautions(rep);
+    const days = rep.field_days || [];
+    const slider = $('e-day');
+    const last = days.length ? days[days.length - 1] : 0;
+    slider.max = String(Math.max(0, Math.floor(last)));
+    if (edge.day == null || edge.day > last) edge.day = Math.round(Math.max(0, Math.min(rep.max_frost_below_base_day, last)));
+    slider.value = String(edge.day);
+    $('e-day-out').textContent = edgeDayWords(edge.day);
+    $('e-csv').disabled = false;
+    $('e-field-csv').disabled = false;
+  }
+
+  const edgeChart = (id, draw) => jobChart(id, edge.job, draw);
+  function drawEdgeField() {
+    if (!edge.job) return;
+    edgeChart('e-field-chart', (c, dpr) => edge.job.draw_field(c, edge.day || 0, state.units, dpr));
+  }
+  function drawEdge() {
+    if (!edge.job) return;
+    drawEdgeField();
+    edgeChart('e-series-chart', (c, dpr) => edge.job.draw_series(c, state.units, dpr));
+  }
+
+  function setUpEdge() {
+    $('edge-add').addEventListener('click', () => {
+      state.scenario.edge = edge.past.whole || defaultEdge();
+      state.scenario.version = CAT.format_version;
+      renderEdge();
+      run();
+      const f = document.querySelector('[data-field="edge.inside.kind"]');
+      if (f) f.focus();
+    });
+    $('edge-remove').addEventListener('click', () => {
+      edge.past.whole = state.scenario.edge;
+      delete state.scenario.edge;
+      dropEdgeResult();
+      renderEdge();
+      run();
+      $('edge-add').focus();
+    });
+    $('e-day').addEventListener('input', (ev) => {
+      edge.day = Number(ev.target.value);
+      $('e-day-out').textContent = edgeDayWords(edge.day);
+      drawEdgeField();
+    });
+    $('e-csv').addEventListener('click', () => { if (edge.job) download(edge.job.csv(state.units), fileStem('edge') + '-daily.csv'); });
+    $('e-field-csv').addEventListener('click', () => {
+      if (edge.job) download(edge.job.field_csv(edge.day || 0, state.units), fileStem('edge') + '-field-day-' + Math.round(edge.day || 0) + '.csv');
+    });
+    $('e-design-go').addEventListener('click', startEdgeDesign);
+  }
+
+  // ---------- least insulation at the edge ----------
+  // What the search can vary, with the quantity its values are shown in.
+  const EDGE_QUANTITIES = [
+    { value: 'wing-width', text: 'Width of the wing board', q: 'length', needs: 'wing', range: [0, 2.0], resolution: 0.02 },
+    { value: 'wing-r', text: 'R-value of the wing board', q: 'r_value', needs: 'wing', range: [0.2, 6.0], resolution: 0.05 },
+    { value: 'wall-board-r', text: 'R-value of the board against the wall', q: 'r_value', needs: 'wall_board', range: [0.2, 6.0], resolution: 0.05 },
+    { value: 'footing-depth', text: 'Depth of the footing base', q: 'depth', needs: null, range: [0.3, 3.0], resolution: 0.02 },
+  ];
+  const edgeQuantity = (id) => EDGE_QUANTITIES.find((x) => x.value === id) || EDGE_QUANTITIES[0];
+
+  function edgeDesignDraft() {
+    const e = state.scenario.edge;
+    if (!edge.design) {
+      if (e && e.least) edge.design = clone(e.least);
+      else {
+        const q = e && e.wing ? EDGE_QUANTITIES[0] : EDGE_QUANTITIES[3];
+        edge.design = { quantity: q.value, min: q.range[0], max: q.range[1], resolution: q.resolution };
+      }
+    }
+    return edge.design;
+  }
+
+  function renderEdgeDesignFields() {
+    const box = $('e-design-fields');
+    clear(box);
+    const d = edgeDesignDraft();
+    const q = edgeQuantity(d.quantity);
+    const e = state.scenario.edge;
+    const redraw = () => { renderEdgeDesignFields(); edgeDesignStale(); };
+    box.append(field({
+      path: 'edge.least.quantity', label: 'Quantity to size', cls: 'wide',
+      options: EDGE_QUANTITIES.map((x) => ({ value: x.value, text: x.text + (x.needs && e && !e[x.needs] ? ' (add that board first)' : '') })),
+      get: () => d.quantity,
+      set: (v) => { const n = edgeQuantity(v); d.quantity = n.value; d.min = n.range[0]; d.max = n.range[1]; d.resolution = n.resolution; badText.delete(d); },
+      after: redraw,
+    }));
+    box.append(
+      numField(d, 'min', 'edge.least.min', 'Least to try', q.q, { after: edgeDesignStale }),
+      numField(d, 'max', 'edge.least.max', 'Most to try', q.q, { after: edgeDesignStale }),
+      numField(d, 'resolution', 'edge.least.resolution', 'Found to within', q.q, { after: edgeDesignStale }),
+    );
+  }
+
+  function edgeDesignStale() {
+    const box = $('e-design');
+    if (edge.designRun) { edge.designGen++; edge.designRun.free(); edge.designRun = null; $('e-design-go').disabled = false; }
+    if (box.dataset.state === 'done' || box.dataset.state === 'running') {
+      box.dataset.state = 'stale';
+      $('e-design-status').textContent = 'Out of date: the scenario changed since this search. Run it again.';
+      $('e-design-answer').classList.add('is-stale');
+    }
+  }
+
+  function startEdgeDesign() {
+    const box = $('e-design');
+    const list = $('e-design-errors');
+    clear(list); list.hidden = true;
+    for (const m of document.querySelectorAll('#e-design .field-msg')) clear(m);
+    const d = edgeDesignDraft();
+    const typed = [...bad(d).values()];
+    if (typed.length) {
+      for (const b of typed) list.append(el('li', { text: b.label + ': enter a number' }));
+      list.hidden = false;
+      return;
+    }
+    // The search is part of the scenario from now on (saved with it).
+    state.scenario.edge.least = clone(d);
+    if (edge.designRun) { edge.designRun.free(); edge.designRun = null; }
+    const gen = ++edge.designGen;
+    let job;
+    try {
+      job = new W.EdgeDesignRun(edgeScenario());
+    } catch (err) {
+      console.error(err);
+      generalError('The search failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const errs = job.errors();
+    if (errs && errs.length) {
+      job.free();
+      for (const e of errs) {
+        if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
+      }
+      list.hidden = !list.firstChild;
+      box.dataset.state = 'stale';
+      $('e-design-status').textContent = 'Fix the marked inputs.';
+      return;
+    }
+    edge.designRun = job;
+    box.dataset.state = 'running';
+    const t0 = performance.now();
+    $('e-design-go').disabled = true;
+    const slice = () => {
+      if (gen !== edge.designGen) return;
+      const st = job.advance(SLICE_MS);
+      $('e-design-progress').value = st.fraction;
+      if (!st.ok) {
+        for (const e of st.errors || []) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
+        list.hidden = !list.firstChild;
+        box.dataset.state = 'stale';
+        $('e-design-status').textContent = 'The search stopped.';
+        $('e-design-go').disabled = false;
+        job.free(); edge.designRun = null;
+        return;
+      }
+      if (!st.finished) {
+        $('e-design-status').textContent = 'Searching… ' + Math.round(st.fraction * 100) + ' %';
+        setTimeout(slice, 0);
+        return;
+      }
+      edge.designReport = job.report();
+      job.free(); edge.designRun = null;
+      $('e-design-go').disabled = false;
+      box.dataset.state = 'done';
+      box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
+      const ms = performance.now() - t0;
+      $('e-design-status').textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + edge.designReport.trials.length + ' winters run.';
+      renderEdgeDesignReport();
+    };
+    $('e-design-status').textContent = 'Searching…';
+    $('e-design-progress').value = 0;
+    slice();
+  }
+
+  function renderEdgeDesignReport() {
+    const r = edge.designReport;
+    const ans = $('e-design-answer');
+    ans.classList.remove('is-stale');
+    const tb = $('e-design-trials').querySelector('tbody');
+    clear(tb);
+    if (!r) { ans.textContent = ''; $('e-design-trials').hidden = true; return; }
+    const q = edgeQuantity(r.quantity);
+    const name = q.text.charAt(0).toLowerCase() + q.text.slice(1);
+    let text;
+    if (r.outcome === 'found') {
+      text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtU(q.q, r.value) +
+        ' (with it, frost stays ' + belowBaseWords(r.frost_below_base_m).replace(' below the base', ' below the base (within the allowance)') + '), found to within ' + fmtU(q.q, r.resolution) + '.';
+      if (r.slope != null && Number.isFinite(r.slope) && r.slope < 0) {
+        const step = q.q === 'r_value' ? (state.units === 'us' ? fromDisplay('r_value', 1) : 0.1) : 0.05;
+        text += ' Near the answer each ' + fmtU(q.q, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + ': ' +
+          (-r.slope * step < 0.01 ? 'the frost line is not very sensitive to it here, so a small change in the winter moves the answer a lot.' : 'a margin on the answer buys a clear margin on the frost.');
+      }
+    } else if (r.outcome === 'smallest-suffices') {
+      text = 'Even ' + fmtU(q.q, r.value) + ' (the least tried) keeps frost above the footing base.';
+    } else if (r.outcome === 'not-reachable') {
+      text = 'Even the most tried (' + fmtU(q.q, r.value) + ') lets frost get ' + belowBaseWords(r.frost_below_base_m) + '. Try a wider range, another board, or a deeper footing.';
+    } else {
+      text = 'Frost reached deeper with more of this quantity between two tries, so no least value can be named here; look at the table.';
+    }
+    ans.textContent = text;
+    r.trials.forEach((t, i) => {
+      const ok = !(t.frost_below_base_m > 0);
+      tb.append(el('tr', {},
+        el('td', { text: String(i + 1) }),
+        el('td', { text: fmtU(q.q, t.value) }),
+        el('td', { text: belowBaseWords(t.frost_below_base_m) }),
+        el('td', { text: ok ? 'yes' : 'no', class: ok ? 'ok' : 'no' })));
+    });
+    $('e-design-trials').hidden = false;
+  }
+
   // ---------- scenario in and out ----------
   function adopt(scenario) {
     state.scenario = scenario;
@@ -2158,6 +2819,14 @@
     $('w-csv').disabled = true;
     dropShelterResult();
     shelter.past = {};
+    dropEdgeResult();
+    edge.past = {};
+    edge.design = null;
+    edge.designReport = null;
+    edgeDesignStale();
+    $('e-design').dataset.state = 'idle';
+    $('e-design-status').textContent = '';
+    renderEdgeDesignReport();
     renderInputs();
     run();
   }
@@ -2273,6 +2942,8 @@
         if (state.lastGood) { renderReport(); drawChart(); }
         if (winter.report) { renderWinterReport(); drawWinter(); }
         if (shelter.report) { renderShelterReport(); drawShelter(); }
+        if (edge.report) { renderEdgeReport(); drawEdge(); }
+        if (edge.designReport) renderEdgeDesignReport();
         run();
       });
     }
@@ -2287,14 +2958,16 @@
     $('open-file').addEventListener('change', openFile);
     setUpWinter();
     setUpShelter();
+    setUpEdge();
     setUpChartSaving();
+    setUpTableSaving();
     setUpPrinting();
     setUpHistory();
 
     let resizeTimer = 0;
     window.addEventListener('resize', () => {
       clearTimeout(resizeTimer);
-      resizeTimer = setTimeout(() => { drawChart(); drawWinter(); drawShelter(); }, 120);
+      resizeTimer = setTimeout(() => { drawChart(); drawWinter(); drawShelter(); drawEdge(); }, 120);
     });
 
     renderSources();
@@ -2337,6 +3010,8 @@
     adopt(W.example(id));
     // A shelter example is about the shelter: bring its section into view.
     if (state.scenario && state.scenario.shelter && typeof $('shelter').scrollIntoView === 'function') $('shelter').scrollIntoView({ block: 'start' });
+    // So is an edge example.
+    else if (state.scenario && state.scenario.edge && typeof $('edge').scrollIntoView === 'function') $('edge').scrollIntoView({ block: 'start' });
   }
 
   if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', start);
