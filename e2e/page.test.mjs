@@ -314,3 +314,25 @@ test('every results table saves as CSV, numbers bare and units in the heading', 
   const [dl2] = await Promise.all([page.waitForEvent('download'), page.click('[data-csv-for="layer-results"]')]);
   assert.match(readFileSync(await dl2.path(), 'utf8').split(/\r\n/)[0], /ft²·°F·h\/Btu|ft2/);
 }));
+
+test('a file of an older format version opens with a notice and saves as the current one', () => withPage(async (page) => {
+  const v1 = {
+    format: 'hibernal-scenario', version: 1, title: 'Old wall', notes: '',
+    layers: [{ name: 'Board', thickness_m: 0.05, material: { kind: 'custom', label: 'Own', conductivity_w_m_k: 0.035, density_kg_m3: 30, specific_heat_j_kg_k: 1400 } }],
+    top: { kind: 'air', temperature_c: -20, film_w_m2k: 25 },
+    bottom: { kind: 'air', temperature_c: 20, film_w_m2k: 8 },
+  };
+  await andRecompute(page, () => page.setInputFiles('#open-file', { name: 'old.json', mimeType: 'application/json', buffer: Buffer.from(JSON.stringify(v1)) }));
+  const current = await page.evaluate(() => wasm_bindgen.catalogue().format_version);
+  assert.ok(current > 1);
+  await page.waitForSelector('#format-note:not([hidden])');
+  const note = await page.locator('#format-note').textContent();
+  assert.match(note, new RegExp(`format version 1\\b.*writes version ${current}`), note);
+  // R = 1/25 + 0.05/0.035 + 1/8, the file's own numbers, computed as before.
+  assert.ok(Math.abs((await shown(page, '#r-total')).value - (1 / 25 + 0.05 / 0.035 + 1 / 8)) < 0.006);
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#save-file')]);
+  assert.equal(JSON.parse(readFileSync(await dl.path(), 'utf8')).version, current, 'saved as the current version');
+  // A bundled example opens without the notice.
+  await andRecompute(page, () => page.selectOption('#example-pick', { index: 0 }));
+  assert.equal(await page.locator('#format-note').isHidden(), true);
+}));

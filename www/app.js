@@ -2797,8 +2797,18 @@
   }
 
   // ---------- scenario in and out ----------
-  function adopt(scenario) {
+  // `from`: where an outside scenario came from ('file', 'link'), to name it in the notice
+  // shown when it is of an older format version; bundled examples open without one.
+  function adopt(scenario, from) {
     state.scenario = scenario;
+    const note = $('format-note');
+    note.hidden = true;
+    if (from && Number.isInteger(scenario.version) && scenario.version < CAT.format_version) {
+      note.textContent = 'This ' + from + ' holds format version ' + scenario.version + '; this page reads it unchanged and writes version ' +
+        CAT.format_version + ' when you save or share it (older versions of the page may not open that).';
+      note.hidden = false;
+      scenario.version = CAT.format_version;
+    }
     if (typeof state.scenario.title !== 'string') state.scenario.title = '';
     if (typeof state.scenario.notes !== 'string') state.scenario.notes = '';
     state.preset.top = guessPreset(scenario.top);
@@ -2858,7 +2868,7 @@
         msg.append(el('span', { class: 'msg error', text: 'That file is not a Hibernal scenario (needs format "hibernal-scenario", layers, top and bottom).' }));
         return;
       }
-      adopt(s);
+      adopt(s, 'file');
       msg.append(el('span', { class: 'msg ok', text: 'Opened ' + file.name + '.' }));
     };
     reader.onerror = () => msg.append(el('span', { class: 'msg error', text: 'The file could not be read.' }));
@@ -2980,7 +2990,7 @@
     $('share-make').addEventListener('click', makeShareLink);
     scenarioFromLink().then((linked) => {
       if (linked) {
-        adopt(linked);
+        adopt(linked, 'link');
         $('example-pick').value = '';
         $('restore-text').textContent = 'Opened the scenario this link carries.';
         $('restore-note').hidden = false;
