@@ -336,3 +336,45 @@ test('a file of an older format version opens with a notice and saves as the cur
   await andRecompute(page, () => page.selectOption('#example-pick', { index: 0 }));
   assert.equal(await page.locator('#format-note').isHidden(), true);
 }));
+
+// Every visible control of the page, reached by Tab alone (no control the mouse can use
+// and the keyboard cannot), and each with a name a screen reader reads out.
+async function tabReachesEveryControl(page) {
+  const controls = await page.evaluate(() => {
+    // checkVisibility: also false inside a closed <details> (content-visibility).
+    const vis = (e) => e.checkVisibility({ visibilityProperty: true, contentVisibilityAuto: true });
+    for (const e of document.querySelectorAll('[data-kb]')) delete e.dataset.kb;
+    const all = [...document.querySelectorAll('button, input, select, textarea, summary, a[href]')].filter((e) => !e.disabled && vis(e));
+    all.forEach((e, i) => { e.dataset.kb = String(i); });
+    const nameless = all.filter((e) => {
+      const lab = e.labels && e.labels.length ? [...e.labels].map((l) => l.textContent).join(' ') : '';
+      return !(e.getAttribute('aria-label') || lab.trim() || (e.tagName !== 'INPUT' && e.textContent.trim()) || e.title);
+    }).map((e) => e.outerHTML.slice(0, 80));
+    return { n: all.length, nameless };
+  });
+  assert.deepEqual(controls.nameless, [], 'every control has a name');
+  const seen = new Set();
+  await page.evaluate(() => { document.activeElement && document.activeElement.blur(); window.scrollTo(0, 0); });
+  // Radio groups take one Tab stop (arrow keys move within them).
+  const radios = await page.evaluate(() => [...document.querySelectorAll('input[type=radio]')].filter((e) => e.checkVisibility()).map((e) => e.dataset.kb));
+  let first = null;
+  for (let i = 0; i < 3 * controls.n + 40; i++) {
+    await page.keyboard.press('Tab');
+    const k = await page.evaluate(() => document.activeElement && document.activeElement.dataset.kb);
+    if (k == null) continue;
+    if (k === first) break; // round the page once
+    if (first == null) first = k;
+    seen.add(k);
+  }
+  const radioSeen = radios.some((r) => seen.has(r));
+  for (const r of radios) if (radioSeen) seen.add(r);
+  const missed = await page.evaluate((s) => [...document.querySelectorAll('[data-kb]')].filter((e) => !s.includes(e.dataset.kb)).map((e) => e.outerHTML.slice(0, 100)), [...seen]);
+  assert.deepEqual(missed, [], `every control is reached by Tab (reached ${seen.size} of ${controls.n})`);
+}
+
+test('keyboard: every control is named and reached by Tab, in the winter and the shelter', () => withPage(async (page) => {
+  await andRecompute(page, () => page.selectOption('#example-pick', 'cabin-porch-slab-snowy-winter'));
+  await tabReachesEveryControl(page);
+  await andRecompute(page, () => page.selectOption('#example-pick', 'training-dome-four'));
+  await tabReachesEveryControl(page);
+}));
