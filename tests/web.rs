@@ -281,7 +281,7 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
         get(&errs.get(0), "field").as_string().as_deref(),
         Some("edge.wing.width_m")
     );
-    assert_eq!(get(&r.report(), "cells").as_f64(), None);
+    assert!(r.report().is_null());
 
     // A short, coarse run of the example (the full one is the benchmark's).
     let s = example("unheated-storage-edge");
