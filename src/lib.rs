@@ -26,6 +26,7 @@ pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;
 pub mod scenario_design;
+pub mod scenario_edge;
 pub mod scenario_shelter;
 pub mod scenario_winter;
 

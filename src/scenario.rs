@@ -2,11 +2,12 @@
 //! its faces (page, CLI). These are serialisable mirrors of the core types: the core itself
 //! has no serde.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 3, ...}`, all values SI. Version 2
+//! Format: `{"format": "hibernal-scenario", "version": 4, ...}`, all values SI. Version 2
 //! adds the optional `winter` section (a transient run of the same stack,
 //! [`crate::scenario_winter`]); version 3 the optional `shelter` section (a snow shelter,
-//! [`crate::scenario_shelter`], which stands on its own beside the stack). Version 1 and 2
-//! documents, which have neither, still load. A document from a newer version is refused
+//! [`crate::scenario_shelter`], which stands on its own beside the stack); version 4 the
+//! optional `edge` section (a building's edge in 2D, [`crate::scenario_edge`], also on its
+//! own). Documents of versions 1 to 3, which lack the later sections, still load. A document from a newer version is refused
 //! with a message.
 
 use schemars::JsonSchema;
@@ -20,7 +21,7 @@ use crate::steady::{self, SnowBand, SteadyResult};
 /// The `format` tag every scenario carries.
 pub const FORMAT_TAG: &str = "hibernal-scenario";
 /// The newest version this build reads and writes.
-pub const FORMAT_VERSION: u32 = 3;
+pub const FORMAT_VERSION: u32 = 4;
 /// Largest document accepted, bytes.
 pub const MAX_DOCUMENT_BYTES: usize = 1 << 20;
 /// Points per layer in the reported profile.
@@ -32,7 +33,7 @@ pub const PROFILE_POINTS_PER_LAYER: usize = 24;
 pub struct Scenario {
     /// Always "hibernal-scenario".
     pub format: String,
-    /// Format version; this build reads 1 to 3.
+    /// Format version; this build reads 1 to 4.
     pub version: u32,
     #[serde(default)]
     pub title: String,
@@ -50,6 +51,10 @@ pub struct Scenario {
     /// A snow shelter (version 3 and later). It does not use `layers`, `top` or `bottom`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub shelter: Option<crate::scenario_shelter::ShelterDoc>,
+    /// The edge of a building on a slab in 2D (version 4 and later). It does not use
+    /// `layers`, `top` or `bottom`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub edge: Option<crate::scenario_edge::EdgeDoc>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -303,6 +308,12 @@ impl Scenario {
                 InputErrorKind::Format("a shelter section needs format version 3 or later".into()),
             );
         }
+        if self.version < 4 && self.edge.is_some() {
+            errs.push(
+                "edge",
+                InputErrorKind::Format("an edge section needs format version 4 or later".into()),
+            );
+        }
         if self.title.chars().count() > 200 {
             errs.push(
                 "title",
@@ -507,6 +518,9 @@ pub struct Report {
     /// The shelter, when the scenario has one and it was asked for.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub shelter: Option<crate::scenario_shelter::ShelterReport>,
+    /// The building edge, when the scenario has one and it was asked for.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub edge: Option<crate::scenario_edge::EdgeReport>,
     pub warnings: Vec<ErrorDoc>,
 }
 
@@ -520,6 +534,8 @@ pub struct Computed {
     pub winter: Option<crate::scenario_winter::WinterReport>,
     /// Filled by [`compute_all`] only.
     pub shelter: Option<crate::scenario_shelter::ShelterReport>,
+    /// Filled by [`compute_all`] only.
+    pub edge: Option<crate::scenario_edge::EdgeReport>,
 }
 
 /// Solve a scenario: the steady result and the band across snow regressions.
@@ -537,6 +553,7 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
         depths_m,
         winter: None,
         shelter: None,
+        edge: None,
     })
 }
 
@@ -557,24 +574,31 @@ pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
     Ok(c)
 }
 
-/// [`compute_with_winter`], plus the shelter when the scenario has a shelter section. The
-/// errors of the stack and of the shelter come together, so every one is named at once.
+/// [`compute_with_winter`], plus the shelter and the building edge when the scenario has
+/// those sections. The errors of the stack, the shelter and the edge come together, so
+/// every one is named at once.
 pub fn compute_all(s: &Scenario) -> Result<Computed, InputErrors> {
     let shelter = s
         .shelter
         .as_ref()
         .map(crate::scenario_shelter::run_shelter)
         .transpose();
-    match (compute_with_winter(s), shelter) {
-        (Ok(mut c), Ok(sh)) => {
+    let edge = s
+        .edge
+        .as_ref()
+        .map(crate::scenario_edge::run_edge_scenario)
+        .transpose();
+    let mut errs = InputErrors::default();
+    let c = compute_with_winter(s).map_err(|e| errs.0.extend(e.0)).ok();
+    let sh = shelter.map_err(|e| errs.0.extend(e.0)).ok();
+    let ed = edge.map_err(|e| errs.0.extend(e.0)).ok();
+    match (c, sh, ed) {
+        (Some(mut c), Some(sh), Some(ed)) if errs.is_empty() => {
             c.shelter = sh;
+            c.edge = ed;
             Ok(c)
         }
-        (Err(mut a), Err(b)) => {
-            a.0.extend(b.0);
-            Err(a)
-        }
-        (Err(e), _) | (_, Err(e)) => Err(e),
+        _ => Err(errs),
     }
 }
 
@@ -678,6 +702,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
         band,
         winter: c.winter.clone(),
         shelter: c.shelter.clone(),
+        edge: c.edge.clone(),
         warnings: r.warnings.iter().map(ErrorDoc::from).collect(),
     }
 }
@@ -692,7 +717,7 @@ pub struct Example {
 }
 
 /// The bundled examples; the page starts from the first.
-pub const EXAMPLES: [Example; 8] = [
+pub const EXAMPLES: [Example; 10] = [
     Example {
         id: "snow-over-foam-on-silt",
         summary: "40 cm of wind-packed snow over 50 mm of foam board over silty soil",
@@ -732,6 +757,16 @@ pub const EXAMPLES: [Example; 8] = [
         id: "drift-cave-two",
         summary: "A drift cave for two with a 5 cm vent at −25 °C: the deep snow around it keeps the air at the melt limit, and the roof drips",
         json: include_str!("../scenarios/drift-cave-two.json"),
+    },
+    Example {
+        id: "heated-workshop-edge",
+        summary: "The edge of a heated workshop on a 0.6 m footing with wall board and wing in silt, through a 1500 °C·day winter: frost stays above the footing's base",
+        json: include_str!("../scenarios/heated-workshop-edge.json"),
+    },
+    Example {
+        id: "unheated-storage-edge",
+        summary: "The edge of an unheated storage building on a 0.45 m footing with a narrow wing: frost reaches below the base; widen the wing",
+        json: include_str!("../scenarios/unheated-storage-edge.json"),
     },
 ];
 

@@ -762,6 +762,204 @@ impl WinterRun {
     }
 }
 
+/// The building edge of a scenario (its `edge` section), run a slice at a time like
+/// [`WinterRun`]: the constructor never throws; a scenario that cannot be run is reported by
+/// [`EdgeRun::errors`], each error naming its field (`edge.wing.width_m`), and a run that
+/// fails by `advance`.
+#[wasm_bindgen]
+pub struct EdgeRun {
+    job: Option<crate::scenario_edge::EdgeJob>,
+    report: Option<crate::scenario_edge::EdgeReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+#[wasm_bindgen]
+impl EdgeRun {
+    /// Check the scenario's edge section and set the run up.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> EdgeRun {
+        let fail = |errors: Vec<ErrorDoc>| EdgeRun {
+            job: None,
+            report: None,
+            errors,
+        };
+        let s = match read_scenario(scenario_value) {
+            Ok(s) => s,
+            Err(e) => return fail(e),
+        };
+        let Some(d) = &s.edge else {
+            return fail(vec![ErrorDoc::plain(
+                "edge",
+                "the scenario has no edge section",
+            )]);
+        };
+        match crate::scenario_edge::EdgeJob::new(d) {
+            Ok(job) => EdgeRun {
+                job: Some(job),
+                report: None,
+                errors: Vec::new(),
+            },
+            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+        }
+    }
+
+    /// Why the run cannot go on (`[]` while it can).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
+    pub fn advance(&mut self, budget_ms: f64) -> JsValue {
+        let ended = advance_for(&mut self.job, &mut self.errors, budget_ms, |j| j.advance(2));
+        if let Some(job) = ended {
+            self.report = Some(job.finish());
+        }
+        step_outcome(
+            &self.job.as_ref().map(|j| j.progress()),
+            self.report.is_some(),
+            &self.errors,
+        )
+    }
+
+    /// The report once finished (no fields: see `field_days`, `field_csv`, `draw_field`),
+    /// or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+
+    /// The days with a kept temperature field (empty before the end).
+    pub fn field_days(&self) -> JsValue {
+        to_js(
+            &self
+                .report
+                .as_ref()
+                .map_or_else(Vec::new, |r| r.field_days.clone()),
+        )
+    }
+
+    /// The daily series as CSV text in the chosen units; empty before the end.
+    pub fn csv(&self, unit_system: &str) -> String {
+        let sys = units(unit_system);
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_edge::edge_daily_csv(r, sys)
+        })
+    }
+
+    /// The field kept nearest `day` as CSV (x, z, temperature, frozen fraction); empty before
+    /// the end.
+    pub fn field_csv(&self, day: f64, unit_system: &str) -> String {
+        let sys = units(unit_system);
+        let day = if day.is_finite() { day } else { 0.0 };
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_edge::edge_field_csv(r, day, sys)
+        })
+    }
+
+    /// Draw the temperature field of the kept day nearest `day` with the 0 °C line and the
+    /// outlines.
+    pub fn draw_field(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        day: f64,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| {
+            crate::chart::draw_edge_field(root, r, day, units(unit_system), pixel_ratio)
+        })
+    }
+
+    /// Draw frost below the footing's base, the far-field frost and the slab's heat loss
+    /// against the day.
+    pub fn draw_series(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| {
+            crate::chart::draw_edge_series(root, r, units(unit_system), pixel_ratio)
+        })
+    }
+}
+
+impl EdgeRun {
+    fn draw(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        f: impl FnOnce(
+            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &crate::scenario_edge::EdgeReport,
+        ) -> Result<(), crate::chart::ChartError>,
+    ) -> JsValue {
+        let fail = |m: String| {
+            to_js(&DrawOutcome {
+                ok: false,
+                message: Some(m),
+            })
+        };
+        let Some(r) = &self.report else {
+            return fail("the run has not finished".into());
+        };
+        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+            return fail("the canvas has no 2D context".into());
+        };
+        use plotters::prelude::IntoDrawingArea;
+        match f(&backend.into_drawing_area(), r) {
+            Ok(()) => to_js(&DrawOutcome {
+                ok: true,
+                message: None,
+            }),
+            Err(e) => fail(e.to_string()),
+        }
+    }
+}
+
+#[derive(Serialize)]
+struct EdgeBenchOutcome {
+    ms: f64,
+    nx: usize,
+    nz: usize,
+    cells: usize,
+    steps: u64,
+    iterations: u64,
+    iterations_per_step: f64,
+    max_frost_below_base_m: f64,
+    far_frost_depth_m: f64,
+}
+
+/// Run the edge section of the bundled heated-workshop example (the default grid, its
+/// 190-day design winter, with the 1D column beside it) once and time it with the page's
+/// clock. For the benchmark script, not for users.
+#[wasm_bindgen]
+pub fn benchmark_edge_winter() -> JsValue {
+    let doc = scenario::example("heated-workshop-edge")
+        .ok_or_else(|| "no example".to_string())
+        .and_then(|e| scenario::parse(e.json).map_err(|e| e.to_string()))
+        .and_then(|s| s.edge.ok_or_else(|| "no edge section".to_string()));
+    let doc = match doc {
+        Ok(d) => d,
+        Err(e) => return JsValue::from_str(&e),
+    };
+    let t0 = clock_ms();
+    let r = crate::scenario_edge::run_edge_scenario(&doc);
+    let ms = clock_ms() - t0;
+    match r {
+        Ok(r) => to_js(&EdgeBenchOutcome {
+            ms,
+            nx: r.nx,
+            nz: r.nz,
+            cells: r.cells,
+            steps: r.steps,
+            iterations: r.iterations,
+            iterations_per_step: r.iterations as f64 / r.steps.max(1) as f64,
+            max_frost_below_base_m: r.max_frost_below_base_m,
+            far_frost_depth_m: r.far_frost_depth_m,
+        }),
+        Err(e) => JsValue::from_str(&e.to_string()),
+    }
+}
+
 /// A snow shelter of a scenario, computed at once (steady balance, band, night, least wall,
 /// series: well under 100 ms). Never throws: a scenario that cannot be computed is reported
 /// by [`ShelterRun::errors`], each error naming its field.

@@ -81,7 +81,7 @@ fn older_versions_load_and_a_shelter_needs_version_3() {
     v["version"] = json!(2);
     let e = scenario::from_value(v.clone()).unwrap_err();
     assert_eq!(fields(&e), ["shelter"]);
-    v["version"] = json!(4);
+    v["version"] = json!(scenario::FORMAT_VERSION + 1);
     let e = scenario::from_value(v).unwrap_err();
     assert!(fields(&e).contains(&"version".to_string()));
 }

@@ -260,3 +260,62 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
         assert!(Array::from(&r.errors()).length() > 0);
     }
 }
+
+#[wasm_bindgen_test]
+fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
+    for junk in [
+        JsValue::NULL,
+        JsValue::from_str("x"),
+        example("snow-block-wall"),
+    ] {
+        let r = web::EdgeRun::new(junk);
+        let errs: Array = r.errors().dyn_into().unwrap();
+        assert!(errs.length() > 0);
+    }
+    let s = example("unheated-storage-edge");
+    let wing = get(&get(&s, "edge"), "wing");
+    Reflect::set(&wing, &"width_m".into(), &JsValue::from_f64(-1.0)).unwrap();
+    let r = web::EdgeRun::new(s);
+    let errs: Array = r.errors().dyn_into().unwrap();
+    assert_eq!(
+        get(&errs.get(0), "field").as_string().as_deref(),
+        Some("edge.wing.width_m")
+    );
+    assert!(r.report().is_null());
+
+    // A short, coarse run of the example (the full one is the benchmark's).
+    let s = example("unheated-storage-edge");
+    let edge = get(&s, "edge");
+    Reflect::set(&edge, &"duration_days".into(), &JsValue::from_f64(14.0)).unwrap();
+    let grid = js_sys::Object::new();
+    for (k, v) in [("fine_m", 0.05), ("growth_ratio", 1.3), ("max_cell_m", 0.8)] {
+        Reflect::set(&grid, &k.into(), &JsValue::from_f64(v)).unwrap();
+    }
+    Reflect::set(&edge, &"grid".into(), &grid).unwrap();
+    let mut r = web::EdgeRun::new(s);
+    assert_eq!(Array::from(&r.errors()).length(), 0);
+    let mut slices = 0;
+    let mut last = 0.0;
+    loop {
+        let st = r.advance(1.0);
+        slices += 1;
+        assert_eq!(get(&st, "ok").as_bool(), Some(true));
+        let f = get(&st, "fraction").as_f64().unwrap();
+        assert!(f >= last);
+        last = f;
+        if get(&st, "finished").as_bool() == Some(true) {
+            break;
+        }
+        assert!(slices < 100_000);
+    }
+    assert!(slices > 1, "a 1 ms budget takes several slices ({slices})");
+    let rep = r.report();
+    assert!(get(&rep, "max_frost_below_base_m").as_f64().is_some());
+    assert_eq!(Array::from(&get(&rep, "cautions")).length(), 4);
+    assert!(get(&rep, "fields").is_undefined());
+    let days = Array::from(&r.field_days());
+    assert_eq!(days.get(days.length() - 1).as_f64(), Some(14.0));
+    assert!(r.csv("us").starts_with("day,air temperature [°F]"));
+    assert!(r.field_csv(7.0, "si").starts_with("# field of day 7.000"));
+    assert_eq!(get(&r.advance(5.0), "finished").as_bool(), Some(true));
+}

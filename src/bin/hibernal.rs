@@ -36,8 +36,9 @@ mod cli {
     #[allow(clippy::large_enum_variant)]
     #[derive(Subcommand)]
     enum Command {
-        /// Compute a scenario file (and its winter run and its snow shelter, if it has them)
-        /// and print the report as JSON (SI units). A shelter's report carries its cautions.
+        /// Compute a scenario file (and its winter run, its snow shelter and its building
+        /// edge, if it has them) and print the report as JSON (SI units). A shelter's and an
+        /// edge's report carry their cautions.
         Run {
             /// Scenario file (JSON).
             file: PathBuf,
@@ -88,6 +89,26 @@ mod cli {
             /// --units, named in the header).
             #[arg(long, value_name = "OUT.csv")]
             sweeps_csv: Option<PathBuf>,
+            /// Also write the building edge's temperature field on one day (see --edge-day) to
+            /// this SVG file, with the 0 °C line and the slab, wall and boards.
+            #[arg(long, value_name = "OUT.svg")]
+            edge_svg: Option<PathBuf>,
+            /// The day of the edge run that --edge-svg and --edge-field-csv take (the field
+            /// kept nearest to it; default: the day of the deepest frost below the base).
+            #[arg(long, value_name = "DAY", allow_negative_numbers = true)]
+            edge_day: Option<f64>,
+            /// Also write the building edge's daily frost below the footing's base, far-field
+            /// frost (2D and 1D column) and slab heat loss to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            edge_series_svg: Option<PathBuf>,
+            /// Also write the building edge's daily series to this CSV file (in the units of
+            /// --units, named in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            edge_csv: Option<PathBuf>,
+            /// Also write the building edge's field on one day (see --edge-day): x, z,
+            /// temperature and frozen fraction of every cell, to this CSV file.
+            #[arg(long, value_name = "OUT.csv")]
+            edge_field_csv: Option<PathBuf>,
             /// Units of the charts and of the CSV files: si or us.
             #[arg(long, default_value = "si")]
             units: String,
@@ -187,6 +208,11 @@ mod cli {
                 night_csv,
                 sweeps_svg,
                 sweeps_csv,
+                edge_svg,
+                edge_day,
+                edge_series_svg,
+                edge_csv,
+                edge_field_csv,
                 units,
             } => {
                 let Some(sys) = UnitSystem::from_id(&units) else {
@@ -284,6 +310,38 @@ mod cli {
                         "--sweeps-svg" => hibernal::chart::shelter_sweeps_svg(r, sys, 1500, 480),
                         "--night-csv" => Ok(night_csv(r, sys)),
                         _ => Ok(sweeps_csv(r, sys)),
+                    };
+                    let text = match text {
+                        Ok(t) => t,
+                        Err(e) => return fail(e),
+                    };
+                    if let Err(e) = std::fs::write(&out, text) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
+                if let Some(day) = edge_day {
+                    if !day.is_finite() {
+                        return fail(format!("--edge-day must be a number of days, not {day}"));
+                    }
+                }
+                let edge_outputs: [(&str, Option<PathBuf>); 4] = [
+                    ("--edge-svg", edge_svg),
+                    ("--edge-series-svg", edge_series_svg),
+                    ("--edge-csv", edge_csv),
+                    ("--edge-field-csv", edge_field_csv),
+                ];
+                for (option, out) in edge_outputs {
+                    let Some(out) = out else { continue };
+                    let Some(r) = &computed.edge else {
+                        return fail(format!("{option} needs a scenario with an edge section"));
+                    };
+                    use hibernal::scenario_edge::{edge_daily_csv, edge_field_csv};
+                    let day = edge_day.unwrap_or(r.max_frost_below_base_day);
+                    let text = match option {
+                        "--edge-svg" => hibernal::chart::edge_field_svg(r, day, sys, 1000, 640),
+                        "--edge-series-svg" => hibernal::chart::edge_series_svg(r, sys, 960, 520),
+                        "--edge-csv" => Ok(edge_daily_csv(r, sys)),
+                        _ => Ok(edge_field_csv(r, day, sys)),
                     };
                     let text = match text {
                         Ok(t) => t,
