@@ -1050,21 +1050,15 @@ fn hand_rows(
     rows
 }
 
-/// Heat per metre of wall, W/m; in US units Btu/h per foot (power over length, the
-/// factors of [`crate::units`]).
+/// Heat per metre of wall: the symbol of the units table's `linear_heat` (W/m, or Btu/h
+/// per foot).
 pub fn linear_heat_symbol(sys: crate::units::UnitSystem) -> &'static str {
-    match sys {
-        crate::units::UnitSystem::Si => "W/m",
-        _ => "Btu/(h·ft)",
-    }
+    crate::units::quantity("linear_heat").map_or("W/m", |q| q.unit(sys).symbol)
 }
 
-/// A heat per metre of wall in the chosen units.
+/// A heat per metre of wall in the chosen units (the units table's `linear_heat`).
 pub fn linear_heat_shown(sys: crate::units::UnitSystem, w_m: f64) -> f64 {
-    match sys {
-        crate::units::UnitSystem::Si => w_m,
-        _ => w_m * crate::units::BTU_H_PER_W / crate::units::FT_PER_M,
-    }
+    crate::units::quantity("linear_heat").map_or(w_m, |q| q.show(sys, w_m))
 }
 
 /// The daily series as CSV text in the chosen units, units in the header.

@@ -107,7 +107,7 @@ pub const CFM_PER_M3_S: f64 = 1.0 / 4.719_474e-4;
 pub const FT2_PER_M2: f64 = 1.0 / 0.092_903_04;
 
 /// Every quantity the page and CLI show.
-pub const QUANTITIES: [Quantity; 30] = [
+pub const QUANTITIES: [Quantity; 32] = [
     Quantity {
         id: "temperature",
         si: u("°C", 1.0, 0.0, 1),
@@ -263,6 +263,18 @@ pub const QUANTITIES: [Quantity; 30] = [
         // Room sizes: m or ft.
         si: u("m", 1.0, 0.0, 2),
         us: u("ft", FT_PER_M, 0.0, 2),
+    },
+    Quantity {
+        id: "linear_heat",
+        // Heat per length of wall: W/m, or Btu/h per foot (power over length).
+        si: u("W/m", 1.0, 0.0, 1),
+        us: u("Btu/(h·ft)", BTU_H_PER_W / FT_PER_M, 0.0, 1),
+    },
+    Quantity {
+        id: "gradient",
+        // A temperature gradient: K/m, or °F per foot (interval over length).
+        si: u("K/m", 1.0, 0.0, 3),
+        us: u("°F/ft", DEG_F_PER_K / FT_PER_M, 0.0, 3),
     },
 ];
 
