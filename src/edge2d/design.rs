@@ -425,11 +425,12 @@ impl EdgeDesignJob {
                 break;
             };
             let (x, base) = (*x, *base);
-            let steps = budget.min(1 << 16);
+            // One step per call, so that a run ending inside the slice leaves the rest of
+            // the budget to the next trial.
             let p = r
-                .advance(&self.climate, steps)
+                .advance(&self.climate, 1)
                 .map_err(|error| EdgeDesignError::Run { value: x, error })?;
-            budget -= steps;
+            budget -= 1;
             if p.finished {
                 if let Some((_, _, r)) = self.current.take() {
                     self.searcher.record(trial_of(x, base, &r.finish()));
@@ -594,7 +595,15 @@ impl EdgeDesignJob {
     /// Drive the job to its end and report.
     pub fn finish(mut self) -> Result<EdgeDesignReport, EdgeDesignError> {
         while !self.advance(usize::MAX)?.finished {}
-        Ok(self.report().expect("a finished search has an answer"))
+        self.report().ok_or_else(|| {
+            EdgeDesignError::Input(
+                InputError::new(
+                    format!("{}.design", self.prefix),
+                    InputErrorKind::NotCovered("the search ended without an answer".into()),
+                )
+                .into(),
+            )
+        })
     }
 }
 
