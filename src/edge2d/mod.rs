@@ -41,6 +41,7 @@
 
 pub mod axis;
 pub mod demo;
+pub mod design;
 pub mod plane;
 pub mod run;
 
