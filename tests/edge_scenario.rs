@@ -438,3 +438,26 @@ fn the_schema_describes_the_edge() {
         assert!(s.contains(key), "{key}");
     }
 }
+
+/// A soil band's unfrozen-water curve (Anderson & Tice) reaches the 2D run, and a bad one is
+/// named under the band.
+#[test]
+fn soil_bands_carry_their_unfrozen_water_curve() {
+    let mut v = quick("heated-workshop-edge", 5.0);
+    v["edge"]["soil"][0]["material"]["unfrozen_water"] = json!({ "alpha": 0.05, "beta": -0.5 });
+    let job = EdgeJob::new(&doc(&v)).unwrap();
+    let curve = job.section().soil[0].curve.expect("a curve");
+    assert_abs(curve.alpha, 0.05, 0.0, "alpha");
+    assert_abs(
+        curve.total,
+        0.22,
+        1e-12,
+        "total water from the band's water content",
+    );
+    assert!(job.section().soil[1].curve.is_none());
+    v["edge"]["soil"][0]["material"]["unfrozen_water"] = json!({ "alpha": 5.0, "beta": -0.5 });
+    assert_eq!(
+        fields(&EdgeJob::new(&doc(&v)).unwrap_err()),
+        ["edge.soil[0].material.unfrozen_water.alpha"]
+    );
+}
