@@ -154,6 +154,10 @@ pub struct EdgeGridDoc {
 
 /// Move a field path of the 1D machinery or the core under the section's own names.
 fn edge_path(field: &str) -> String {
+    if field == "winter" {
+        // The column run as a whole (a step that did not converge).
+        return "edge".into();
+    }
     let f = field
         .replace("winter.surface", "edge.outside")
         .replace("winter.initial.temperature_c", "edge.start.surface_c")

@@ -438,3 +438,125 @@ fn the_schema_describes_the_edge() {
         assert!(s.contains(key), "{key}");
     }
 }
+
+/// A soil band's unfrozen-water curve (Anderson & Tice) reaches the 2D run, and a bad one is
+/// named under the band.
+#[test]
+fn soil_bands_carry_their_unfrozen_water_curve() {
+    let mut v = quick("heated-workshop-edge", 5.0);
+    v["edge"]["soil"][0]["material"]["unfrozen_water"] = json!({ "alpha": 0.05, "beta": -0.5 });
+    let job = EdgeJob::new(&doc(&v)).unwrap();
+    let curve = job.section().soil[0].curve.expect("a curve");
+    assert_abs(curve.alpha, 0.05, 0.0, "alpha");
+    assert_abs(
+        curve.total,
+        0.22,
+        1e-12,
+        "total water from the band's water content",
+    );
+    assert!(job.section().soil[1].curve.is_none());
+    v["edge"]["soil"][0]["material"]["unfrozen_water"] = json!({ "alpha": 5.0, "beta": -0.5 });
+    assert_eq!(
+        fields(&EdgeJob::new(&doc(&v)).unwrap_err()),
+        ["edge.soil[0].material.unfrozen_water.alpha"]
+    );
+}
+
+mod never_panics {
+    use super::*;
+    use proptest::prelude::*;
+
+    /// Paths of every numeric leaf under `edge`.
+    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
+        match v {
+            Value::Number(_) => out.push(path.clone()),
+            Value::Object(m) => {
+                for (k, x) in m {
+                    path.push(k.clone());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            Value::Array(a) => {
+                for (i, x) in a.iter().enumerate() {
+                    path.push(i.to_string());
+                    numeric_paths(x, path, out);
+                    path.pop();
+                }
+            }
+            _ => {}
+        }
+    }
+
+    fn set(v: &mut Value, path: &[String], new: Value) {
+        let mut cur = v;
+        for k in path {
+            cur = match cur {
+                Value::Object(m) => m.get_mut(k).unwrap(),
+                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
+                _ => unreachable!(),
+            };
+        }
+        *cur = new;
+    }
+
+    fn arb_leaf() -> impl Strategy<Value = Value> {
+        prop_oneof![
+            (-100f64..100.0).prop_map(|x| json!(x)),
+            (0f64..3.0).prop_map(|x| json!(x)),
+            prop::num::f64::NORMAL.prop_map(|x| json!(x)),
+            (0u32..80).prop_map(|x| json!(x)),
+            Just(json!(0.0)),
+            Just(json!(1e-300)),
+            Just(Value::Null),
+            Just(json!("x")),
+        ]
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
+
+        /// An edge example with up to three numeric fields of its edge section replaced by
+        /// anything runs (its first steps, with finite numbers, its cautions and charts) or is
+        /// refused with errors naming `edge…` fields (or the field serde could not read):
+        /// never a panic.
+        #[test]
+        fn mutated_edges_never_panic(
+            which in 0usize..EDGE_EXAMPLES.len(),
+            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+        ) {
+            let mut v = quick(EDGE_EXAMPLES[which], 6.0);
+            let mut paths = Vec::new();
+            numeric_paths(&v["edge"], &mut vec!["edge".to_string()], &mut paths);
+            for (idx, leaf) in picks {
+                let p = idx.get(&paths).clone();
+                set(&mut v, &p, leaf);
+            }
+            let s = match scenario::from_value(v) {
+                Ok(s) => s,
+                Err(e) => {
+                    prop_assert!(!e.0.is_empty());
+                    return Ok(());
+                }
+            };
+            match EdgeJob::new(s.edge.as_ref().unwrap()) {
+                Ok(mut job) => {
+                    match job.advance(8) {
+                        Ok(p) => prop_assert!(p.fraction.is_finite()),
+                        Err(e) => prop_assert!(e.0.iter().all(|x| x.field.starts_with("edge")), "{e}"),
+                    }
+                    let r = job.finish();
+                    prop_assert_eq!(r.cautions.len(), 4);
+                    prop_assert!(r.daily.iter().all(|d| d.frost_below_base_m.is_finite()));
+                    let _ = hibernal::chart::edge_field_svg(&r, 3.0, UnitSystem::Us, 300, 200);
+                    let _ = hibernal::chart::edge_series_svg(&r, UnitSystem::Si, 300, 200);
+                    let _ = edge_field_csv(&r, 3.0, UnitSystem::Us);
+                }
+                Err(e) => {
+                    prop_assert!(!e.0.is_empty());
+                    prop_assert!(e.0.iter().all(|x| x.field.starts_with("edge")), "{e}");
+                }
+            }
+        }
+    }
+}
