@@ -55,9 +55,12 @@ impl FieldMap<'_> {
     }
 }
 
-/// Colour of a temperature on a scale symmetric about 0 °C reaching ±`span` K: blue below
-/// 0 °C, white at 0 °C, warm above (a diverging scale, so the freezing point stands out).
-pub fn field_colour(t_c: f64, span: f64) -> RGBColor {
+/// Colour of a temperature on a diverging scale about 0 °C: white at 0 °C, full blue at
+/// −`cold` K and below, full red at +`warm` K and above (each side scaled on its own, so
+/// frozen ground a few kelvin below 0 °C reads blue beside a warm slab; a diverging scale, so
+/// the freezing point stands out).
+pub fn field_colour(t_c: f64, cold: f64, warm: f64) -> RGBColor {
+    let span = if t_c < 0.0 { cold } else { warm };
     let s = if span > 0.0 {
         (t_c / span).clamp(-1.0, 1.0)
     } else {
@@ -157,7 +160,9 @@ pub fn draw_field_map<DB: DrawingBackend>(
         .copied()
         .filter(|v| v.is_finite())
         .collect();
-    let span = finite.iter().fold(1.0f64, |m, v| m.max(v.abs()));
+    // Each side of 0 °C reaches at least 1 K.
+    let cold = finite.iter().fold(1.0f64, |m, v| m.max(-v));
+    let warm = finite.iter().fold(1.0f64, |m, v| m.max(*v));
     let (x0, x1) = (f.x_faces_m[0], f.x_faces_m[nx]);
     let (z0, z1) = (f.z_faces_m[0], f.z_faces_m[nz]);
     let mut chart = ChartBuilder::on(&plot)
@@ -172,7 +177,8 @@ pub fn draw_field_map<DB: DrawingBackend>(
         .disable_mesh()
         .x_desc(format!("Across the section ({})", lq.unit(sys).symbol))
         .y_desc(format!("Depth below grade ({})", lq.unit(sys).symbol))
-        .y_label_formatter(&|v| format!("{:.1}", -v))
+        // + 0.0 turns −0 into 0.
+        .y_label_formatter(&|v| format!("{:.1}", -v + 0.0))
         .label_style(font(11.0))
         .axis_desc_style(font(12.0))
         .draw()
@@ -182,7 +188,7 @@ pub fn draw_field_map<DB: DrawingBackend>(
         .draw_series(cells.map(|(i, k)| {
             let t = f.temperature_c[k * nx + i];
             let colour = if t.is_finite() {
-                field_colour(t, span)
+                field_colour(t, cold, warm)
             } else {
                 RGBColor(200, 200, 200)
             };
@@ -217,7 +223,8 @@ pub fn draw_field_map<DB: DrawingBackend>(
             )
         }))
         .map_err(err)?;
-    // Colour bar: the scale from −span to +span, in the shown temperature unit.
+    // Colour bar: +warm at the top, 0 in the middle, −cold at the bottom, in the shown
+    // temperature unit.
     let (_, bh) = bar.dim_in_pixel();
     let top = px(40.0) as i32;
     let bottom = bh as i32 - px(50.0) as i32;
@@ -227,14 +234,15 @@ pub fn draw_field_map<DB: DrawingBackend>(
     for s in 0..steps {
         let a = top + (bottom - top) * s / steps;
         let b = top + (bottom - top) * (s + 1) / steps;
-        let t = span * (1.0 - 2.0 * (s as f64 + 0.5) / steps as f64);
+        let u = 1.0 - 2.0 * (s as f64 + 0.5) / steps as f64;
+        let t = if u >= 0.0 { warm * u } else { cold * u };
         bar.draw(&Rectangle::new(
             [(left, a), (right, b)],
-            field_colour(t, span).filled(),
+            field_colour(t, cold, warm).filled(),
         ))
         .map_err(err)?;
     }
-    for (frac, t) in [(0.0, span), (0.5, 0.0), (1.0, -span)] {
+    for (frac, t) in [(0.0, warm), (0.5, 0.0), (1.0, -cold)] {
         let y = top + ((bottom - top) as f64 * frac) as i32;
         let text = format!("{:.0} {}", tq.show(sys, t), tq.unit(sys).symbol);
         bar.draw(&Text::new(
@@ -244,16 +252,20 @@ pub fn draw_field_map<DB: DrawingBackend>(
         ))
         .map_err(err)?;
     }
-    bar.draw(&Text::new(
-        format!(
-            "{:.0} {} line: black",
-            tq.show(sys, 0.0),
-            tq.unit(sys).symbol
-        ),
-        (left, bottom + px(14.0) as i32),
-        font(10.0),
-    ))
-    .map_err(err)?;
+    for (i, line) in [
+        "black line:".to_string(),
+        format!("{:.0} {}", tq.show(sys, 0.0), tq.unit(sys).symbol),
+    ]
+    .into_iter()
+    .enumerate()
+    {
+        bar.draw(&Text::new(
+            line,
+            (left, bottom + px(14.0 + 12.0 * i as f64) as i32),
+            font(10.0),
+        ))
+        .map_err(err)?;
+    }
     Ok(())
 }
 

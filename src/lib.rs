@@ -27,6 +27,7 @@ pub mod climate_import;
 pub mod scenario;
 pub mod scenario_design;
 pub mod scenario_edge;
+pub mod scenario_edge_design;
 pub mod scenario_shelter;
 pub mod scenario_winter;
 

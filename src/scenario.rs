@@ -586,7 +586,13 @@ pub fn compute_all(s: &Scenario) -> Result<Computed, InputErrors> {
     let edge = s
         .edge
         .as_ref()
-        .map(crate::scenario_edge::run_edge_scenario)
+        .map(|d| -> Result<_, InputErrors> {
+            let mut r = crate::scenario_edge::run_edge_scenario(d)?;
+            if d.least.is_some() {
+                r.least = Some(crate::scenario_edge_design::run_edge_least(d)?);
+            }
+            Ok(r)
+        })
         .transpose();
     let mut errs = InputErrors::default();
     let c = compute_with_winter(s).map_err(|e| errs.0.extend(e.0)).ok();

@@ -80,6 +80,10 @@ pub struct EdgeDoc {
     /// Keep the temperature field every this many days (and at the end).
     #[serde(default = "default_field_every")]
     pub field_every_days: f64,
+    /// A search for the least wing width, board R-value or footing depth that keeps frost at
+    /// or above the footing base ([`crate::scenario_edge_design`]).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub least: Option<crate::scenario_edge_design::EdgeLeastDoc>,
 }
 
 fn default_step() -> f64 {
@@ -252,6 +256,13 @@ struct Prepared {
 }
 
 impl EdgeDoc {
+    /// The section as the 2D run takes it (materials resolved, boards derated) and its
+    /// climate, every error at once with fields under `edge.`.
+    pub fn section_and_climate(&self) -> Result<(EdgeSection, Climate), InputErrors> {
+        let p = self.prepare()?;
+        Ok((p.section, p.climate))
+    }
+
     /// The soil bands cut to the section's depth (the last one reaching the bottom).
     fn soil_to_depth(&self) -> Vec<LayerDoc> {
         let mut out = Vec::new();
@@ -767,6 +778,10 @@ pub struct EdgeReport {
     /// The kept fields; left out of the JSON (the CLI writes one as CSV on request).
     #[serde(skip)]
     pub fields: Vec<EdgeField>,
+    /// The search of `edge.least`, when asked for (the CLI runs it; the page runs it on
+    /// request through its own job).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub least: Option<crate::scenario_edge_design::EdgeLeastReport>,
 }
 
 impl EdgeReport {
@@ -963,6 +978,7 @@ fn build_report(
         x_faces_m: r.x_faces_m,
         z_faces_m: r.z_faces_m,
         fields: r.fields,
+        least: None,
     }
 }
 

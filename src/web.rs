@@ -762,6 +762,70 @@ impl WinterRun {
     }
 }
 
+/// The search of a scenario's `edge.least` (the least wing width, board R-value or footing
+/// depth that keeps frost at or above the footing base), run a slice at a time like
+/// [`DesignRun`]: each trial is a whole winter of the section. The constructor never throws.
+#[wasm_bindgen]
+pub struct EdgeDesignRun {
+    job: Option<crate::scenario_edge_design::EdgeLeastJob>,
+    report: Option<crate::scenario_edge_design::EdgeLeastReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+#[wasm_bindgen]
+impl EdgeDesignRun {
+    /// Check the scenario's edge section and its `least` and set up.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> EdgeDesignRun {
+        let fail = |errors: Vec<ErrorDoc>| EdgeDesignRun {
+            job: None,
+            report: None,
+            errors,
+        };
+        let s = match read_scenario(scenario_value) {
+            Ok(s) => s,
+            Err(e) => return fail(e),
+        };
+        let Some(d) = &s.edge else {
+            return fail(vec![ErrorDoc::plain(
+                "edge",
+                "the scenario has no edge section",
+            )]);
+        };
+        match crate::scenario_edge_design::EdgeLeastJob::new(d) {
+            Ok(job) => EdgeDesignRun {
+                job: Some(job),
+                report: None,
+                errors: Vec::new(),
+            },
+            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+        }
+    }
+
+    /// Why the search cannot go on (`[]` while it can).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// Work for about `budget_ms` milliseconds: `{ok, fraction, finished, errors?}`.
+    pub fn advance(&mut self, budget_ms: f64) -> JsValue {
+        let ended = advance_for(&mut self.job, &mut self.errors, budget_ms, |j| j.advance(2));
+        if let Some(job) = ended {
+            self.report = job.report();
+        }
+        step_outcome(
+            &self.job.as_ref().map(|j| j.progress()),
+            self.report.is_some(),
+            &self.errors,
+        )
+    }
+
+    /// The report once finished, or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+}
+
 /// The building edge of a scenario (its `edge` section), run a slice at a time like
 /// [`WinterRun`]: the constructor never throws; a scenario that cannot be run is reported by
 /// [`EdgeRun::errors`], each error naming its field (`edge.wing.width_m`), and a run that

@@ -319,3 +319,47 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
     assert!(r.field_csv(7.0, "si").starts_with("# field of day 7.000"));
     assert_eq!(get(&r.advance(5.0), "finished").as_bool(), Some(true));
 }
+
+#[wasm_bindgen_test]
+fn edge_design_run_searches_in_slices_and_never_throws() {
+    // Junk and a scenario without `edge.least` give errors, not exceptions; a short coarse
+    // search of the invented store's wing runs to an answer in 5 ms slices.
+    for junk in [JsValue::NULL, example("unheated-storage-edge")] {
+        let r = web::EdgeDesignRun::new(junk);
+        assert!(Array::from(&r.errors()).length() > 0);
+        assert!(r.report().is_null());
+    }
+    let s = example("unheated-storage-edge");
+    let edge = get(&s, "edge");
+    Reflect::set(&edge, &"duration_days".into(), &JsValue::from_f64(60.0)).unwrap();
+    let grid = js_sys::Object::new();
+    for (k, v) in [("fine_m", 0.1), ("growth_ratio", 1.3), ("max_cell_m", 1.0)] {
+        Reflect::set(&grid, &k.into(), &JsValue::from_f64(v)).unwrap();
+    }
+    Reflect::set(&edge, &"grid".into(), &grid).unwrap();
+    let least = js_sys::Object::new();
+    Reflect::set(&least, &"quantity".into(), &"footing-depth".into()).unwrap();
+    for (k, v) in [("min", 0.3), ("max", 2.0), ("resolution", 0.1)] {
+        Reflect::set(&least, &k.into(), &JsValue::from_f64(v)).unwrap();
+    }
+    Reflect::set(&edge, &"least".into(), &least).unwrap();
+    let mut r = web::EdgeDesignRun::new(s);
+    assert_eq!(Array::from(&r.errors()).length(), 0);
+    let mut slices = 0;
+    loop {
+        let st = r.advance(5.0);
+        slices += 1;
+        assert_eq!(get(&st, "ok").as_bool(), Some(true));
+        if get(&st, "finished").as_bool() == Some(true) {
+            break;
+        }
+        assert!(slices < 100_000);
+    }
+    let rep = r.report();
+    let outcome = get(&rep, "outcome").as_string().unwrap();
+    assert!(
+        ["found", "smallest-suffices", "not-reachable"].contains(&outcome.as_str()),
+        "{outcome}"
+    );
+    assert!(Array::from(&get(&rep, "trials")).length() >= 2);
+}

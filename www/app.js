@@ -85,6 +85,16 @@
     const sym = unit(q).symbol;
     return s === '–' || !sym ? s : s + '\u00a0' + sym;
   }
+  // A least value that is enough, for display: rounded up at the shown precision (a value
+  // rounded down could fall short of the answer), with its unit.
+  function fmtUpU(q, si) {
+    if (si == null || !Number.isFinite(si)) return '–';
+    const d = unit(q).decimals;
+    const shown = toDisplay(q, si);
+    const up = Math.ceil(shown * 10 ** d - 1e-9) / 10 ** d;
+    const sym = unit(q).symbol;
+    return fmtNum(up, d) + (sym ? '\u00a0' + sym : '');
+  }
   // A value to place in an input: a little more precision than display, no trailing zeros.
   function fmtInput(q, si) {
     if (si == null || !Number.isFinite(si)) return '';
@@ -527,6 +537,7 @@
     clearTimeout(state.timer);
     clearMessages();
     designStale();
+    edgeDesignStale();
     printStamp();
     autosave();
     remember();
@@ -1113,6 +1124,7 @@
   }
 
   function startDesign() {
+    if ($('results').dataset.pending === 'true') run();
     const box = $('w-design');
     const list = $('w-design-errors');
     clear(list); list.hidden = true;
@@ -1194,7 +1206,7 @@
     const limitWords = 'above ' + fmtU('depth', r.limit_m);
     let text;
     if (r.outcome === 'found') {
-      text = 'At least ' + fmtU('thickness', r.thickness_m) + ' of ' + name + (r.r_value_m2k_w != null ? ' (R-value ' + fmtU('r_value', r.r_value_m2k_w) + ' as derated)' : '') + ' keeps the deepest frost ' + limitWords +
+      text = 'At least ' + fmtUpU('thickness', r.thickness_m) + ' of ' + name + (r.r_value_m2k_w != null ? ' (R-value ' + fmtUpU('r_value', r.r_value_m2k_w) + ' as derated)' : '') + ' keeps the deepest frost ' + limitWords +
         (r.frost_depth_m > 0 ? ' (with it, frost reaches ' + fmtU('depth', r.frost_depth_m) + ')' : ' (with it, the ground below does not freeze)') + ', found to within ' + fmtU('thickness', r.resolution_m) + '.';
       if (r.slope != null && r.slope < 0) {
         text += ' Near the answer each extra ' + fmtU('thickness', 0.01) + ' lifts the frost by about ' + fmtU('depth', -r.slope * 0.01) + '.';
@@ -2252,6 +2264,9 @@
       bottom: { kind: 'flux', upward_w_m2: 0.06 },
       start: { surface_c: 5, gradient_k_per_m: 0.03 },
       step_s: 86400,
+      // The freezing season and some weeks of thaw after it: frost under a footing is
+      // deepest near the end of the season.
+      duration_days: 200,
       field_every_days: 7,
     };
   }
@@ -2399,7 +2414,8 @@
     bottomEditor($('e-bottom'), e, 'edge.', (v) => switchEdgePart('bottom', v, W_SUB.bottom[v]), rerender);
 
     // section and run
-    const grd = e.grid || { fine_m: 0.05, growth_ratio: 1.25, max_cell_m: 0.5 };
+    // The core's default grid (scenario_edge::DEFAULT_GRID), shown until changed.
+    const grd = e.grid || { fine_m: 0.02, growth_ratio: 1.15, max_cell_m: 0.4 };
     const ensureGrid = () => { if (!e.grid) e.grid = grd; };
     const det = el('details', { class: 'grid-opts' }, el('summary', { text: 'Grid' }), grid(
       numField(grd, 'fine_m', 'edge.grid.fine_m', 'Finest cell', 'thickness', { after: ensureGrid, hint: 'at grade, the slab, the wall, the footing and the boards' }),
@@ -2554,19 +2570,28 @@
     const rep = edge.report;
     if (!rep) return;
     const below = rep.max_frost_below_base_m;
+    // The core reports −base when no part of the footing's column freezes at all.
+    const none = below <= -rep.base_depth_m + 1e-6;
     const out = $('e-below');
-    out.textContent = belowBaseWords(below);
+    out.textContent = none ? 'No frost at the footing' : belowBaseWords(below);
     out.classList.toggle('bad', below > 0);
     out.classList.toggle('good', !(below > 0));
     $('e-below-sub').textContent = below > 0
       ? 'Frost gets under the footing (deepest on ' + edgeDayWords(rep.max_frost_below_base_day) + '). Frost-susceptible soil there would heave.'
-      : 'Frost stays above the footing base all winter (closest on ' + edgeDayWords(rep.max_frost_below_base_day) + ').';
+      : none ? 'The ground under the footing does not freeze at any depth this winter (base ' + fmtU('depth', rep.base_depth_m) + ' below grade).'
+        : 'Frost stays above the footing base all winter (closest on ' + edgeDayWords(rep.max_frost_below_base_day) + ').';
     $('e-far').textContent = fmtU('depth', rep.far_frost_depth_m);
     $('e-far-sub').textContent = rep.column_frost_depth_m != null
       ? 'A single column of the same soil gives ' + fmtU('depth', rep.column_frost_depth_m) + '.'
       : '';
-    $('e-heat').textContent = fmtU('linear_heat', rep.mean_slab_heat_w_m);
-    $('e-heat-sub').textContent = 'Mean over the run, per length of wall; at most ' + fmtU('linear_heat', rep.peak_slab_heat_w_m) + '.';
+    const closed = state.scenario.edge && state.scenario.edge.inside.kind === 'closed';
+    $('e-heat').textContent = closed ? 'None' : fmtU('linear_heat', rep.mean_slab_heat_w_m);
+    // The first days carry the warm-up from the start temperature; the 30 coldest days say
+    // what the slab loses in deep winter.
+    const cold = (rep.daily || []).slice().sort((a, b) => a.air_c - b.air_c).slice(0, 30);
+    const coldMean = cold.length ? cold.reduce((t, d) => t + d.slab_heat_w_m, 0) / cold.length : null;
+    $('e-heat-sub').textContent = closed ? 'An unheated building is taken as giving no heat to the ground through its floor.'
+      : 'Mean over the run, per length of wall' + (coldMean != null ? '; ' + fmtU('linear_heat', coldMean) + ' over the 30 coldest days.' : '.');
     $('e-solver').textContent = rep.nx + ' × ' + rep.nz + ' cells, ' + rep.steps + ' steps' +
       (rep.iterations != null ? ', ' + rep.iterations + ' passes' : '') +
       '; energy balance closes to ' + Number(rep.energy_imbalance_relative).toExponential(1) + ' of the heat through the boundaries.';
@@ -2588,11 +2613,24 @@
     const slider = $('e-day');
     const last = days.length ? days[days.length - 1] : 0;
     slider.max = String(Math.max(0, Math.floor(last)));
-    if (edge.day == null || edge.day > last) edge.day = Math.round(Math.max(0, Math.min(rep.max_frost_below_base_day, last)));
+    if (edge.day == null || edge.day > last) {
+      // The day frost is deepest under the footing, or, where it never gets there, the day
+      // it is deepest in open ground.
+      let day = rep.max_frost_below_base_day;
+      if (none && rep.daily && rep.daily.length) day = rep.daily.reduce((b, d) => (d.far_frost_depth_m > b.far_frost_depth_m ? d : b)).day;
+      edge.day = nearestFieldDay(day);
+    }
     slider.value = String(edge.day);
     $('e-day-out').textContent = edgeDayWords(edge.day);
     $('e-csv').disabled = false;
     $('e-field-csv').disabled = false;
+  }
+
+  // The kept field nearest a day (the map shows kept fields only, every few days).
+  function nearestFieldDay(day) {
+    const days = (edge.report && edge.report.field_days) || [];
+    if (!days.length) return 0;
+    return days.reduce((b, d) => (Math.abs(d - day) < Math.abs(b - day) ? d : b));
   }
 
   const edgeChart = (id, draw) => jobChart(id, edge.job, draw);
@@ -2624,7 +2662,7 @@
       $('edge-add').focus();
     });
     $('e-day').addEventListener('input', (ev) => {
-      edge.day = Number(ev.target.value);
+      edge.day = nearestFieldDay(Number(ev.target.value));
       $('e-day-out').textContent = edgeDayWords(edge.day);
       drawEdgeField();
     });
@@ -2689,6 +2727,9 @@
   }
 
   function startEdgeDesign() {
+    // An edit still waiting for its recompute would mark this search out of date as soon
+    // as it started: recompute first.
+    if ($('results').dataset.pending === 'true') run();
     const box = $('e-design');
     const list = $('e-design-errors');
     clear(list); list.hidden = true;
@@ -2769,13 +2810,17 @@
     const q = edgeQuantity(r.quantity);
     const name = q.text.charAt(0).toLowerCase() + q.text.slice(1);
     let text;
-    if (r.outcome === 'found') {
-      text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtU(q.q, r.value) +
-        ' (with it, frost stays ' + belowBaseWords(r.frost_below_base_m).replace(' below the base', ' below the base (within the allowance)') + '), found to within ' + fmtU(q.q, r.resolution) + '.';
+    if (r.outcome === 'found' || r.outcome === 'run-limit') {
+      const v = r.frost_below_base_m;
+      const at = v > 0 || Math.abs(v) < 0.0005 ? 'frost just reaches the base' : 'frost stays ' + fmtU('depth', -v) + ' above the base';
+      text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtUpU(q.q, r.value) +
+        ' (with it, ' + at + ')' + (r.outcome === 'found' ? ', found to within ' + fmtU(q.q, r.resolution) + '.' : '; the search ran out of tries before narrowing it to ' + fmtU(q.q, r.resolution) + ', so a little less may do.');
       if (r.slope != null && Number.isFinite(r.slope) && r.slope < 0) {
         const step = q.q === 'r_value' ? (state.units === 'us' ? fromDisplay('r_value', 1) : 0.1) : 0.05;
-        text += ' Near the answer each ' + fmtU(q.q, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + ': ' +
-          (-r.slope * step < 0.01 ? 'the frost line is not very sensitive to it here, so a small change in the winter moves the answer a lot.' : 'a margin on the answer buys a clear margin on the frost.');
+        text += ' Sensitivity: just short of the answer, each ' + fmtU(q.q, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + '.';
+      }
+      if (r.jump_m != null && r.jump_m > 0.02) {
+        text += ' Across the answer the frost line jumps by ' + fmtU('depth', r.jump_m) + ' (the last frozen ground under the footing thaws at once), so the answer is sharp: allow a margin for a colder winter.';
       }
     } else if (r.outcome === 'smallest-suffices') {
       text = 'Even ' + fmtU(q.q, r.value) + ' (the least tried) keeps frost above the footing base.';
