@@ -372,9 +372,29 @@ async function tabReachesEveryControl(page) {
   assert.deepEqual(missed, [], `every control is reached by Tab (reached ${seen.size} of ${controls.n})`);
 }
 
-test('keyboard: every control is named and reached by Tab, in the winter and the shelter', () => withPage(async (page) => {
+test('keyboard: every control is named and reached by Tab, in the winter, the shelter and the building edge', () => withPage(async (page) => {
   await andRecompute(page, () => page.selectOption('#example-pick', 'cabin-porch-slab-snowy-winter'));
   await tabReachesEveryControl(page);
   await andRecompute(page, () => page.selectOption('#example-pick', 'training-dome-four'));
   await tabReachesEveryControl(page);
+  await andRecompute(page, () => page.selectOption('#example-pick', 'heated-workshop-edge'));
+  await page.waitForFunction(() => document.querySelector('#edge-results').dataset.state === 'done', null, { timeout: 60000 });
+  await page.click('#e-design > summary');
+  await tabReachesEveryControl(page);
+}));
+
+test('a malformed or hostile scenario file is refused with the reason and the open work is kept', () => withPage(async (page) => {
+  const title = await page.inputValue('#f-title');
+  const open = (name, text) => page.setInputFiles('#open-file', { name, mimeType: 'application/json', buffer: Buffer.from(text) });
+  await open('broken.json', '{"format": "hibernal-scenario", "layers": [');
+  await page.waitForFunction(() => /not valid JSON/.test(document.querySelector('#file-msg').textContent));
+  assert.equal(await page.inputValue('#f-title'), title, 'nothing replaced');
+  await open('other.json', JSON.stringify({ hello: 'world', layers: 'x'.repeat(50) }));
+  await page.waitForFunction(() => /not a Hibernal scenario/.test(document.querySelector('#file-msg').textContent));
+  assert.equal(await page.inputValue('#f-title'), title, 'nothing replaced');
+  // Shaped like a scenario but of a version no build knows: opened, and the core's refusal
+  // is shown (naming the version) instead of a result.
+  const future = { format: 'hibernal-scenario', version: 99, title: 'Future', layers: [{ name: 'x', thickness_m: 0.1, material: { kind: 'ice' } }], top: { kind: 'surface', temperature_c: -5 }, bottom: { kind: 'surface', temperature_c: 0 } };
+  await andRecompute(page, () => open('future.json', JSON.stringify(future)));
+  await page.waitForFunction(() => /version 99/.test(document.querySelector('#general-errors').textContent));
 }));

@@ -414,4 +414,9 @@ test('every input has a label and a tooltip with its unit', () => withPage(async
   await pickExample(page, 'training-dome-four', false);
   await page.waitForSelector('[data-field^="shelter."]');
   assert.deepEqual(await unlabelled(), []);
+  // And the building edge's, its search box open.
+  await pickExample(page, 'heated-workshop-edge', false);
+  await page.waitForSelector('[data-field^="edge."]');
+  await page.click('#e-design > summary');
+  assert.deepEqual(await unlabelled(), []);
 }));
