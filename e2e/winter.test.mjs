@@ -420,3 +420,17 @@ test('every input has a label and a tooltip with its unit', () => withPage(async
   await page.click('#e-design > summary');
   assert.deepEqual(await unlabelled(), []);
 }));
+
+test('the steady profile and the winter\'s daily profiles download as CSV in the units shown', () => withPage(async (page) => {
+  await pickExample(page, 'cabin-porch-slab-snowy-winter');
+  await page.check('#units-us');
+  await page.waitForFunction(() => document.querySelector('#winter-results').dataset.state === 'done', null, { timeout: 60000 });
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#profile-csv')]);
+  const p = readFileSync(await dl.path(), 'utf8').trim().split('\n');
+  assert.match(p[0], /^depth \[ft\],temperature \[°F\]/);
+  assert.ok(p.length > 20, 'points through every layer');
+  const [dl2] = await Promise.all([page.waitForEvent('download'), page.click('#w-profiles-csv')]);
+  const w = readFileSync(await dl2.path(), 'utf8').trim().split('\n');
+  assert.match(w[0], /^day,temperature \[°F\] at [\d.]+ ft/);
+  assert.ok(w.length > 30, `${w.length} rows`);
+}));

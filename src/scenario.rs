@@ -779,3 +779,41 @@ pub const EXAMPLES: [Example; 10] = [
 pub fn example(id: &str) -> Option<&'static Example> {
     EXAMPLES.iter().find(|e| e.id == id)
 }
+
+/// The steady temperature profile as CSV (the points the profile chart draws): depth below
+/// the top face and temperature, with the band across snow regressions (lowest, highest)
+/// where the stack has snow; units in the header, in the system chosen.
+pub fn profile_csv(c: &Computed, sys: crate::units::UnitSystem) -> String {
+    use crate::units::quantity;
+    let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
+        return String::new();
+    };
+    let (tu, zu) = (tq.unit(sys).symbol, zq.unit(sys).symbol);
+    let band = c
+        .band
+        .as_ref()
+        .filter(|b| b.depths_m.len() == c.depths_m.len());
+    let mut out = format!("depth [{zu}],temperature [{tu}]");
+    if band.is_some() {
+        out.push_str(&format!(
+            ",lowest across snow regressions [{tu}],highest across snow regressions [{tu}]"
+        ));
+    }
+    out.push('\n');
+    for (i, &z) in c.depths_m.iter().enumerate() {
+        out.push_str(&format!(
+            "{:.4},{:.3}",
+            zq.show(sys, z),
+            tq.show(sys, c.result.temperature_at(z))
+        ));
+        if let Some(b) = band {
+            out.push_str(&format!(
+                ",{:.3},{:.3}",
+                tq.show(sys, b.min_c[i]),
+                tq.show(sys, b.max_c[i])
+            ));
+        }
+        out.push('\n');
+    }
+    out
+}

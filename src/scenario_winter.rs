@@ -922,3 +922,43 @@ pub fn daily_csv_in(r: &WinterReport, sys: crate::units::UnitSystem) -> String {
     }
     out
 }
+
+/// The daily profiles of a winter run as CSV: one row per kept profile (the day of the
+/// run, then the temperature of each cell), one column per cell centre, its depth and
+/// both units in the header.
+pub fn profiles_csv(w: &WinterReport, sys: crate::units::UnitSystem) -> String {
+    use crate::units::quantity;
+    let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
+        return String::new();
+    };
+    let (tu, zu) = (tq.unit(sys).symbol, zq.unit(sys).symbol);
+    let depths: Vec<f64> = w.envelope.iter().map(|e| zq.show(sys, e[0])).collect();
+    // Enough decimals that no two cell centres share a heading.
+    let mut decimals = 4;
+    let heading = |d: f64, n: usize| format!("temperature [{tu}] at {d:.n$} {zu}");
+    while decimals < 9 {
+        let mut names: Vec<String> = depths.iter().map(|&d| heading(d, decimals)).collect();
+        names.dedup();
+        if names.len() == depths.len() {
+            break;
+        }
+        decimals += 1;
+    }
+    let mut out = String::from("day");
+    for &d in &depths {
+        out.push(',');
+        out.push_str(&heading(d, decimals));
+    }
+    out.push('\n');
+    for p in &w.profiles {
+        out.push_str(&format!("{:.3}", p.day));
+        for i in 0..depths.len() {
+            out.push(',');
+            if let Some(&tc) = p.temperature_c.get(i) {
+                out.push_str(&format!("{:.3}", tq.show(sys, tc)));
+            }
+        }
+        out.push('\n');
+    }
+    out
+}

@@ -393,6 +393,16 @@ pub fn draw_profile(
     }
 }
 
+/// The steady profile the chart draws, as CSV in the chosen units; empty when the scenario
+/// cannot be computed (its errors are shown by `compute`).
+#[wasm_bindgen]
+pub fn profile_csv(scenario_value: JsValue, unit_system: &str) -> String {
+    match computed(scenario_value) {
+        Ok((_, c)) => crate::scenario::profile_csv(&c, units(unit_system)),
+        Err(_) => String::new(),
+    }
+}
+
 #[derive(Serialize)]
 struct BenchOutcome {
     ms: f64,
@@ -688,6 +698,14 @@ impl WinterRun {
         let sys = units(unit_system);
         self.report.as_ref().map_or_else(String::new, |r| {
             crate::scenario_winter::daily_csv_in(r, sys)
+        })
+    }
+
+    /// The kept daily profiles (a row per day, a column per cell centre) as CSV in the
+    /// chosen units; empty before the end.
+    pub fn profiles_csv(&self, unit_system: &str) -> String {
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_winter::profiles_csv(r, units(unit_system))
         })
     }
 

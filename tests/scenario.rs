@@ -731,3 +731,52 @@ fn a_surface_set_by_n_factors_says_it_ignores_the_snow() {
     let bare = winter_of(v).unwrap();
     assert!(bare.warnings.is_empty(), "{:?}", bare.warnings);
 }
+
+#[test]
+fn a_winter_grid_finer_than_the_cell_cap_is_refused_with_the_cap_named() {
+    // Hard cap on the column's cells (scenario_winter::MAX_CELLS): a grid allowed cell by
+    // cell but too fine in total is refused naming the grid, the count and the cap.
+    let mut v: serde_json::Value =
+        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+    v["winter"]["grid"] =
+        serde_json::json!({"surface_cell_m": 0.002, "growth_ratio": 1.0, "max_cell_m": 0.002});
+    let s = scenario::from_value(v).unwrap();
+    let e = scenario::compute_with_winter(&s).unwrap_err();
+    let x =
+        e.0.iter()
+            .find(|x| x.field == "winter.grid")
+            .expect("the grid is named");
+    let text = x.to_string();
+    assert!(
+        text.contains(&hibernal::scenario_winter::MAX_CELLS.to_string()),
+        "{text}"
+    );
+}
+
+#[test]
+fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
+    // The snow wall example: a row per chart point (depth, temperature at it from the exact
+    // solution, and the band across snow regressions), units in the header.
+    let s = scenario::parse(scenario::example("snow-block-wall").unwrap().json).unwrap();
+    let c = scenario::compute(&s).unwrap();
+    let text = scenario::profile_csv(&c, hibernal::units::UnitSystem::Si);
+    let lines: Vec<&str> = text.trim().lines().collect();
+    assert!(
+        lines[0].starts_with("depth [m],temperature [°C],lowest"),
+        "{}",
+        lines[0]
+    );
+    assert_eq!(lines.len(), 1 + c.depths_m.len());
+    let last: Vec<f64> = lines[lines.len() - 1]
+        .split(',')
+        .map(|x| x.parse().unwrap())
+        .collect();
+    let z = *c.depths_m.last().unwrap();
+    assert!((last[0] - z).abs() < 1e-4 && (last[1] - c.result.temperature_at(z)).abs() < 1e-3);
+    assert!(
+        last[2] <= last[1] + 1e-3 && last[1] <= last[3] + 1e-3,
+        "the line inside its band"
+    );
+    let us = scenario::profile_csv(&c, hibernal::units::UnitSystem::Us);
+    assert!(us.starts_with("depth [ft],temperature [°F]"));
+}

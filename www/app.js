@@ -1492,6 +1492,7 @@
     slider.value = String(winter.day);
     $('w-day-out').textContent = dayWords(winter.day);
     $('w-csv').disabled = false;
+    $('w-profiles-csv').disabled = false;
   }
 
   function sizeCanvas(c) {
@@ -1565,6 +1566,7 @@
       drawDayChart();
     });
     $('w-csv').addEventListener('click', downloadCsv);
+    $('w-profiles-csv').addEventListener('click', () => { if (winter.job) download(winter.job.profiles_csv(state.units), fileStem('winter') + '-profiles.csv'); });
   }
 
   // ---------- snow shelter ----------
@@ -2872,6 +2874,7 @@
     $('w-design-status').textContent = '';
     renderDesignReport();
     $('w-csv').disabled = true;
+    $('w-profiles-csv').disabled = true;
     dropShelterResult();
     shelter.past = {};
     dropEdgeResult();
@@ -3010,6 +3013,11 @@
     $('f-notes').addEventListener('input', (e) => { state.scenario.notes = e.target.value; schedule(); });
     $('add-layer').addEventListener('click', addLayer);
     $('save-file').addEventListener('click', saveFile);
+    $('profile-csv').addEventListener('click', () => {
+      // The last scenario that computed (what the chart shows).
+      const scen = state.lastGood ? state.lastGood.scenario : null;
+      if (scen) download(W.profile_csv(scen, state.units), fileStem('scenario') + '-profile.csv');
+    });
     $('open-file').addEventListener('change', openFile);
     setUpWinter();
     setUpShelter();

@@ -18,8 +18,7 @@ mod cli {
 
     use clap::{Parser, Subcommand};
     use hibernal::scenario;
-    use hibernal::scenario_winter::WinterReport;
-    use hibernal::units::{quantity, UnitSystem};
+    use hibernal::units::UnitSystem;
 
     #[derive(Parser)]
     #[command(
@@ -125,45 +124,6 @@ mod cli {
     fn fail(msg: impl std::fmt::Display) -> ExitCode {
         eprintln!("hibernal: {msg}");
         ExitCode::from(2)
-    }
-
-    /// The daily profiles of a winter run as CSV: one row per kept profile (the day of the
-    /// run, then the temperature of each cell), one column per cell centre, its depth and
-    /// both units in the header.
-    fn profiles_csv_text(w: &WinterReport, sys: UnitSystem) -> String {
-        let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
-            return String::new();
-        };
-        let (tu, zu) = (tq.unit(sys).symbol, zq.unit(sys).symbol);
-        let depths: Vec<f64> = w.envelope.iter().map(|e| zq.show(sys, e[0])).collect();
-        // Enough decimals that no two cell centres share a heading.
-        let mut decimals = 4;
-        let heading = |d: f64, n: usize| format!("temperature [{tu}] at {d:.n$} {zu}");
-        while decimals < 9 {
-            let mut names: Vec<String> = depths.iter().map(|&d| heading(d, decimals)).collect();
-            names.dedup();
-            if names.len() == depths.len() {
-                break;
-            }
-            decimals += 1;
-        }
-        let mut out = String::from("day");
-        for &d in &depths {
-            out.push(',');
-            out.push_str(&heading(d, decimals));
-        }
-        out.push('\n');
-        for p in &w.profiles {
-            out.push_str(&format!("{:.3}", p.day));
-            for i in 0..depths.len() {
-                out.push(',');
-                if let Some(&tc) = p.temperature_c.get(i) {
-                    out.push_str(&format!("{:.3}", tq.show(sys, tc)));
-                }
-            }
-            out.push('\n');
-        }
-        out
     }
 
     pub fn main() -> ExitCode {
@@ -289,7 +249,9 @@ mod cli {
                     let Some(w) = &computed.winter else {
                         return fail("--profiles-csv needs a scenario with a winter section");
                     };
-                    if let Err(e) = std::fs::write(&out, profiles_csv_text(w, sys)) {
+                    if let Err(e) =
+                        std::fs::write(&out, hibernal::scenario_winter::profiles_csv(w, sys))
+                    {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
                 }
