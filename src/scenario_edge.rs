@@ -180,10 +180,15 @@ fn edge_path(field: &str) -> String {
 }
 
 fn moved(e: InputErrors) -> InputErrors {
+    moved_by(e, edge_path)
+}
+
+/// The errors with every field path mapped by `path` (a core's names to the scenario's).
+pub(crate) fn moved_by(e: InputErrors, path: impl Fn(&str) -> String) -> InputErrors {
     InputErrors(
         e.0.into_iter()
             .map(|mut x| {
-                x.field = edge_path(&x.field);
+                x.field = path(&x.field);
                 x
             })
             .collect(),

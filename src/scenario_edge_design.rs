@@ -130,20 +130,9 @@ fn scenario_path(field: &str) -> String {
         .replace(".board.thickness_m", ".thickness_m")
 }
 
-fn moved(e: InputErrors) -> InputErrors {
-    InputErrors(
-        e.0.into_iter()
-            .map(|mut x| {
-                x.field = scenario_path(&x.field);
-                x
-            })
-            .collect(),
-    )
-}
-
 fn design_error(e: EdgeDesignError) -> InputErrors {
     match e {
-        EdgeDesignError::Input(errs) => moved(errs),
+        EdgeDesignError::Input(errs) => crate::scenario_edge::moved_by(errs, scenario_path),
         other => {
             InputError::new("edge.least", InputErrorKind::NotCovered(other.to_string())).into()
         }

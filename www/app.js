@@ -1161,38 +1161,27 @@
     }
     winter.designRun = job;
     box.dataset.state = 'running';
-    const t0 = performance.now();
     $('w-design-go').disabled = true;
-    const slice = () => {
-      if (gen !== winter.designGen) { $('w-design-go').disabled = false; return; }
-      const st = job.advance(14);
-      $('w-design-progress').value = st.fraction;
-      if (!st.ok) {
-        for (const e of st.errors || []) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
+    driveJob(job, {
+      bar: 'w-design-progress', status: 'w-design-status', busy: 'Searching…',
+      live: () => gen === winter.designGen,
+      stopped: () => { $('w-design-go').disabled = false; },
+      failed: (errors) => {
+        for (const e of errors) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
         list.hidden = !list.firstChild;
         box.dataset.state = 'stale';
         $('w-design-status').textContent = 'The search stopped.';
         $('w-design-go').disabled = false;
         job.free(); winter.designRun = null;
-        return;
-      }
-      if (!st.finished) {
-        $('w-design-status').textContent = 'Searching… ' + Math.round(st.fraction * 100) + ' %';
-        setTimeout(slice, 0);
-        return;
-      }
-      winter.designReport = job.report();
-      job.free(); winter.designRun = null;
-      $('w-design-go').disabled = false;
-      box.dataset.state = 'done';
-      box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
-      const ms = performance.now() - t0;
-      $('w-design-status').textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + winter.designReport.trials.length + ' winters run.';
-      renderDesignReport();
-    };
-    $('w-design-status').textContent = 'Searching…';
-    $('w-design-progress').value = 0;
-    slice();
+      },
+      done: (ms) => {
+        winter.designReport = job.report();
+        job.free(); winter.designRun = null;
+        $('w-design-go').disabled = false;
+        searchDone(box, 'w-design-status', ms, winter.designReport.trials.length);
+        renderDesignReport();
+      },
+    });
   }
 
   function renderDesignReport() {
@@ -1328,6 +1317,46 @@
     }
   }
 
+  // ---------- sliced jobs ----------
+  // Drives a sliced core job (`advance(ms)` → {ok, fraction, finished, errors?}) from
+  // timers, so the page stays responsive: `live()` false stops it (a newer input won, and
+  // `stopped()` tidies up); `bar` and `status` (ids) show the progress, `busy` in words;
+  // `failed(errors)` or `done(ms)` end it.
+  function driveJob(job, o) {
+    const t0 = performance.now();
+    const slice = () => {
+      if (!o.live()) { if (o.stopped) o.stopped(); return; }
+      const st = job.advance(SLICE_MS);
+      $(o.bar).value = st.fraction;
+      if (!st.ok) { o.failed(st.errors || []); return; }
+      if (!st.finished) {
+        $(o.status).textContent = o.busy + ' ' + Math.round(st.fraction * 100) + ' %';
+        setTimeout(slice, 0);
+        return;
+      }
+      o.done(performance.now() - t0);
+    };
+    $(o.status).textContent = o.busy;
+    $(o.bar).value = 0;
+    slice();
+  }
+  const msWords = (ms) => (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s');
+  // A run's results box (`data-state` done, counters for the tests) and its status line.
+  function runDone(res, status, ms) {
+    res.classList.remove('is-stale');
+    res.dataset.state = 'done';
+    res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
+    res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
+    res.dataset.ms = String(Math.round(ms));
+    $(status).textContent = 'Done in ' + msWords(ms) + '.';
+  }
+  // A search's box and its status line.
+  function searchDone(box, status, ms, runs) {
+    box.dataset.state = 'done';
+    box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
+    $(status).textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + runs + ' winters run.';
+  }
+
   // ---------- running ----------
   function cancelWinter() {
     clearTimeout(winter.timer);
@@ -1395,39 +1424,25 @@
     }
     winter.running = job;
     res.dataset.state = 'running';
-    const t0 = performance.now();
-    const slice = () => {
-      if (gen !== winter.generation) return;
-      const st = job.advance(SLICE_MS);
-      $('w-progress').value = st.fraction;
-      if (!st.ok) {
+    driveJob(job, {
+      bar: 'w-progress', status: 'w-status', busy: 'Running…',
+      live: () => gen === winter.generation,
+      failed: (errors) => {
         winter.running = null;
         job.free();
-        winterErrors(st.errors || []);
+        winterErrors(errors);
         setWinterStale(true, 'The run stopped.');
-        return;
-      }
-      if (!st.finished) {
-        $('w-status').textContent = 'Running… ' + Math.round(st.fraction * 100) + ' %';
-        winter.timer = setTimeout(slice, 0);
-        return;
-      }
-      winter.running = null;
-      if (winter.job) winter.job.free();
-      winter.job = job;
-      winter.report = job.report();
-      const ms = performance.now() - t0;
-      res.classList.remove('is-stale');
-      res.dataset.state = 'done';
-      res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
-      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
-      $('w-status').textContent = 'Done in ' + (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s') + '.';
-      renderWinterReport();
-      drawWinter();
-    };
-    $('w-status').textContent = 'Running…';
-    $('w-progress').value = 0;
-    slice();
+      },
+      done: (ms) => {
+        winter.running = null;
+        if (winter.job) winter.job.free();
+        winter.job = job;
+        winter.report = job.report();
+        runDone(res, 'w-status', ms);
+        renderWinterReport();
+        drawWinter();
+      },
+    });
   }
 
   // A day of the run in words: a date for a record, the calendar for a sine year.
@@ -2520,40 +2535,25 @@
     }
     edge.running = job;
     res.dataset.state = 'running';
-    const t0 = performance.now();
-    const slice = () => {
-      if (gen !== edge.generation) return;
-      const st = job.advance(SLICE_MS);
-      $('e-progress').value = st.fraction;
-      if (!st.ok) {
+    driveJob(job, {
+      bar: 'e-progress', status: 'e-status', busy: 'Running the cross-section…',
+      live: () => gen === edge.generation,
+      failed: (errors) => {
         edge.running = null;
         job.free();
-        edgeErrors(st.errors || []);
+        edgeErrors(errors);
         edgeStale(true, 'The run stopped.');
-        return;
-      }
-      if (!st.finished) {
-        $('e-status').textContent = 'Running the cross-section… ' + Math.round(st.fraction * 100) + ' %';
-        edge.timer = setTimeout(slice, 0);
-        return;
-      }
-      edge.running = null;
-      if (edge.job) edge.job.free();
-      edge.job = job;
-      edge.report = job.report();
-      const ms = performance.now() - t0;
-      res.classList.remove('is-stale');
-      res.dataset.state = 'done';
-      res.dataset.runs = String(Number(res.dataset.runs || 0) + 1);
-      res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
-      res.dataset.ms = String(Math.round(ms));
-      $('e-status').textContent = 'Done in ' + (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000).toFixed(1) + ' s') + '.';
-      renderEdgeReport();
-      drawEdge();
-    };
-    $('e-status').textContent = 'Running the cross-section…';
-    $('e-progress').value = 0;
-    slice();
+      },
+      done: (ms) => {
+        edge.running = null;
+        if (edge.job) edge.job.free();
+        edge.job = job;
+        edge.report = job.report();
+        runDone(res, 'e-status', ms);
+        renderEdgeReport();
+        drawEdge();
+      },
+    });
   }
 
   function edgeDayWords(day) {
@@ -2768,38 +2768,27 @@
     }
     edge.designRun = job;
     box.dataset.state = 'running';
-    const t0 = performance.now();
     $('e-design-go').disabled = true;
-    const slice = () => {
-      if (gen !== edge.designGen) return;
-      const st = job.advance(SLICE_MS);
-      $('e-design-progress').value = st.fraction;
-      if (!st.ok) {
-        for (const e of st.errors || []) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
+    driveJob(job, {
+      bar: 'e-design-progress', status: 'e-design-status', busy: 'Searching…',
+      live: () => gen === edge.designGen,
+      stopped: () => { $('e-design-go').disabled = false; },
+      failed: (errors) => {
+        for (const e of errors) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
         list.hidden = !list.firstChild;
         box.dataset.state = 'stale';
         $('e-design-status').textContent = 'The search stopped.';
         $('e-design-go').disabled = false;
         job.free(); edge.designRun = null;
-        return;
-      }
-      if (!st.finished) {
-        $('e-design-status').textContent = 'Searching… ' + Math.round(st.fraction * 100) + ' %';
-        setTimeout(slice, 0);
-        return;
-      }
-      edge.designReport = job.report();
-      job.free(); edge.designRun = null;
-      $('e-design-go').disabled = false;
-      box.dataset.state = 'done';
-      box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
-      const ms = performance.now() - t0;
-      $('e-design-status').textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + edge.designReport.trials.length + ' winters run.';
-      renderEdgeDesignReport();
-    };
-    $('e-design-status').textContent = 'Searching…';
-    $('e-design-progress').value = 0;
-    slice();
+      },
+      done: (ms) => {
+        edge.designReport = job.report();
+        job.free(); edge.designRun = null;
+        $('e-design-go').disabled = false;
+        searchDone(box, 'e-design-status', ms, edge.designReport.trials.length);
+        renderEdgeDesignReport();
+      },
+    });
   }
 
   function renderEdgeDesignReport() {
