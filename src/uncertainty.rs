@@ -110,7 +110,8 @@ impl UncertainInput {
     }
 
     /// The value at cumulative probability `u` (the inverse distribution function), clamped
-    /// to [low, high]. `u` outside [0, 1] is clamped first. Call on a validated input.
+    /// to [low, high]. `u` outside [0, 1] is clamped first. Meant for a validated input;
+    /// an invalid one gives a meaningless number (perhaps NaN) but never panics.
     pub fn quantile(&self, u: f64) -> f64 {
         let u = if u.is_nan() { 0.5 } else { u.clamp(0.0, 1.0) };
         let (l, h) = (self.low, self.high);
@@ -136,7 +137,8 @@ impl UncertainInput {
                 mean + sd * z
             }
         };
-        x.clamp(l, h)
+        // Not f64::clamp, which panics on an inverted or NaN range.
+        x.max(l).min(h)
     }
 }
 

@@ -392,6 +392,24 @@ fn bad_inputs_are_refused_naming_the_field() {
     }
     let e = MonteCarloJob::new(&[uniform(" ", 0.0, 1.0)], 10, 1, "").unwrap_err();
     assert_eq!(e.0[0].field, "inputs[0].id");
+    // Sampling an input nobody checked gives a number or NaN, never a panic.
+    for d in [
+        Distribution::Uniform,
+        Distribution::Triangular { mode: 3.0 },
+        Distribution::Normal {
+            mean: f64::NAN,
+            sd: 0.0,
+        },
+    ] {
+        let bad = UncertainInput {
+            id: "bad".into(),
+            low: 5.0,
+            high: 1.0,
+            distribution: d,
+        };
+        let _ = sample_at(std::slice::from_ref(&bad), 1, 0);
+        let _ = bad.quantile(f64::NAN);
+    }
 }
 
 #[test]
