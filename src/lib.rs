@@ -1,7 +1,7 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
 //! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`], [`shelter`],
-//! [`climate`], [`design`], [`edge2d`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
+//! [`climate`], [`design`], [`edge2d`], [`uncertainty`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
 //! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
 //! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
 //! from CSV text), [`climate_import`] (that record brought into a scenario, with its
@@ -18,6 +18,7 @@ pub mod shelter;
 pub mod stack;
 pub mod steady;
 pub mod transient;
+pub mod uncertainty;
 pub mod units;
 
 pub mod chart;
