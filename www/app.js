@@ -1124,64 +1124,11 @@
   }
 
   function startDesign() {
-    if ($('results').dataset.pending === 'true') run();
-    const box = $('w-design');
-    const list = $('w-design-errors');
-    clear(list); list.hidden = true;
-    for (const m of document.querySelectorAll('#w-design .field-msg')) clear(m);
-    const d = designDraft();
-    const badText = [...bad(d).values(), ...bad(d.keep_frost_above).values()];
-    if (badText.length) {
-      for (const b of badText) list.append(el('li', { text: b.label + ': enter a number' }));
-      list.hidden = false;
-      return;
-    }
+    const d = searchDraftReady('w-design', designDraft, (x) => [...bad(x).values(), ...bad(x.keep_frost_above).values()]);
+    if (!d) return;
     // The search is part of the scenario from now on (saved with it).
-    state.scenario.winter.least_thickness = JSON.parse(JSON.stringify(d));
-    if (winter.designRun) { winter.designRun.free(); winter.designRun = null; }
-    const gen = ++winter.designGen;
-    let job;
-    try {
-      job = new W.DesignRun(state.scenario);
-    } catch (err) {
-      console.error(err);
-      generalError('The search failed unexpectedly: ' + String(err && err.message || err));
-      return;
-    }
-    const errs = job.errors();
-    if (errs.length) {
-      job.free();
-      for (const e of errs) {
-        if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
-      }
-      list.hidden = !list.firstChild;
-      box.dataset.state = 'stale';
-      $('w-design-status').textContent = 'Fix the marked inputs.';
-      return;
-    }
-    winter.designRun = job;
-    box.dataset.state = 'running';
-    $('w-design-go').disabled = true;
-    driveJob(job, {
-      bar: 'w-design-progress', status: 'w-design-status', busy: 'Searching…',
-      live: () => gen === winter.designGen,
-      stopped: () => { $('w-design-go').disabled = false; },
-      failed: (errors) => {
-        for (const e of errors) list.append(el('li', { text: describeWinterPath(e.field) + ': ' + e.message }));
-        list.hidden = !list.firstChild;
-        box.dataset.state = 'stale';
-        $('w-design-status').textContent = 'The search stopped.';
-        $('w-design-go').disabled = false;
-        job.free(); winter.designRun = null;
-      },
-      done: (ms) => {
-        winter.designReport = job.report();
-        job.free(); winter.designRun = null;
-        $('w-design-go').disabled = false;
-        searchDone(box, 'w-design-status', ms, winter.designReport.trials.length);
-        renderDesignReport();
-      },
-    });
+    state.scenario.winter.least_thickness = clone(d);
+    startSearch({ id: 'w-design', holder: winter, make: () => new W.DesignRun(state.scenario), describe: describeWinterPath, render: renderDesignReport });
   }
 
   function renderDesignReport() {
@@ -1355,6 +1302,82 @@
     box.dataset.state = 'done';
     box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
     $(status).textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + runs + ' winters run.';
+  }
+
+  // ---------- search boxes ----------
+  // A search box (`id`: 'w-design' or 'e-design', with parts `${id}-errors`, `-go`,
+  // `-status`, `-progress`): its draft once every typed number parses (else the labels that
+  // do not, listed in the box, and null). An edit still waiting for its recompute would mark
+  // the new search out of date as soon as it started: recompute first.
+  function searchDraftReady(id, draft, typed) {
+    if ($('results').dataset.pending === 'true') run();
+    const list = $(id + '-errors');
+    clear(list); list.hidden = true;
+    for (const m of document.querySelectorAll('#' + id + ' .field-msg')) clear(m);
+    const d = draft();
+    const badText = typed(d);
+    if (badText.length) {
+      for (const b of badText) list.append(el('li', { text: b.label + ': enter a number' }));
+      list.hidden = false;
+      return null;
+    }
+    return d;
+  }
+
+  // Runs a search box's job: `holder` keeps {designRun, designGen, designReport}, `make()`
+  // builds the job from the scenario, `describe(path)` names a field away from its input,
+  // `render()` shows the report.
+  function startSearch(o) {
+    const box = $(o.id);
+    const list = $(o.id + '-errors');
+    const go = $(o.id + '-go');
+    const status = $(o.id + '-status');
+    const h = o.holder;
+    if (h.designRun) { h.designRun.free(); h.designRun = null; }
+    const gen = ++h.designGen;
+    let job;
+    try {
+      job = o.make();
+    } catch (err) {
+      console.error(err);
+      generalError('The search failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const listErrors = (errors, beside) => {
+      for (const e of errors) {
+        if (!(beside && placeMessage(e.field, e.message, 'error', e))) list.append(el('li', { text: o.describe(e.field) + ': ' + e.message }));
+      }
+      list.hidden = !list.firstChild;
+      box.dataset.state = 'stale';
+    };
+    const errs = job.errors();
+    if (errs && errs.length) {
+      job.free();
+      listErrors(errs, true);
+      status.textContent = 'Fix the marked inputs.';
+      return;
+    }
+    h.designRun = job;
+    box.dataset.state = 'running';
+    go.disabled = true;
+    driveJob(job, {
+      bar: o.id + '-progress', status: o.id + '-status', busy: 'Searching…',
+      live: () => gen === h.designGen,
+      stopped: () => { go.disabled = false; },
+      failed: (errors) => {
+        listErrors(errors, false);
+        status.textContent = 'The search stopped.';
+        go.disabled = false;
+        job.free(); h.designRun = null;
+      },
+      done: (ms) => {
+        h.designReport = job.report();
+        job.free(); h.designRun = null;
+        go.disabled = false;
+        searchDone(box, o.id + '-status', ms, h.designReport.trials.length);
+        o.render();
+      },
+    });
   }
 
   // ---------- running ----------
@@ -2729,66 +2752,11 @@
   }
 
   function startEdgeDesign() {
-    // An edit still waiting for its recompute would mark this search out of date as soon
-    // as it started: recompute first.
-    if ($('results').dataset.pending === 'true') run();
-    const box = $('e-design');
-    const list = $('e-design-errors');
-    clear(list); list.hidden = true;
-    for (const m of document.querySelectorAll('#e-design .field-msg')) clear(m);
-    const d = edgeDesignDraft();
-    const typed = [...bad(d).values()];
-    if (typed.length) {
-      for (const b of typed) list.append(el('li', { text: b.label + ': enter a number' }));
-      list.hidden = false;
-      return;
-    }
+    const d = searchDraftReady('e-design', edgeDesignDraft, (x) => [...bad(x).values()]);
+    if (!d) return;
     // The search is part of the scenario from now on (saved with it).
     state.scenario.edge.least = clone(d);
-    if (edge.designRun) { edge.designRun.free(); edge.designRun = null; }
-    const gen = ++edge.designGen;
-    let job;
-    try {
-      job = new W.EdgeDesignRun(edgeScenario());
-    } catch (err) {
-      console.error(err);
-      generalError('The search failed unexpectedly: ' + String(err && err.message || err));
-      return;
-    }
-    const errs = job.errors();
-    if (errs && errs.length) {
-      job.free();
-      for (const e of errs) {
-        if (!placeMessage(e.field, e.message, 'error', e)) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
-      }
-      list.hidden = !list.firstChild;
-      box.dataset.state = 'stale';
-      $('e-design-status').textContent = 'Fix the marked inputs.';
-      return;
-    }
-    edge.designRun = job;
-    box.dataset.state = 'running';
-    $('e-design-go').disabled = true;
-    driveJob(job, {
-      bar: 'e-design-progress', status: 'e-design-status', busy: 'Searching…',
-      live: () => gen === edge.designGen,
-      stopped: () => { $('e-design-go').disabled = false; },
-      failed: (errors) => {
-        for (const e of errors) list.append(el('li', { text: describePath(e.field) + ': ' + e.message }));
-        list.hidden = !list.firstChild;
-        box.dataset.state = 'stale';
-        $('e-design-status').textContent = 'The search stopped.';
-        $('e-design-go').disabled = false;
-        job.free(); edge.designRun = null;
-      },
-      done: (ms) => {
-        edge.designReport = job.report();
-        job.free(); edge.designRun = null;
-        $('e-design-go').disabled = false;
-        searchDone(box, 'e-design-status', ms, edge.designReport.trials.length);
-        renderEdgeDesignReport();
-      },
-    });
+    startSearch({ id: 'e-design', holder: edge, make: () => new W.EdgeDesignRun(edgeScenario()), describe: describePath, render: renderEdgeDesignReport });
   }
 
   function renderEdgeDesignReport() {
