@@ -780,6 +780,22 @@ impl WinterRun {
     }
 }
 
+/// The job of a scenario's edge section (`make` sets it up from the section), or the errors
+/// that stop it: the scenario unreadable, no edge section, or the section's own.
+fn edge_job<J>(
+    scenario_value: JsValue,
+    make: impl FnOnce(&crate::scenario_edge::EdgeDoc) -> Result<J, crate::error::InputErrors>,
+) -> Result<J, Vec<ErrorDoc>> {
+    let s = read_scenario(scenario_value)?;
+    let Some(d) = &s.edge else {
+        return Err(vec![ErrorDoc::plain(
+            "edge",
+            "the scenario has no edge section",
+        )]);
+    };
+    make(d).map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
+}
+
 /// The search of a scenario's `edge.least` (the least wing width, board R-value or footing
 /// depth that keeps frost at or above the footing base), run a slice at a time like
 /// [`DesignRun`]: each trial is a whole winter of the section. The constructor never throws.
@@ -795,28 +811,19 @@ impl EdgeDesignRun {
     /// Check the scenario's edge section and its `least` and set up.
     #[wasm_bindgen(constructor)]
     pub fn new(scenario_value: JsValue) -> EdgeDesignRun {
-        let fail = |errors: Vec<ErrorDoc>| EdgeDesignRun {
-            job: None,
-            report: None,
-            errors,
-        };
-        let s = match read_scenario(scenario_value) {
-            Ok(s) => s,
-            Err(e) => return fail(e),
-        };
-        let Some(d) = &s.edge else {
-            return fail(vec![ErrorDoc::plain(
-                "edge",
-                "the scenario has no edge section",
-            )]);
-        };
-        match crate::scenario_edge_design::EdgeLeastJob::new(d) {
+        match edge_job(scenario_value, |d| {
+            crate::scenario_edge_design::EdgeLeastJob::new(d)
+        }) {
             Ok(job) => EdgeDesignRun {
                 job: Some(job),
                 report: None,
                 errors: Vec::new(),
             },
-            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+            Err(errors) => EdgeDesignRun {
+                job: None,
+                report: None,
+                errors,
+            },
         }
     }
 
@@ -860,28 +867,17 @@ impl EdgeRun {
     /// Check the scenario's edge section and set the run up.
     #[wasm_bindgen(constructor)]
     pub fn new(scenario_value: JsValue) -> EdgeRun {
-        let fail = |errors: Vec<ErrorDoc>| EdgeRun {
-            job: None,
-            report: None,
-            errors,
-        };
-        let s = match read_scenario(scenario_value) {
-            Ok(s) => s,
-            Err(e) => return fail(e),
-        };
-        let Some(d) = &s.edge else {
-            return fail(vec![ErrorDoc::plain(
-                "edge",
-                "the scenario has no edge section",
-            )]);
-        };
-        match crate::scenario_edge::EdgeJob::new(d) {
+        match edge_job(scenario_value, crate::scenario_edge::EdgeJob::new) {
             Ok(job) => EdgeRun {
                 job: Some(job),
                 report: None,
                 errors: Vec::new(),
             },
-            Err(e) => fail(e.0.iter().map(ErrorDoc::from).collect()),
+            Err(errors) => EdgeRun {
+                job: None,
+                report: None,
+                errors,
+            },
         }
     }
 

@@ -558,9 +558,7 @@
     // not read it.
     runShelter(false);
     scheduleEdge(false);
-    const stackOnly = Object.assign({}, state.scenario);
-    delete stackOnly.shelter;
-    delete stackOnly.edge;
+    const stackOnly = scenarioWithout('shelter', 'edge');
     let res;
     try {
       res = W.compute(stackOnly);
@@ -1304,6 +1302,59 @@
     $(status).textContent = 'Done in ' + (ms / 1000).toFixed(1) + ' s, ' + runs + ' winters run.';
   }
 
+  // Starts a section's run (the winter, the edge): `holder` keeps {running, job, report,
+  // generation} (a newer generation cancels this run), `make()` builds the core's job,
+  // `showErrors(errors)` and `stale(true, why)` report a refusal, `render()` the result.
+  function startRun(o) {
+    const res = $(o.results);
+    const list = $(o.errors);
+    clear(list); list.hidden = true;
+    const h = o.holder;
+    const gen = ++h.generation;
+    let job;
+    try {
+      job = o.make();
+    } catch (err) {
+      console.error(err);
+      generalError(o.what + ' failed unexpectedly: ' + String(err && err.message || err));
+      return;
+    }
+    const errs = job.errors();
+    if (errs && errs.length) {
+      job.free();
+      o.showErrors(errs);
+      o.stale(true);
+      return;
+    }
+    h.running = job;
+    res.dataset.state = 'running';
+    driveJob(job, {
+      bar: o.bar, status: o.status, busy: o.busy,
+      live: () => gen === h.generation,
+      failed: (errors) => {
+        h.running = null;
+        job.free();
+        o.showErrors(errors);
+        o.stale(true, 'The run stopped.');
+      },
+      done: (ms) => {
+        h.running = null;
+        if (h.job) h.job.free();
+        h.job = job;
+        h.report = job.report();
+        runDone(res, o.status, ms);
+        o.render();
+      },
+    });
+  }
+
+  // The scenario without the named sections (each section's run reads only its own).
+  function scenarioWithout(...keys) {
+    const out = Object.assign({}, state.scenario);
+    for (const k of keys) delete out[k];
+    return out;
+  }
+
   // ---------- search boxes ----------
   // A search box (`id`: 'w-design' or 'e-design', with parts `${id}-errors`, `-go`,
   // `-status`, `-progress`): its draft once every typed number parses (else the labels that
@@ -1422,49 +1473,12 @@
   }
 
   function startWinter() {
-    const res = $('winter-results');
-    const list = $('w-errors');
-    clear(list); list.hidden = true;
     for (const m of document.querySelectorAll('#winter .field-msg')) clear(m);
-    const gen = ++winter.generation;
-    let job;
-    try {
-      const stackOnly = Object.assign({}, state.scenario);
-      delete stackOnly.shelter;
-      delete stackOnly.edge;
-      job = new W.WinterRun(stackOnly);
-    } catch (err) {
-      console.error(err);
-      generalError('The winter run failed unexpectedly: ' + String(err && err.message || err));
-      return;
-    }
-    const errs = job.errors();
-    if (errs.length) {
-      job.free();
-      winterErrors(errs);
-      setWinterStale(true);
-      return;
-    }
-    winter.running = job;
-    res.dataset.state = 'running';
-    driveJob(job, {
-      bar: 'w-progress', status: 'w-status', busy: 'Running…',
-      live: () => gen === winter.generation,
-      failed: (errors) => {
-        winter.running = null;
-        job.free();
-        winterErrors(errors);
-        setWinterStale(true, 'The run stopped.');
-      },
-      done: (ms) => {
-        winter.running = null;
-        if (winter.job) winter.job.free();
-        winter.job = job;
-        winter.report = job.report();
-        runDone(res, 'w-status', ms);
-        renderWinterReport();
-        drawWinter();
-      },
+    startRun({
+      holder: winter, results: 'winter-results', errors: 'w-errors', bar: 'w-progress', status: 'w-status', busy: 'Running…',
+      what: 'The winter run', make: () => new W.WinterRun(scenarioWithout('shelter', 'edge')),
+      showErrors: winterErrors, stale: setWinterStale,
+      render: () => { renderWinterReport(); drawWinter(); },
     });
   }
 
@@ -1819,9 +1833,7 @@
     clear(list); list.hidden = true;
     if (!state.scenario.shelter) { res.dataset.state = 'idle'; dropShelterResult(); return; }
     if (blocked) { shelterStale(true, 'Out of date: fix the marked inputs.'); return; }
-    const scen = Object.assign({}, state.scenario);
-    delete scen.winter;
-    delete scen.edge;
+    const scen = scenarioWithout('winter', 'edge');
     let job;
     const t0 = performance.now();
     try {
@@ -2529,53 +2541,14 @@
     list.hidden = !list.firstChild;
   }
 
-  function edgeScenario() {
-    const scen = Object.assign({}, state.scenario);
-    delete scen.winter;
-    delete scen.shelter;
-    return scen;
-  }
+  const edgeScenario = () => scenarioWithout('winter', 'shelter');
 
   function startEdge() {
-    const res = $('edge-results');
-    const list = $('e-errors');
-    clear(list); list.hidden = true;
-    const gen = ++edge.generation;
-    let job;
-    try {
-      job = new W.EdgeRun(edgeScenario());
-    } catch (err) {
-      console.error(err);
-      generalError('The building edge failed unexpectedly: ' + String(err && err.message || err));
-      return;
-    }
-    const errs = job.errors();
-    if (errs && errs.length) {
-      job.free();
-      edgeErrors(errs);
-      edgeStale(true);
-      return;
-    }
-    edge.running = job;
-    res.dataset.state = 'running';
-    driveJob(job, {
-      bar: 'e-progress', status: 'e-status', busy: 'Running the cross-section…',
-      live: () => gen === edge.generation,
-      failed: (errors) => {
-        edge.running = null;
-        job.free();
-        edgeErrors(errors);
-        edgeStale(true, 'The run stopped.');
-      },
-      done: (ms) => {
-        edge.running = null;
-        if (edge.job) edge.job.free();
-        edge.job = job;
-        edge.report = job.report();
-        runDone(res, 'e-status', ms);
-        renderEdgeReport();
-        drawEdge();
-      },
+    startRun({
+      holder: edge, results: 'edge-results', errors: 'e-errors', bar: 'e-progress', status: 'e-status', busy: 'Running the cross-section…',
+      what: 'The building edge', make: () => new W.EdgeRun(edgeScenario()),
+      showErrors: edgeErrors, stale: edgeStale,
+      render: () => { renderEdgeReport(); drawEdge(); },
     });
   }
 
