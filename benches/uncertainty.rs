@@ -31,6 +31,7 @@ fn stack(density: f64) -> Stack {
                     dry_density_kg_m3: 1600.0,
                     water_content_pct: 20.0,
                     quartz_fraction: 0.3,
+                    conductivity_factor: 1.0,
                 }),
             },
         ],

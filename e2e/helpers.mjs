@@ -21,7 +21,8 @@ export async function launch() {
   });
 }
 
-const local = (url) => url.startsWith('file:') || url.startsWith('data:');
+// blob: URLs are the page's own memory (its Web Workers' script, its downloads).
+const local = (url) => url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:');
 
 // Opens the page in a fresh context. `problems` collects anything that must fail
 // a test: network requests, console errors, page errors, dialogs.

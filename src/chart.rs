@@ -43,9 +43,9 @@ fn layer_fill(f: Family) -> RGBColor {
     }
 }
 
-const INK: RGBColor = RGBColor(30, 36, 44);
+pub(crate) const INK: RGBColor = RGBColor(30, 36, 44);
 const PROFILE: RGBColor = RGBColor(20, 70, 140);
-const BAND: RGBColor = RGBColor(120, 150, 200);
+pub(crate) const BAND: RGBColor = RGBColor(120, 150, 200);
 const ZERO: RGBColor = RGBColor(190, 40, 40);
 
 /// Draw temperature against depth: layers shaded, the profile, the band across snow
@@ -513,7 +513,11 @@ fn finite_runs(points: impl IntoIterator<Item = (f64, f64)>) -> Vec<Vec<(f64, f6
 
 /// Lowest and highest finite value, widened to at least `min_span` around its middle and
 /// by `margin` of the span on each side.
-fn padded_range(values: impl IntoIterator<Item = f64>, min_span: f64, margin: f64) -> (f64, f64) {
+pub(crate) fn padded_range(
+    values: impl IntoIterator<Item = f64>,
+    min_span: f64,
+    margin: f64,
+) -> (f64, f64) {
     let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
     for v in values.into_iter().filter(|v| v.is_finite()) {
         lo = lo.min(v);
@@ -532,7 +536,7 @@ fn padded_range(values: impl IntoIterator<Item = f64>, min_span: f64, margin: f6
 
 /// Tick decimals for an axis spanning `span` (shown units): enough that neighbouring ticks
 /// (about a tenth of the span apart) read differently.
-fn tick_decimals(span: f64) -> usize {
+pub(crate) fn tick_decimals(span: f64) -> usize {
     if !(span.is_finite() && span > 0.0) {
         0
     } else {
@@ -552,7 +556,7 @@ fn line<DB: DrawingBackend>(
 }
 
 /// A tick label: `decimals` decimals, and never "−0".
-fn tick(v: f64, decimals: usize) -> String {
+pub(crate) fn tick(v: f64, decimals: usize) -> String {
     let p = 10f64.powi(decimals as i32);
     format!("{:.*}", decimals, (v * p).round() / p + 0.0)
 }

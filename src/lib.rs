@@ -23,12 +23,14 @@ pub mod units;
 
 pub mod chart;
 pub mod chart_field;
+pub mod chart_ranges;
 pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;
 pub mod scenario_design;
 pub mod scenario_edge;
 pub mod scenario_edge_design;
+pub mod scenario_ranges;
 pub mod scenario_shelter;
 pub mod scenario_winter;
 

@@ -2,12 +2,14 @@
 //! its faces (page, CLI). These are serialisable mirrors of the core types: the core itself
 //! has no serde.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 4, ...}`, all values SI. Version 2
+//! Format: `{"format": "hibernal-scenario", "version": 5, ...}`, all values SI. Version 2
 //! adds the optional `winter` section (a transient run of the same stack,
 //! [`crate::scenario_winter`]); version 3 the optional `shelter` section (a snow shelter,
 //! [`crate::scenario_shelter`], which stands on its own beside the stack); version 4 the
 //! optional `edge` section (a building's edge in 2D, [`crate::scenario_edge`], also on its
-//! own). Documents of versions 1 to 3, which lack the later sections, still load. A document from a newer version is refused
+//! own); version 5 the optional `ranges` section (uncertain inputs, [`crate::scenario_ranges`])
+//! and a soil's `conductivity_factor`. Documents of versions 1 to 4, which lack the later
+//! sections, still load. A document from a newer version is refused
 //! with a message.
 
 use schemars::JsonSchema;
@@ -21,7 +23,7 @@ use crate::steady::{self, SnowBand, SteadyResult};
 /// The `format` tag every scenario carries.
 pub const FORMAT_TAG: &str = "hibernal-scenario";
 /// The newest version this build reads and writes.
-pub const FORMAT_VERSION: u32 = 4;
+pub const FORMAT_VERSION: u32 = 5;
 /// Largest document accepted, bytes.
 pub const MAX_DOCUMENT_BYTES: usize = 1 << 20;
 /// Points per layer in the reported profile.
@@ -33,7 +35,7 @@ pub const PROFILE_POINTS_PER_LAYER: usize = 24;
 pub struct Scenario {
     /// Always "hibernal-scenario".
     pub format: String,
-    /// Format version; this build reads 1 to 4.
+    /// Format version; this build reads 1 to 5.
     pub version: u32,
     #[serde(default)]
     pub title: String,
@@ -55,6 +57,10 @@ pub struct Scenario {
     /// `layers`, `top` or `bottom`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub edge: Option<crate::scenario_edge::EdgeDoc>,
+    /// Ranges instead of single numbers: uncertain inputs and a Monte Carlo over them
+    /// (version 5 and later). Ordinary runs leave it aside; see [`crate::scenario_ranges`].
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ranges: Option<crate::scenario_ranges::RangesDoc>,
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -100,6 +106,10 @@ pub enum MaterialDoc {
         /// Quartz share of the solids, 0–1 (Johansen 1975, Côté & Konrad 2005).
         #[serde(default = "default_quartz")]
         quartz_fraction: f64,
+        /// Multiplies the model's conductivity, frozen and unfrozen (version 5; 1 when
+        /// absent). See [`SoilInput::conductivity_factor`].
+        #[serde(default = "one", skip_serializing_if = "is_one")]
+        conductivity_factor: f64,
         /// Freezing over a range in the winter run: unfrozen water w_u = α θ^β (fraction of
         /// dry mass, θ in K below 0 °C; Anderson & Tice 1972). Absent: the water freezes
         /// at 0 °C. The steady part always freezes at 0 °C.
@@ -142,6 +152,15 @@ pub struct UnfrozenWaterDoc {
 
 fn default_quartz() -> f64 {
     0.5
+}
+
+fn one() -> f64 {
+    1.0
+}
+
+#[allow(clippy::trivially_copy_pass_by_ref)]
+fn is_one(v: &f64) -> bool {
+    *v == 1.0
 }
 
 macro_rules! id_enum {
@@ -208,6 +227,7 @@ impl From<&MaterialDoc> for MaterialSpec {
                 dry_density_kg_m3,
                 water_content_pct,
                 quartz_fraction,
+                conductivity_factor,
                 ..
             } => MaterialSpec::Soil(SoilInput {
                 texture: (*texture).into(),
@@ -215,6 +235,7 @@ impl From<&MaterialDoc> for MaterialSpec {
                 dry_density_kg_m3: *dry_density_kg_m3,
                 water_content_pct: *water_content_pct,
                 quartz_fraction: *quartz_fraction,
+                conductivity_factor: *conductivity_factor,
             }),
             MaterialDoc::Insulation {
                 board,
@@ -312,6 +333,12 @@ impl Scenario {
             errs.push(
                 "edge",
                 InputErrorKind::Format("an edge section needs format version 4 or later".into()),
+            );
+        }
+        if self.version < 5 && self.ranges.is_some() {
+            errs.push(
+                "ranges",
+                InputErrorKind::Format("a ranges section needs format version 5 or later".into()),
             );
         }
         if self.title.chars().count() > 200 {
@@ -521,6 +548,10 @@ pub struct Report {
     /// The building edge, when the scenario has one and it was asked for.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub edge: Option<crate::scenario_edge::EdgeReport>,
+    /// The ranges study, when the scenario has one and it was asked for (the CLI runs it;
+    /// [`report`] leaves it empty).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub ranges: Option<crate::scenario_ranges::RangesReport>,
     pub warnings: Vec<ErrorDoc>,
 }
 
@@ -709,6 +740,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
         winter: c.winter.clone(),
         shelter: c.shelter.clone(),
         edge: c.edge.clone(),
+        ranges: None,
         warnings: r.warnings.iter().map(ErrorDoc::from).collect(),
     }
 }
@@ -723,7 +755,7 @@ pub struct Example {
 }
 
 /// The bundled examples; the page starts from the first.
-pub const EXAMPLES: [Example; 10] = [
+pub const EXAMPLES: [Example; 11] = [
     Example {
         id: "snow-over-foam-on-silt",
         summary: "40 cm of wind-packed snow over 50 mm of foam board over silty soil",
@@ -753,6 +785,11 @@ pub const EXAMPLES: [Example; 10] = [
         id: "cabin-porch-slab-snowy-winter",
         summary: "A cabin's porch slab on foam board, gravel and silt through a snowy winter: change the board and watch the deepest frost move",
         json: include_str!("../scenarios/cabin-porch-slab-snowy-winter.json"),
+    },
+    Example {
+        id: "silt-yard-how-sure",
+        summary: "Frost in a silt yard as P10, P50 and P90 over uncertain snow, water, conductivity and winter",
+        json: include_str!("../scenarios/silt-yard-how-sure.json"),
     },
     Example {
         id: "training-dome-four",

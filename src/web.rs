@@ -1166,3 +1166,312 @@ impl ShelterRun {
         }
     }
 }
+
+/// One task's outcome as it crosses from a worker to the page: per result, a value or
+/// the reason there is none.
+#[derive(Serialize, serde::Deserialize)]
+struct TaskOutcomeDoc {
+    values: Vec<Option<f64>>,
+    errors: Vec<Option<String>>,
+}
+
+impl From<&crate::scenario_ranges::TaskOutcome> for TaskOutcomeDoc {
+    fn from(o: &crate::scenario_ranges::TaskOutcome) -> Self {
+        TaskOutcomeDoc {
+            values: o.values.iter().map(|v| v.as_ref().ok().copied()).collect(),
+            errors: o.values.iter().map(|v| v.as_ref().err().cloned()).collect(),
+        }
+    }
+}
+
+/// A scenario's ranges study (its `ranges` section) as independent tasks, so the page can
+/// spread them over Web Workers: each worker makes its own `RangesStudy` from the same
+/// scenario and calls `run_task(k)` for its share; the page's own study `record`s each
+/// outcome and, once all are in, gives the `report` (the same, to the bit, whatever the
+/// order). `advance` runs the tasks here instead, a slice at a time. The constructor never
+/// throws.
+#[wasm_bindgen]
+pub struct RangesStudy {
+    plan: Option<crate::scenario_ranges::RangesPlan>,
+    outcomes: Vec<Option<crate::scenario_ranges::TaskOutcome>>,
+    recorded: usize,
+    next: usize,
+    report: Option<crate::scenario_ranges::RangesReport>,
+    errors: Vec<ErrorDoc>,
+}
+
+#[wasm_bindgen]
+impl RangesStudy {
+    /// Check the scenario and its ranges section and set up.
+    #[wasm_bindgen(constructor)]
+    pub fn new(scenario_value: JsValue) -> RangesStudy {
+        let plan = read_scenario(scenario_value).and_then(|s| {
+            crate::scenario_ranges::RangesPlan::new(&s)
+                .map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
+        });
+        match plan {
+            Ok(p) => RangesStudy {
+                outcomes: vec![None; p.task_count()],
+                plan: Some(p),
+                recorded: 0,
+                next: 0,
+                report: None,
+                errors: Vec::new(),
+            },
+            Err(errors) => RangesStudy {
+                plan: None,
+                outcomes: Vec::new(),
+                recorded: 0,
+                next: 0,
+                report: None,
+                errors,
+            },
+        }
+    }
+
+    /// Why the study cannot go on (`[]` while it can).
+    pub fn errors(&self) -> JsValue {
+        to_js(&self.errors)
+    }
+
+    /// How many tasks the study has (0 when it cannot run).
+    pub fn task_count(&self) -> usize {
+        self.plan.as_ref().map_or(0, |p| p.task_count())
+    }
+
+    /// How many outcomes are in.
+    pub fn recorded(&self) -> usize {
+        self.recorded
+    }
+
+    /// What task `k` is: `{kind: "sample"|"base"|"low"|"high"|"regression", input?, regression?}`.
+    pub fn task_kind(&self, k: usize) -> JsValue {
+        use crate::scenario_ranges::Task;
+        #[derive(Serialize)]
+        struct Kind {
+            kind: &'static str,
+            index: Option<usize>,
+            regression: Option<&'static str>,
+        }
+        let kind = self.plan.as_ref().and_then(|p| p.task(k)).map(|t| match t {
+            Task::Sample(i) => Kind {
+                kind: "sample",
+                index: Some(i),
+                regression: None,
+            },
+            Task::Base => Kind {
+                kind: "base",
+                index: None,
+                regression: None,
+            },
+            Task::End { input, high } => Kind {
+                kind: if high { "high" } else { "low" },
+                index: Some(input),
+                regression: None,
+            },
+            Task::Correlation(c) => Kind {
+                kind: "regression",
+                index: None,
+                regression: Some(c.id()),
+            },
+        });
+        kind.as_ref().map_or(JsValue::NULL, to_js)
+    }
+
+    /// Run task `k` here and return its outcome `{values: [number|null], errors:
+    /// [string|null]}` (one entry per result), for `record` on the page's study. Past the
+    /// last task, or on a study that cannot run, every entry is an error.
+    pub fn run_task(&self, k: usize) -> JsValue {
+        match &self.plan {
+            Some(p) => to_js(&TaskOutcomeDoc::from(&p.run_task(k))),
+            None => to_js(&TaskOutcomeDoc {
+                values: vec![None],
+                errors: vec![Some("the study cannot run".into())],
+            }),
+        }
+    }
+
+    /// Record task `k`'s outcome (as `run_task` gave it). Returns whether it was taken: not
+    /// for an unknown task, one already in, or an outcome of the wrong shape. The last one
+    /// in makes the report.
+    pub fn record(&mut self, k: usize, outcome: JsValue) -> bool {
+        let Some(plan) = &self.plan else {
+            return false;
+        };
+        let Ok(doc) = serde_wasm_bindgen::from_value::<TaskOutcomeDoc>(outcome) else {
+            return false;
+        };
+        let n = plan.results().len();
+        if doc.values.len() != n || doc.errors.len() != n {
+            return false;
+        }
+        let Some(slot @ None) = self.outcomes.get_mut(k) else {
+            return false;
+        };
+        let values = doc
+            .values
+            .into_iter()
+            .zip(doc.errors)
+            .map(|(v, e)| match (v, e) {
+                (Some(v), None) => Ok(v),
+                (_, e) => Err(e.unwrap_or_else(|| "no value".into())),
+            })
+            .collect();
+        *slot = Some(crate::scenario_ranges::TaskOutcome { values });
+        self.recorded += 1;
+        if self.recorded == self.outcomes.len() {
+            self.finish();
+        }
+        true
+    }
+
+    /// Run the next tasks here for about `budget_ms` milliseconds (at least one):
+    /// `{ok, fraction, finished, errors?}`.
+    pub fn advance(&mut self, budget_ms: f64) -> JsValue {
+        let t0 = clock_ms();
+        let budget = if budget_ms.is_finite() {
+            budget_ms.clamp(1.0, 10_000.0)
+        } else {
+            16.0
+        };
+        if let Some(plan) = &self.plan {
+            while self.next < self.outcomes.len() {
+                let k = self.next;
+                self.next += 1;
+                if self.outcomes[k].is_none() {
+                    self.outcomes[k] = Some(plan.run_task(k));
+                    self.recorded += 1;
+                }
+                if clock_ms() - t0 >= budget {
+                    break;
+                }
+            }
+        }
+        if self.plan.is_some() && self.recorded == self.outcomes.len() && self.report.is_none() {
+            self.finish();
+        }
+        let fraction = if self.outcomes.is_empty() {
+            0.0
+        } else {
+            self.recorded as f64 / self.outcomes.len() as f64
+        };
+        let finished = self.report.is_some();
+        to_js(&Step {
+            ok: self.errors.is_empty(),
+            fraction: if finished { 1.0 } else { fraction },
+            finished,
+            errors: (!self.errors.is_empty()).then_some(&self.errors[..]),
+        })
+    }
+
+    /// The report once every outcome is in, or null.
+    pub fn report(&self) -> JsValue {
+        self.report.as_ref().map_or(JsValue::NULL, to_js)
+    }
+
+    /// Draw result `index`'s Monte Carlo values (a histogram with P10, P50, P90, the base
+    /// case and the spread across snow regressions).
+    pub fn draw_spread(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        index: usize,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| {
+            crate::chart_ranges::draw_report_spread(root, r, index, units(unit_system), pixel_ratio)
+        })
+    }
+
+    /// Draw result `index`'s one-at-a-time swings (largest on top).
+    pub fn draw_sensitivity(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        index: usize,
+        unit_system: &str,
+        pixel_ratio: f64,
+    ) -> JsValue {
+        self.draw(canvas, |root, r| {
+            crate::chart_ranges::draw_report_sensitivity(
+                root,
+                r,
+                index,
+                units(unit_system),
+                pixel_ratio,
+            )
+        })
+    }
+
+    /// Every Monte Carlo run as CSV in the chosen units (empty before the end).
+    pub fn trials_csv(&self, unit_system: &str) -> String {
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_ranges::trials_csv(r, units(unit_system))
+        })
+    }
+
+    /// The summary per result as CSV in the chosen units (empty before the end).
+    pub fn summary_csv(&self, unit_system: &str) -> String {
+        self.report.as_ref().map_or_else(String::new, |r| {
+            crate::scenario_ranges::summary_csv(r, units(unit_system))
+        })
+    }
+}
+
+impl RangesStudy {
+    fn draw(
+        &self,
+        canvas: web_sys::HtmlCanvasElement,
+        f: impl FnOnce(
+            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &crate::scenario_ranges::RangesReport,
+        ) -> Result<(), crate::chart::ChartError>,
+    ) -> JsValue {
+        let fail = |m: String| {
+            to_js(&DrawOutcome {
+                ok: false,
+                message: Some(m),
+            })
+        };
+        let Some(r) = &self.report else {
+            return fail("the study has not finished".into());
+        };
+        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+            return fail("the canvas has no 2D context".into());
+        };
+        use plotters::prelude::IntoDrawingArea;
+        match f(&backend.into_drawing_area(), r) {
+            Ok(()) => to_js(&DrawOutcome {
+                ok: true,
+                message: None,
+            }),
+            Err(e) => fail(e.to_string()),
+        }
+    }
+
+    fn finish(&mut self) {
+        let Some(plan) = &self.plan else { return };
+        let outcomes: Vec<_> = self.outcomes.iter().flatten().cloned().collect();
+        match plan.assemble(&outcomes) {
+            Ok(r) => self.report = Some(r),
+            Err(e) => self.errors = e.0.iter().map(ErrorDoc::from).collect(),
+        }
+    }
+}
+
+/// The scenario's own value of an uncertain input (`what` as in the ranges section; `layer`
+/// a stack layer, or negative for every field of the kind), SI; null when it has none or
+/// the scenario cannot be read. For the page's default ranges.
+#[wasm_bindgen]
+pub fn ranges_base_value(scenario_value: JsValue, what: &str, layer: i32) -> JsValue {
+    let Ok(s) = read_scenario(scenario_value) else {
+        return JsValue::NULL;
+    };
+    let Some(w) = crate::scenario_ranges::RangedWhat::ALL
+        .into_iter()
+        .find(|w| w.id() == what)
+    else {
+        return JsValue::NULL;
+    };
+    let layer = usize::try_from(layer).ok();
+    crate::scenario_ranges::base_value(&s, w, layer).map_or(JsValue::NULL, JsValue::from_f64)
+}

@@ -106,7 +106,7 @@ fn older_versions_load_and_an_edge_needs_version_4() {
         fields(&scenario::from_value(v.clone()).unwrap_err()),
         ["edge"]
     );
-    v["version"] = json!(5);
+    v["version"] = json!(scenario::FORMAT_VERSION + 1);
     assert!(fields(&scenario::from_value(v).unwrap_err()).contains(&"version".to_string()));
 }
 

@@ -86,6 +86,7 @@ fn a_soil_layer_splits_at_its_0c_plane_self_consistently() {
         dry_density_kg_m3: 1600.0,
         water_content_pct: 20.0,
         quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
     };
     let mut w = Vec::new();
     let p = hibernal::materials::soil::soil_properties(&soil, "m", &mut w).unwrap();
@@ -177,6 +178,7 @@ fn the_band_holds_every_regression_and_the_chosen_one() {
                     dry_density_kg_m3: 1650.0,
                     water_content_pct: 10.0,
                     quartz_fraction: 0.6,
+                    conductivity_factor: 1.0,
                 }),
             ),
         ],
@@ -303,6 +305,7 @@ fn arb_material() -> impl Strategy<Value = MaterialSpec> {
                 dry_density_kg_m3: rho,
                 water_content_pct: (wsat * s).max(8.0).min(wsat),
                 quartz_fraction: 0.4,
+                conductivity_factor: 1.0,
             })
         }),
     ]

@@ -170,6 +170,7 @@ fn held_conditions_lead_to_the_steady_solution() {
         dry_density_kg_m3: 1600.0,
         water_content_pct: 20.0,
         quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
     });
     let stack = Stack {
         layers: vec![Layer {
@@ -510,6 +511,7 @@ fn silt() -> Material {
         dry_density_kg_m3: 1600.0,
         water_content_pct: 20.0,
         quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
     })
     .resolve("silt", &mut Vec::new())
     .unwrap()
@@ -541,6 +543,7 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
         dry_density_kg_m3: 1600.0,
         water_content_pct: 20.0,
         quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
     });
     let stack = Stack {
         layers: vec![

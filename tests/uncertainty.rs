@@ -476,6 +476,7 @@ fn snow_over_soil(density: f64, correlation: SnowCorrelation) -> Stack {
                     dry_density_kg_m3: 1600.0,
                     water_content_pct: 20.0,
                     quartz_fraction: 0.3,
+                    conductivity_factor: 1.0,
                 }),
             },
         ],

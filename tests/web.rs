@@ -383,3 +383,61 @@ fn the_seeded_sampler_gives_the_same_bits_in_wasm_as_natively() {
         [0x3fdc4c19b3c7a0d5, 0x3fee8484292e448a, 0x3fd0f9fbc90cff61]
     );
 }
+
+#[wasm_bindgen_test]
+fn a_ranges_study_split_over_studies_gives_the_report_of_one_run_in_order() {
+    // As the page's workers do: one study runs the tasks (in reverse order here), another
+    // records them; the report equals that of a study that ran every task itself in
+    // slices, to the bit (the report's JSON compared whole).
+    let s = example("snow-over-foam-on-silt");
+    Reflect::set(&s, &"version".into(), &JsValue::from_f64(5.0)).unwrap();
+    let ranges: JsValue = js_sys::JSON::parse(
+        r#"{"runs": 12, "seed": 5, "inputs": [
+            {"what": "snow-density", "low": 250, "high": 450},
+            {"what": "insulation-derating", "low": 0, "high": 40,
+             "distribution": {"kind": "normal", "mean": 10, "sd": 8}}]}"#,
+    )
+    .unwrap();
+    Reflect::set(&s, &"ranges".into(), &ranges).unwrap();
+    let worker = web::RangesStudy::new(s.clone());
+    assert_eq!(Array::from(&worker.errors()).length(), 0);
+    let n = worker.task_count();
+    // 12 runs, the base case, 2 × 2 ends, 9 regressions.
+    assert_eq!(n, 12 + 1 + 4 + 9);
+    let mut page = web::RangesStudy::new(s.clone());
+    for k in (0..n).rev() {
+        assert!(page.report().is_null());
+        assert!(page.record(k, worker.run_task(k)));
+    }
+    assert!(!page.record(0, worker.run_task(0)), "a task is taken once");
+    let mut alone = web::RangesStudy::new(s);
+    loop {
+        let st = alone.advance(5.0);
+        assert_eq!(get(&st, "ok").as_bool(), Some(true));
+        if get(&st, "finished").as_bool() == Some(true) {
+            break;
+        }
+    }
+    let a = js_sys::JSON::stringify(&page.report()).unwrap();
+    let b = js_sys::JSON::stringify(&alone.report()).unwrap();
+    assert_eq!(String::from(a), String::from(b));
+    let rep = page.report();
+    assert_eq!(get(&rep, "seed").as_f64(), Some(5.0));
+    let res = Array::from(&get(&rep, "results")).get(0);
+    let p10 = get(&res, "p10").as_f64().unwrap();
+    let p90 = get(&res, "p90").as_f64().unwrap();
+    assert!(p10 < p90);
+    assert!(
+        page.summary_csv("us").contains(",5,"),
+        "the seed is in the summary"
+    );
+    // Junk gives errors, not exceptions.
+    let junk = web::RangesStudy::new(JsValue::NULL);
+    assert!(Array::from(&junk.errors()).length() > 0);
+    assert_eq!(junk.task_count(), 0);
+    assert!(
+        web::ranges_base_value(example("snow-over-foam-on-silt"), "snow-density", -1)
+            .as_f64()
+            .is_some()
+    );
+}

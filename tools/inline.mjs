@@ -22,7 +22,9 @@ const inputs = {
 const out = p(process.env.HIBERNAL_OUT || 'dist/hibernal.html');
 
 const CSP = "default-src 'none'; script-src 'unsafe-inline' 'wasm-unsafe-eval'; " +
-  "style-src 'unsafe-inline'; img-src data: blob:; connect-src 'none'";
+  "style-src 'unsafe-inline'; img-src data: blob:; connect-src 'none'; " +
+  // The ranges study's Web Workers run the inlined glue from a blob: URL.
+  "worker-src blob:";
 
 function read(path, binary = false) {
   try {
@@ -71,7 +73,8 @@ replaceMarker('style', () => `<style>\n${safeStyle(css)}\n</style>`);
 replaceMarker('scripts', () => [
   // Base64 has no "<", so a data block needs no escaping.
   `<script type="application/octet-stream" id="hibernal-wasm">${wasm.toString('base64')}</script>`,
-  `<script>\n${safeScript(glue)}\n</script>`,
+  // The id lets the page hand the same glue to its Web Workers.
+  `<script id="hibernal-glue">\n${safeScript(glue)}\n</script>`,
   `<script>\n${safeScript(app)}\n</script>`,
 ].join('\n'));
 

@@ -108,6 +108,31 @@ mod cli {
             /// temperature and frozen fraction of every cell, to this CSV file.
             #[arg(long, value_name = "OUT.csv")]
             edge_field_csv: Option<PathBuf>,
+            /// Also write every run of the ranges study (its inputs and results, the seed) to
+            /// this CSV file (in the units of --units, named in the header).
+            #[arg(long, value_name = "OUT.csv")]
+            ranges_csv: Option<PathBuf>,
+            /// Also write the ranges study's summary (base case, P10, P50, P90, mean, sd,
+            /// min, max, runs, seed, spread across snow regressions per result) to this CSV
+            /// file.
+            #[arg(long, value_name = "OUT.csv")]
+            ranges_summary_csv: Option<PathBuf>,
+            /// Also write the ranges study's histogram of one result (see --ranges-result)
+            /// with P10, P50, P90 and the spread across snow regressions to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            ranges_svg: Option<PathBuf>,
+            /// Also write the ranges study's one-at-a-time sensitivity of one result (see
+            /// --ranges-result) to this SVG file.
+            #[arg(long, value_name = "OUT.svg")]
+            sensitivity_svg: Option<PathBuf>,
+            /// The result --ranges-svg and --sensitivity-svg draw: r-value, frost-depth,
+            /// frost-below-footing or shelter-interior (default: the study's first).
+            #[arg(long, value_name = "ID")]
+            ranges_result: Option<String>,
+            /// Threads for the ranges study (default: the machine's cores). The answers are
+            /// the same for any number.
+            #[arg(long, value_name = "N")]
+            threads: Option<usize>,
             /// Units of the charts and of the CSV files: si or us.
             #[arg(long, default_value = "si")]
             units: String,
@@ -173,6 +198,12 @@ mod cli {
                 edge_series_svg,
                 edge_csv,
                 edge_field_csv,
+                ranges_csv,
+                ranges_summary_csv,
+                ranges_svg,
+                sensitivity_svg,
+                ranges_result,
+                threads,
                 units,
             } => {
                 let Some(sys) = UnitSystem::from_id(&units) else {
@@ -190,7 +221,65 @@ mod cli {
                     Ok(c) => c,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
-                let report = scenario::report(&sc, &computed);
+                let mut report = scenario::report(&sc, &computed);
+                if sc.ranges.is_some() {
+                    let threads = threads.unwrap_or_else(|| {
+                        std::thread::available_parallelism().map_or(1, |n| n.get())
+                    });
+                    let t0 = std::time::Instant::now();
+                    match hibernal::scenario_ranges::run_ranges(&sc, threads) {
+                        Ok(r) => {
+                            eprintln!(
+                                "{}",
+                                hibernal::scenario_ranges::summary_text(&r, sys, t0.elapsed())
+                            );
+                            report.ranges = Some(r);
+                        }
+                        Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
+                    }
+                }
+                let ranges_outputs: [(&str, Option<PathBuf>); 4] = [
+                    ("--ranges-csv", ranges_csv),
+                    ("--ranges-summary-csv", ranges_summary_csv),
+                    ("--ranges-svg", ranges_svg),
+                    ("--sensitivity-svg", sensitivity_svg),
+                ];
+                for (option, out) in ranges_outputs {
+                    let Some(out) = out else { continue };
+                    let Some(r) = &report.ranges else {
+                        return fail(format!("{option} needs a scenario with a ranges section"));
+                    };
+                    let index = match &ranges_result {
+                        None => 0,
+                        Some(id) => match r.results.iter().position(|x| x.id == id) {
+                            Some(i) => i,
+                            None => {
+                                let ids: Vec<&str> = r.results.iter().map(|x| x.id).collect();
+                                return fail(format!(
+                                    "--ranges-result {id:?} is not one of this study's results: {}",
+                                    ids.join(", ")
+                                ));
+                            }
+                        },
+                    };
+                    use hibernal::chart_ranges::{report_sensitivity_svg, report_spread_svg};
+                    use hibernal::scenario_ranges::{summary_csv, trials_csv};
+                    let text = match option {
+                        "--ranges-csv" => trials_csv(r, sys),
+                        "--ranges-summary-csv" => summary_csv(r, sys),
+                        "--ranges-svg" => match report_spread_svg(r, index, sys, 900, 520) {
+                            Ok(t) => t,
+                            Err(e) => return fail(e),
+                        },
+                        _ => match report_sensitivity_svg(r, index, sys, 900, 520) {
+                            Ok(t) => t,
+                            Err(e) => return fail(e),
+                        },
+                    };
+                    if let Err(e) = std::fs::write(&out, text) {
+                        return fail(format!("cannot write {}: {e}", out.display()));
+                    }
+                }
                 match serde_json::to_string_pretty(&report) {
                     Ok(s) => println!("{s}"),
                     Err(e) => return fail(e),

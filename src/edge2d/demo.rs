@@ -43,6 +43,7 @@ pub fn design_winter_section() -> EdgeSection {
         dry_density_kg_m3: 1600.0,
         water_content_pct: 22.0,
         quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
     })
     .resolve("silt", &mut w)
     .expect("silt resolves");
@@ -52,6 +53,7 @@ pub fn design_winter_section() -> EdgeSection {
         dry_density_kg_m3: 1700.0,
         water_content_pct: 12.0,
         quartz_fraction: 0.6,
+        conductivity_factor: 1.0,
     })
     .resolve("sand", &mut w)
     .expect("sand resolves");

@@ -150,6 +150,12 @@ pub struct SoilInput {
     pub dry_density_kg_m3: f64,
     pub water_content_pct: f64,
     pub quartz_fraction: f64,
+    /// Multiplies the model's frozen and unfrozen conductivity (1 for the model as
+    /// published). For a correction from a measurement, or to carry the model's own
+    /// scatter into a range study: Kersten (1949) reports his fits within about ±25 % of
+    /// his measurements, Johansen (1975) about ±20 % (from memory of the papers' stated
+    /// accuracy). Accepted 0.2–5.
+    pub conductivity_factor: f64,
 }
 
 /// Derived soil properties (SI).
@@ -215,6 +221,14 @@ pub fn soil_properties(
             );
         }
     }
+    check::within(
+        &mut errs,
+        &format!("{field}.conductivity_factor"),
+        input.conductivity_factor,
+        0.2,
+        5.0,
+        "",
+    );
     let uses_quartz = input.model != SoilModel::Kersten1949 && input.texture != Texture::Peat;
     if uses_quartz {
         check::within(&mut errs, &f_q, input.quartz_fraction, 0.0, 1.0, "");
@@ -247,6 +261,10 @@ pub fn soil_properties(
             )),
         )));
     }
+    let (kf, ku) = (
+        kf * input.conductivity_factor,
+        ku * input.conductivity_factor,
+    );
     let wf = w / 100.0;
     let cs = input.texture.solids_specific_heat_j_per_kg_k();
     Ok(SoilProperties {

@@ -42,6 +42,7 @@ pub fn reference_year() -> (RunSpec, ReferenceForcing) {
             dry_density_kg_m3: 1600.0,
             water_content_pct: 20.0,
             quartz_fraction: 0.3,
+            conductivity_factor: 1.0,
         }),
         MaterialSpec::Soil(SoilInput {
             texture: Texture::Sand,
@@ -49,6 +50,7 @@ pub fn reference_year() -> (RunSpec, ReferenceForcing) {
             dry_density_kg_m3: 1700.0,
             water_content_pct: 10.0,
             quartz_fraction: 0.6,
+            conductivity_factor: 1.0,
         }),
     ];
     let materials = mats
