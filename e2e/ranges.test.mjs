@@ -86,6 +86,23 @@ test('the silt yard: frost depth as P10, P50, P90 over Web Workers, reproducible
   // US units: the same study shown in feet.
   await andRecompute(page, () => page.check('input[name="units"][value="us"]'));
   assert.match(await cell(page, 'frost-depth', 'p50'), /ft|in/);
+  // The printed report carries the percentiles, the seed and the charts, not the controls.
+  await page.emulateMedia({ media: 'print' });
+  assert.equal(await page.locator('#r-summary').isVisible(), true);
+  assert.equal(await page.locator('#r-failed').isVisible(), true);
+  assert.equal(await page.locator('#r-spread-chart').isVisible(), true);
+  for (const id of ['r-go', 'r-stop', 'r-trials-csv', 'ranges-remove', 'r-add-input']) {
+    assert.equal(await page.locator('#' + id).isVisible(), false, id);
+  }
+  await page.emulateMedia({ media: 'screen' });
+}));
+
+test('a scenario without ranges prints no ranges section', () => withPage(async (page) => {
+  await andRecompute(page, () => page.selectOption('#example-pick', 'snow-over-foam-on-silt'));
+  await page.emulateMedia({ media: 'print' });
+  assert.equal(await page.locator('#ranges').isVisible(), false);
+  await page.emulateMedia({ media: 'screen' });
+  assert.equal(await page.locator('#ranges').isVisible(), true);
 }));
 
 test('a study can be stopped, and a bad range is named beside its field', () => withPage(async (page) => {

@@ -551,23 +551,34 @@ pub fn draw_sensitivity<DB: DrawingBackend>(
                 )))
                 .map_err(err)?;
         }
-        // End labels, beyond each end, away from the split.
-        for (end, text) in [(lo, bar.1), (hi, bar.2)] {
-            if !end.is_finite() {
-                continue;
-            }
-            let outward_left = split.is_finite() && end < split;
-            let (dx, h) = if outward_left {
-                (-(px(4.0) as i32), HPos::Right)
-            } else {
-                (px(4.0) as i32, HPos::Left)
-            };
-            let text: String = text.chars().take(30).collect();
+        // An input whose two ends give the same answer (it does not reach this result's
+        // part of the scenario): one note instead of two labels written over each other.
+        if lo.is_finite() && hi.is_finite() && (hi - lo).abs() <= 1e-9 * (x1 - x0).abs() {
             chart
                 .draw_series(std::iter::once(
-                    EmptyElement::at((end, yc)) + Text::new(text, (dx, 0), end_font(h)),
+                    EmptyElement::at((lo, yc))
+                        + Text::new("no effect", (px(4.0) as i32, 0), end_font(HPos::Left)),
                 ))
                 .map_err(err)?;
+        } else {
+            // End labels, beyond each end, away from the split.
+            for (end, text) in [(lo, bar.1), (hi, bar.2)] {
+                if !end.is_finite() {
+                    continue;
+                }
+                let outward_left = split.is_finite() && end < split;
+                let (dx, h) = if outward_left {
+                    (-(px(4.0) as i32), HPos::Right)
+                } else {
+                    (px(4.0) as i32, HPos::Left)
+                };
+                let text: String = text.chars().take(30).collect();
+                chart
+                    .draw_series(std::iter::once(
+                        EmptyElement::at((end, yc)) + Text::new(text, (dx, 0), end_font(h)),
+                    ))
+                    .map_err(err)?;
+            }
         }
         // The input's name, left of the plot.
         chart

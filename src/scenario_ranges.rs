@@ -65,7 +65,8 @@ pub enum RangeResult {
     RValue,
     /// The winter's deepest frost (m).
     FrostDepth,
-    /// At the building edge, the deepest frost below the footing's base (m; 0 for none).
+    /// At the building edge, the deepest frost below the footing's base (m): positive below
+    /// the base, negative when frost stays above the base by that much.
     FrostBelowFooting,
     /// The shelter's steady interior air temperature (°C).
     ShelterInterior,

@@ -685,6 +685,19 @@ fn odd_sensitivities_still_draw() {
             .count()
             >= 3
     );
+    // Both ends give the same answer: one note, not two end labels over each other.
+    assert!(has_text(&svg, "no effect") && !has_text(&svg, "lo") && !has_text(&svg, "hi"));
+    // An input with no effect beside one that moves the answer: only the flat one says so.
+    let mixed = [
+        ("Soil conductivity factor", "0.8", "1.25", 1.3, 1.0),
+        ("Freezing index", "900", "1400", 1.15, 1.15),
+    ];
+    let svg = sensitivity_svg(&sens(&mixed), UnitSystem::Si, 640, 400).unwrap();
+    let all = texts(&svg);
+    assert_eq!(all.iter().filter(|t| t.content == "no effect").count(), 1);
+    assert!(has_text(&svg, "0.8") && has_text(&svg, "1.25") && !has_text(&svg, "1400"));
+    let note_y = text(&all, "no effect").num("y");
+    assert!((note_y - text(&all, "Freezing index").num("y")).abs() <= 1.0);
     let bad = SensitivityChart {
         quantity: "",
         ..sens(&BARS)

@@ -2808,7 +2808,8 @@
     study: null, // the RangesStudy that finished last (charts and CSV), or null
     report: null,
     ranWith: '', // the scenario (JSON) the finished study read
-    pick: 0,
+    pick: 0, // index of the charted result in the report
+    pickId: null, // its id, kept across studies; null: the default
     past: null,
   };
   const workerCount = () => Math.max(1, Math.min(8, Number(navigator.hardwareConcurrency) || 2));
@@ -3207,9 +3208,14 @@
         notes.push(res.name + ': ' + res.runs_failed + ' of ' + rep.runs + ' runs gave no value' + (first ? ' (first, ' + first.field + ': ' + first.message + ')' : '') + '; the percentiles are of the others.');
       }
     });
+    if (rep.results.some((x) => x.id === 'frost-below-footing')) notes.push('Frost below the footing: a negative value is how far above the footing\'s base the frost stays.');
     notes.push('Seed ' + rep.seed + ', ' + rep.runs + ' runs: the same seed and inputs give the same numbers.');
     $('r-failed').textContent = notes.join(' ');
-    if (ranges.pick >= rep.results.length) ranges.pick = 0;
+    // The result chosen before, if this study has it; else the first that is not the
+    // steady R-value (a winter, an edge or a shelter is what a range study is usually for).
+    let at = rep.results.findIndex((x) => x.id === ranges.pickId);
+    if (at < 0) at = Math.max(0, rep.results.findIndex((x) => x.id !== 'r-value'));
+    ranges.pick = at;
     pick.value = String(ranges.pick);
     drawRanges();
   }
@@ -3245,7 +3251,12 @@
     });
     $('r-go').addEventListener('click', startStudy);
     $('r-stop').addEventListener('click', () => stopStudy(true));
-    $('r-pick').addEventListener('change', (ev) => { ranges.pick = Number(ev.target.value) || 0; drawRanges(); });
+    $('r-pick').addEventListener('change', (ev) => {
+      ranges.pick = Number(ev.target.value) || 0;
+      const res = ranges.report && ranges.report.results[ranges.pick];
+      ranges.pickId = res ? res.id : null;
+      drawRanges();
+    });
     $('r-summary-csv').addEventListener('click', () => { if (ranges.study) download(ranges.study.summary_csv(state.units), fileStem('ranges') + '-summary.csv'); });
     $('r-trials-csv').addEventListener('click', () => { if (ranges.study) download(ranges.study.trials_csv(state.units), fileStem('ranges') + '-runs.csv'); });
   }
@@ -3291,6 +3302,7 @@
     renderEdgeDesignReport();
     dropRangesResult();
     ranges.past = null;
+    ranges.pickId = null;
     renderInputs();
     run();
   }
