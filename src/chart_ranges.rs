@@ -182,6 +182,43 @@ fn least_span(q: &Quantity, sys: UnitSystem, shown: impl IntoIterator<Item = f64
     (10f64.powi(1 - q.unit(sys).decimals as i32)).max(0.1 * size)
 }
 
+/// Rough width of `text` in pixels at `font_px` (sans-serif averages a little over half
+/// an em per character; an estimate for laying labels out, not a measurement).
+fn text_width_px(text: &str, font_px: f64) -> f64 {
+    0.58 * font_px * text.chars().count() as f64
+}
+
+/// Lay out labels centred at `centres` (pixels, any order) with widths `widths` on at most
+/// `rows` rows, leaving `gap` pixels between neighbours on a row and keeping each label
+/// inside `[left, right]` (a label is slid inwards at the edges): each label's row and its
+/// centre, or None when it fits on no row. Labels are placed left to right, each on the
+/// lowest row that has room.
+pub fn pack_labels(
+    centres: &[f64],
+    widths: &[f64],
+    rows: usize,
+    gap: f64,
+    left: f64,
+    right: f64,
+) -> Vec<Option<(usize, f64)>> {
+    let mut order: Vec<usize> = (0..centres.len()).collect();
+    order.sort_by(|&a, &b| centres[a].total_cmp(&centres[b]));
+    let mut ends = vec![f64::NEG_INFINITY; rows];
+    let mut out = vec![None; centres.len()];
+    for i in order {
+        let w = widths[i];
+        if !(centres[i].is_finite() && w.is_finite()) || w > right - left {
+            continue;
+        }
+        let c = centres[i].clamp(left + 0.5 * w, right - 0.5 * w);
+        if let Some(row) = (0..rows).find(|&r| c - 0.5 * w >= ends[r] + gap) {
+            ends[row] = c + 0.5 * w;
+            out[i] = Some((row, c));
+        }
+    }
+    out
+}
+
 /// Draw the spread of one result over the Monte Carlo runs: a histogram of the finite
 /// values (bins by [`histogram`]: Freedman–Diaconis, held to 8–40 bins) in the unit shown
 /// on x, the count of runs on y; dashed vertical lines at P10, P50 and P90, each labelled
@@ -224,10 +261,19 @@ pub fn draw_spread<DB: DrawingBackend>(
         .as_ref()
         .and_then(|h| h.counts.iter().max().copied())
         .unwrap_or(0);
-    // Bars fill the lower 60 % of the height; the labels sit above them.
-    let y1 = (top_count as f64 / 0.6).max(1.0);
-
+    // Above the bars, rows of labels laid out in pixels down from the plot's top: P10, P50,
+    // P90, the base case, and with regressions their span's label, three rows of their
+    // names and their ticks. The bars fill what is left (at least a third of the plot).
+    // The plot's height is estimated from the chart's own margins, caption and axis area.
     let (h_px, foot_px) = (root.dim_in_pixel().1, px(24.0));
+    let plot_h =
+        (f64::from(h_px) - f64::from(foot_px) - scale * (12.0 + 12.0 + 24.0 + 44.0)).max(1.0);
+    let labels_px = if c.members.is_empty() { 66.0 } else { 126.0 } * scale;
+    let bar_share = ((plot_h - labels_px) / plot_h).clamp(1.0 / 3.0, 0.9);
+    let y1 = (top_count as f64 / bar_share).max(1.0);
+    // Data height of the point `d` logical pixels below the plot's top.
+    let below_top = |d: f64| y1 * (1.0 - d * scale / plot_h);
+
     let (main, foot) = root.split_vertically(h_px.saturating_sub(foot_px));
     let title: String = c.title.chars().take(80).collect();
     let mut chart = ChartBuilder::on(&main)
@@ -320,32 +366,61 @@ pub fn draw_spread<DB: DrawingBackend>(
         chart
             .draw_series(std::iter::once(Text::new(
                 span,
-                (0.5 * (lo + hi), 0.75 * y1),
+                (0.5 * (lo + hi), below_top(72.0)),
                 font(11.0)
                     .color(&MEMBER)
                     .pos(Pos::new(HPos::Center, VPos::Bottom)),
             )))
             .map_err(err)?;
-        let mut sorted = members.clone();
-        sorted.sort_by(|a, b| a.1.total_cmp(&b.1));
-        for (k, (name, v)) in sorted.iter().enumerate() {
+        let mut members = members.clone();
+        members.sort_by(|a, b| a.1.total_cmp(&b.1));
+        let names: Vec<String> = members
+            .iter()
+            .map(|m| m.0.chars().take(40).collect())
+            .collect();
+        let (plot_x, _) = chart.plotting_area().get_pixel_range();
+        let centres: Vec<f64> = members
+            .iter()
+            .map(|m| f64::from(chart.backend_coord(&(m.1, 0.0)).0))
+            .collect();
+        let widths: Vec<f64> = names
+            .iter()
+            .map(|n| text_width_px(n, 10.0 * scale))
+            .collect();
+        let placed = pack_labels(
+            &centres,
+            &widths,
+            3,
+            6.0 * scale,
+            f64::from(plot_x.start),
+            f64::from(plot_x.end),
+        );
+        for (((_, v), text), (centre, spot)) in
+            members.iter().zip(names).zip(centres.iter().zip(&placed))
+        {
             chart
                 .draw_series(std::iter::once(PathElement::new(
-                    vec![(*v, 0.615 * y1), (*v, 0.655 * y1)],
+                    vec![(*v, below_top(121.0)), (*v, below_top(113.0))],
                     MEMBER.stroke_width(px(2.0)),
                 )))
                 .map_err(err)?;
-            // Names alternate between two heights so neighbours stay readable.
-            let name: String = name.chars().take(24).collect();
-            chart
-                .draw_series(std::iter::once(Text::new(
-                    name,
-                    (*v, (0.665 + 0.04 * (k % 2) as f64) * y1),
-                    font(10.0)
-                        .color(&MEMBER)
-                        .pos(Pos::new(HPos::Center, VPos::Bottom)),
-                )))
-                .map_err(err)?;
+            // A name that fits on no row is left out: its tick stays, and the report and the
+            // CSV list every regression's value. A name slid in from the plot's edge is
+            // drawn off its tick by as much.
+            if let Some((row, c)) = *spot {
+                chart
+                    .draw_series(std::iter::once(
+                        EmptyElement::at((*v, below_top(110.0 - 12.0 * row as f64)))
+                            + Text::new(
+                                text,
+                                ((c - centre).round() as i32, 0),
+                                font(10.0)
+                                    .color(&MEMBER)
+                                    .pos(Pos::new(HPos::Center, VPos::Bottom)),
+                            ),
+                    ))
+                    .map_err(err)?;
+            }
         }
     }
 
@@ -379,7 +454,7 @@ pub fn draw_spread<DB: DrawingBackend>(
                 PERCENTILE.stroke_width(px(1.5)),
             ))
             .map_err(err)?;
-        let y = (0.96 - 0.05 * k as f64) * y1;
+        let y = below_top(10.0 + 14.0 * k as f64);
         chart
             .draw_series(std::iter::once(label_at(
                 v,
@@ -395,13 +470,13 @@ pub fn draw_spread<DB: DrawingBackend>(
     if b.is_finite() {
         chart
             .draw_series(std::iter::once(PathElement::new(
-                vec![(b, 0.0), (b, 0.81 * y1)],
+                vec![(b, 0.0), (b, below_top(54.0))],
                 BASE.stroke_width(px(2.0)),
             )))
             .map_err(err)?;
         chart
             .draw_series(std::iter::once(TriangleMarker::new(
-                (b, 0.81 * y1),
+                (b, below_top(54.0)),
                 px(6.0),
                 BASE.filled(),
             )))
@@ -410,7 +485,7 @@ pub fn draw_spread<DB: DrawingBackend>(
             .draw_series(std::iter::once(label_at(
                 b,
                 format!("base case {}", with_unit(q, sys, c.base)),
-                0.81 * y1,
+                below_top(54.0),
                 &BASE,
             )))
             .map_err(err)?;
@@ -472,7 +547,6 @@ pub fn draw_sensitivity<DB: DrawingBackend>(
         .flat_map(|b| [x(b.3), x(b.4)])
         .chain([base])
         .collect();
-    let (x0, x1) = padded_range(ends.iter().copied(), least_span(q, sys, ends.clone()), 0.25);
     let n = c.bars.len();
     let y1 = n.max(1) as f64;
     let labels: Vec<String> = c
@@ -482,6 +556,23 @@ pub fn draw_sensitivity<DB: DrawingBackend>(
         .collect();
     let longest = labels.iter().map(|l| l.chars().count()).max().unwrap_or(0);
     let label_area = (7.0 * longest as f64 + 18.0).clamp(40.0, 300.0);
+    // Room beyond the bars' ends for the end labels: the widest label (and its 4 px) as a
+    // share f of the plot's width; a margin m of the span on each side gives each side
+    // m / (1 + 2m) of the width, so m = f / (1 − 2f) (f held to 0.3).
+    let end_w = c
+        .bars
+        .iter()
+        .flat_map(|b| [b.1, b.2])
+        .map(|t| text_width_px(&t.chars().take(30).collect::<String>(), 11.0) + 6.0)
+        .fold(0.0, f64::max);
+    let plot_w = (f64::from(root.dim_in_pixel().0) / scale - label_area - 24.0).max(1.0);
+    let f = (end_w / plot_w).min(0.3);
+    let margin = (f / (1.0 - 2.0 * f)).max(0.05);
+    let (x0, x1) = padded_range(
+        ends.iter().copied(),
+        least_span(q, sys, ends.clone()),
+        margin,
+    );
     let title: String = c.title.chars().take(80).collect();
     let (h_px, foot_px) = (root.dim_in_pixel().1, px(26.0));
     let (main, foot) = root.split_vertically(h_px.saturating_sub(foot_px));
@@ -676,7 +767,7 @@ pub fn draw_report_spread<DB: DrawingBackend>(
     let members: Vec<(&str, f64)> = res
         .and_then(|x| x.spread.as_ref())
         .map_or_else(Vec::new, |s| {
-            s.members.iter().map(|m| (m.name, m.value)).collect()
+            s.members.iter().map(|m| (m.short, m.value)).collect()
         });
     let nan = f64::NAN;
     let c = SpreadChart {

@@ -871,6 +871,7 @@ impl RangesPlan {
                         Ok(v) => members.push(MemberDoc {
                             id: c.id(),
                             name: c.name(),
+                            short: c.short_name(),
                             value: v,
                         }),
                         Err(why) => skipped.push(ErrorDoc::plain(c.id(), why)),
@@ -1063,6 +1064,8 @@ pub struct RangedInputReport {
 pub struct MemberDoc {
     pub id: &'static str,
     pub name: &'static str,
+    /// The first author alone, for chart labels.
+    pub short: &'static str,
     pub value: f64,
 }
 

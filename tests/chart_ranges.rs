@@ -9,7 +9,7 @@
 //! pixels (the SVG backend writes integers) and the tick labels' own rounding.
 
 use hibernal::chart_ranges::{
-    draw_sensitivity, draw_spread, histogram, sensitivity_svg, spread_svg, Histogram,
+    draw_sensitivity, draw_spread, histogram, pack_labels, sensitivity_svg, spread_svg, Histogram,
     SensitivityChart, SpreadChart, LARGEST_DRAWN, MAX_BINS, MIN_BINS,
 };
 use hibernal::uncertainty::Pcg32;
@@ -803,5 +803,143 @@ fn extreme_values_draw_without_failing() {
                 assert!(check_xml(&svg).is_ok(), "{a:e} {b:e}");
             }
         }
+    }
+}
+
+#[test]
+fn labels_are_packed_on_rows_without_overlap_and_kept_inside() {
+    // Apart: all on the first row, where they were.
+    let p = pack_labels(&[100.0, 200.0, 300.0], &[50.0; 3], 3, 4.0, 0.0, 400.0);
+    assert_eq!(
+        p,
+        vec![Some((0, 100.0)), Some((0, 200.0)), Some((0, 300.0))]
+    );
+    // Four at one place on three rows: the first three stack, the fourth is left out.
+    let p = pack_labels(&[150.0; 4], &[60.0; 4], 3, 4.0, 0.0, 400.0);
+    assert_eq!(
+        p,
+        vec![Some((0, 150.0)), Some((1, 150.0)), Some((2, 150.0)), None]
+    );
+    // At the edges a label slides inwards; one wider than the space is left out; a
+    // label that is not finite is left out.
+    let p = pack_labels(
+        &[5.0, 398.0, 200.0, f64::NAN],
+        &[40.0, 40.0, 500.0, 10.0],
+        2,
+        4.0,
+        0.0,
+        400.0,
+    );
+    assert_eq!(p, vec![Some((0, 20.0)), Some((0, 380.0)), None, None]);
+    // Given in any order, placed left to right: the same layout.
+    let a = pack_labels(&[100.0, 120.0, 140.0], &[30.0; 3], 2, 2.0, 0.0, 400.0);
+    let b = pack_labels(&[140.0, 100.0, 120.0], &[30.0; 3], 2, 2.0, 0.0, 400.0);
+    assert_eq!((a[0], a[1], a[2]), (b[1], b[2], b[0]));
+    assert_eq!(
+        a,
+        vec![Some((0, 100.0)), Some((1, 120.0)), Some((0, 140.0))]
+    );
+}
+
+/// Estimated width of an SVG text at its font size (as the chart estimates it).
+fn est_width(t: &TextEl) -> f64 {
+    0.58 * t.num("font-size") * t.content.chars().count() as f64
+}
+
+#[test]
+fn crowded_regression_names_do_not_overlap_and_wide_end_labels_stay_in_the_chart() {
+    // Nine regressions within a few centimetres, as a real study gives them.
+    let names = [
+        "Sturm quad.",
+        "Sturm log.",
+        "Calonne",
+        "Yen",
+        "Jordan",
+        "Abels",
+        "Van Dusen",
+        "Devaux",
+        "Riche",
+    ];
+    let vals = [0.344, 0.36, 0.47, 0.49, 0.5, 0.51, 0.62, 0.63, 0.643];
+    let members: Vec<(&str, f64)> = names.iter().copied().zip(vals).collect();
+    let v = uniform(200, 0.2, 0.7, 9);
+    let svg = spread_svg(&spread(&v, &members), UnitSystem::Si, 480, 340).unwrap();
+    assert_well_formed(&svg);
+    let all = texts(&svg);
+    let shown: Vec<&TextEl> = all
+        .iter()
+        .filter(|t| names.contains(&t.content.as_str()))
+        .collect();
+    assert!(shown.len() >= 6, "most names fit: {}", shown.len());
+    for (i, a) in shown.iter().enumerate() {
+        for b in &shown[i + 1..] {
+            if (a.num("y") - b.num("y")).abs() < 1.0 {
+                let gap = (a.num("x") - b.num("x")).abs() - 0.5 * (est_width(a) + est_width(b));
+                assert!(
+                    gap >= 0.0,
+                    "{} and {} overlap by {}",
+                    a.content,
+                    b.content,
+                    -gap
+                );
+            }
+        }
+        assert!(a.num("x") - 0.5 * est_width(a) >= 0.0 && a.num("x") + 0.5 * est_width(a) <= 480.0);
+    }
+    // The rows from the top: P10, P50, P90, the base case, the span's label, the names,
+    // then the bars, each row clear of the next (SVG y grows downwards; a 10 to 12 px font
+    // needs about 10 px).
+    let y = |s: &str| {
+        all.iter()
+            .find(|t| t.content.starts_with(s))
+            .unwrap_or_else(|| panic!("{s}"))
+            .num("y")
+    };
+    let rows = [
+        y("P10"),
+        y("P50"),
+        y("P90"),
+        y("base case"),
+        y("Snow regressions"),
+    ];
+    assert!(rows.windows(2).all(|w| w[1] - w[0] >= 10.0), "{rows:?}");
+    let name_ys: Vec<f64> = shown.iter().map(|t| t.num("y")).collect();
+    let top_name = name_ys.iter().copied().fold(f64::INFINITY, f64::min);
+    let low_name = name_ys.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    assert!(top_name - rows[4] >= 10.0, "names below the span's label");
+    let bar_top = rects(&svg, HIST_FILL)
+        .iter()
+        .map(|r| r.1)
+        .fold(f64::INFINITY, f64::min);
+    assert!(
+        bar_top - low_name >= 8.0,
+        "bars below the names: {bar_top} vs {low_name}"
+    );
+    // A tornado whose widest bar reaches far: its end labels stay right of the input names
+    // and inside the chart's right edge.
+    let bars = [
+        ("Freezing index", "900 °C·days", "1400 °C·days", 0.17, 0.51),
+        ("Snow density", "150 kg/m³", "350 kg/m³", 0.27, 0.55),
+    ];
+    let c = SensitivityChart {
+        base: 0.344,
+        ..sens(&bars)
+    };
+    let svg = sensitivity_svg(&c, UnitSystem::Si, 480, 300).unwrap();
+    let all = texts(&svg);
+    let name_x = text(&all, "Freezing index").num("x");
+    for (_, lo, hi, ..) in bars {
+        let l = text(&all, lo);
+        assert_eq!(l.anchor(), "end");
+        assert!(
+            l.num("x") - est_width(l) >= name_x + 4.0,
+            "{lo} clear of the names"
+        );
+        let h = text(&all, hi);
+        assert_eq!(h.anchor(), "start");
+        assert!(
+            h.num("x") + est_width(h) <= 480.0 - 4.0,
+            "{hi} inside the chart"
+        );
     }
 }

@@ -87,6 +87,22 @@ impl SnowCorrelation {
         }
     }
 
+    /// The first author's name alone (and the form, for the two of Sturm et al. 1997), for
+    /// labels where the whole name does not fit; [`Self::name`] wherever there is room.
+    pub fn short_name(self) -> &'static str {
+        match self {
+            Self::Sturm1997Quadratic => "Sturm quad.",
+            Self::Sturm1997Logarithmic => "Sturm log.",
+            Self::Calonne2011 => "Calonne",
+            Self::Yen1981 => "Yen",
+            Self::Jordan1991 => "Jordan",
+            Self::Abels1893 => "Abels",
+            Self::VanDusen1929 => "Van Dusen",
+            Self::Devaux1933 => "Devaux",
+            Self::RicheSchneebeli2013 => "Riche",
+        }
+    }
+
     /// Where it was published.
     pub fn citation(self) -> &'static str {
         match self {
