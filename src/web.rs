@@ -353,6 +353,39 @@ struct DrawOutcome {
     message: Option<String>,
 }
 
+/// A canvas as plotters draws on it.
+type CanvasArea =
+    plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>;
+
+/// Draw `report` with `f` on a canvas at its current pixel size: `{ok: true}`, or
+/// `{ok: false, message}` when there is nothing to draw (`Err` carries why), the canvas has
+/// no 2D context, or the chart fails. Every chart of the page goes through here.
+fn draw_on<R>(
+    canvas: web_sys::HtmlCanvasElement,
+    report: Result<&R, &str>,
+    f: impl FnOnce(&CanvasArea, &R) -> Result<(), crate::chart::ChartError>,
+) -> JsValue {
+    let outcome = |message: Option<String>| {
+        to_js(&DrawOutcome {
+            ok: message.is_none(),
+            message,
+        })
+    };
+    let r = match report {
+        Ok(r) => r,
+        Err(why) => return outcome(Some(why.to_string())),
+    };
+    let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
+        return outcome(Some("the canvas has no 2D context".into()));
+    };
+    use plotters::prelude::IntoDrawingArea;
+    outcome(
+        f(&backend.into_drawing_area(), r)
+            .err()
+            .map(|e| e.to_string()),
+    )
+}
+
 /// Draw the temperature profile on a canvas at its current pixel size.
 #[wasm_bindgen]
 pub fn draw_profile(
@@ -361,36 +394,16 @@ pub fn draw_profile(
     unit_system: &str,
     pixel_ratio: f64,
 ) -> JsValue {
-    let fail = |m: String| {
-        to_js(&DrawOutcome {
-            ok: false,
-            message: Some(m),
-        })
-    };
     let sys = units(unit_system);
-    let (_, c) = match computed(scenario_value) {
-        Ok(v) => v,
-        Err(e) => {
-            return fail(
-                e.iter()
-                    .map(|e| format!("{}: {}", e.field, e.message))
-                    .collect::<Vec<_>>()
-                    .join("; "),
-            )
-        }
-    };
-    let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-        return fail("the canvas has no 2D context".into());
-    };
-    use plotters::prelude::IntoDrawingArea;
-    let root = backend.into_drawing_area();
-    match crate::chart::draw_profile(&root, &c, sys, pixel_ratio) {
-        Ok(()) => to_js(&DrawOutcome {
-            ok: true,
-            message: None,
-        }),
-        Err(e) => fail(e.to_string()),
-    }
+    let c = computed(scenario_value).map(|(_, c)| c).map_err(|e| {
+        e.iter()
+            .map(|e| format!("{}: {}", e.field, e.message))
+            .collect::<Vec<_>>()
+            .join("; ")
+    });
+    draw_on(canvas, c.as_ref().map_err(String::as_str), |root, c| {
+        crate::chart::draw_profile(root, c, sys, pixel_ratio)
+    })
 }
 
 /// The steady profile the chart draws, as CSV in the chosen units; empty when the scenario
@@ -753,30 +766,15 @@ impl WinterRun {
         &self,
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
-            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &CanvasArea,
             &crate::scenario_winter::WinterReport,
         ) -> Result<(), crate::chart::ChartError>,
     ) -> JsValue {
-        let fail = |m: String| {
-            to_js(&DrawOutcome {
-                ok: false,
-                message: Some(m),
-            })
-        };
-        let Some(w) = &self.report else {
-            return fail("the run has not finished".into());
-        };
-        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-            return fail("the canvas has no 2D context".into());
-        };
-        use plotters::prelude::IntoDrawingArea;
-        match f(&backend.into_drawing_area(), w) {
-            Ok(()) => to_js(&DrawOutcome {
-                ok: true,
-                message: None,
-            }),
-            Err(e) => fail(e.to_string()),
-        }
+        draw_on(
+            canvas,
+            self.report.as_ref().ok_or("the run has not finished"),
+            f,
+        )
     }
 }
 
@@ -966,30 +964,15 @@ impl EdgeRun {
         &self,
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
-            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &CanvasArea,
             &crate::scenario_edge::EdgeReport,
         ) -> Result<(), crate::chart::ChartError>,
     ) -> JsValue {
-        let fail = |m: String| {
-            to_js(&DrawOutcome {
-                ok: false,
-                message: Some(m),
-            })
-        };
-        let Some(r) = &self.report else {
-            return fail("the run has not finished".into());
-        };
-        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-            return fail("the canvas has no 2D context".into());
-        };
-        use plotters::prelude::IntoDrawingArea;
-        match f(&backend.into_drawing_area(), r) {
-            Ok(()) => to_js(&DrawOutcome {
-                ok: true,
-                message: None,
-            }),
-            Err(e) => fail(e.to_string()),
-        }
+        draw_on(
+            canvas,
+            self.report.as_ref().ok_or("the run has not finished"),
+            f,
+        )
     }
 }
 
@@ -1140,30 +1123,15 @@ impl ShelterRun {
         &self,
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
-            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &CanvasArea,
             &crate::scenario_shelter::ShelterReport,
         ) -> Result<(), crate::chart::ChartError>,
     ) -> JsValue {
-        let fail = |m: String| {
-            to_js(&DrawOutcome {
-                ok: false,
-                message: Some(m),
-            })
-        };
-        let Some(r) = &self.report else {
-            return fail("the shelter has no result".into());
-        };
-        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-            return fail("the canvas has no 2D context".into());
-        };
-        use plotters::prelude::IntoDrawingArea;
-        match f(&backend.into_drawing_area(), r) {
-            Ok(()) => to_js(&DrawOutcome {
-                ok: true,
-                message: None,
-            }),
-            Err(e) => fail(e.to_string()),
-        }
+        draw_on(
+            canvas,
+            self.report.as_ref().ok_or("the shelter has no result"),
+            f,
+        )
     }
 }
 
@@ -1422,30 +1390,15 @@ impl RangesStudy {
         &self,
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
-            &plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>,
+            &CanvasArea,
             &crate::scenario_ranges::RangesReport,
         ) -> Result<(), crate::chart::ChartError>,
     ) -> JsValue {
-        let fail = |m: String| {
-            to_js(&DrawOutcome {
-                ok: false,
-                message: Some(m),
-            })
-        };
-        let Some(r) = &self.report else {
-            return fail("the study has not finished".into());
-        };
-        let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-            return fail("the canvas has no 2D context".into());
-        };
-        use plotters::prelude::IntoDrawingArea;
-        match f(&backend.into_drawing_area(), r) {
-            Ok(()) => to_js(&DrawOutcome {
-                ok: true,
-                message: None,
-            }),
-            Err(e) => fail(e.to_string()),
-        }
+        draw_on(
+            canvas,
+            self.report.as_ref().ok_or("the study has not finished"),
+            f,
+        )
     }
 
     fn finish(&mut self) {
