@@ -54,10 +54,6 @@ ensure_lint_tools() {
   cargo clippy --version >/dev/null 2>&1 || rustup component add clippy >&2
 }
 
-ensure_wasm_opt() {
-  command -v wasm-opt >/dev/null || apt_install binaryen || log "wasm-opt unavailable; the page will be larger"
-}
-
 ensure_browser() {
   if ! command -v chromium >/dev/null || ! command -v chromedriver >/dev/null; then
     log "installing Chromium and ChromeDriver"
@@ -74,19 +70,25 @@ ensure_node_deps() {
 
 build_page() {
   ensure_rust
-  ensure_wasm_opt
   log "compiling the core to wasm"
   cargo build --release --target wasm32-unknown-unknown --lib >&2
   rm -rf "$TARGET_DIR/web"
   wasm-bindgen --target no-modules --no-typescript --remove-name-section --remove-producers-section \
     --out-dir "$TARGET_DIR/web" \
     "$TARGET_DIR/wasm32-unknown-unknown/release/hibernal.wasm" >&2
-  # binaryen before version 116 mis-encodes the reference types and externref table that
-  # this wasm-bindgen emits (Chromium then refuses the module), so older wasm-opt is skipped.
+  # A wasm-opt on the PATH shrinks the module if it is binaryen 116 or later; before that it
+  # mis-encodes the reference types and externref table that this wasm-bindgen emits
+  # (Chromium then refuses the module), so older ones are skipped. None is installed:
+  # Debian's is older, and binaryen 132 from npm at -O3 made the reference year no faster
+  # in Chromium (2026-12-03) while adding half a minute to every build. The features are
+  # the ones this Rust target and wasm-bindgen emit (all of them makes imports Chromium
+  # refuses).
   local wo_version
   wo_version=$(wasm-opt --version 2>/dev/null | awk '{print $3}' || true)
   if [ -n "$wo_version" ] && [ "$wo_version" -ge 116 ] 2>/dev/null; then
-    if wasm-opt -Oz --all-features "$TARGET_DIR/web/hibernal_bg.wasm" -o "$TARGET_DIR/web/hibernal_bg.opt.wasm"; then
+    if wasm-opt -Oz --enable-reference-types --enable-bulk-memory --enable-sign-ext \
+      --enable-mutable-globals --enable-nontrapping-float-to-int --enable-multivalue \
+      "$TARGET_DIR/web/hibernal_bg.wasm" -o "$TARGET_DIR/web/hibernal_bg.opt.wasm"; then
       mv "$TARGET_DIR/web/hibernal_bg.opt.wasm" "$TARGET_DIR/web/hibernal_bg.wasm"
     else
       log "wasm-opt could not optimise this module; using it as built"

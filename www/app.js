@@ -2786,7 +2786,7 @@
     { value: 'water-content', text: 'Soil water content', q: 'water_content', kind: 'soil' },
     { value: 'soil-conductivity-factor', text: 'Soil conductivity factor', q: 'fraction', kind: 'soil' },
     { value: 'insulation-derating', text: 'Insulation derating', q: 'percent', kind: 'insulation' },
-    { value: 'freezing-index', text: 'Freezing index of the winter', q: 'degree_days', kind: null },
+    { value: 'freezing-index', text: 'Freezing index', q: 'degree_days', kind: null },
   ];
   const rangedOf = (id) => RANGED.find((x) => x.value === id) || RANGED[0];
   const RANGE_RESULTS = [
@@ -2796,9 +2796,9 @@
     { value: 'shelter-interior', text: 'Shelter interior', has: (s) => !!s.shelter },
   ];
   const SPREADS = [
-    { value: 'uniform', text: 'Even' },
-    { value: 'triangular', text: 'Peaked at the most likely value' },
-    { value: 'normal', text: 'Bell-shaped (normal, cut at the ends)' },
+    { value: 'uniform', text: 'Even (uniform)' },
+    { value: 'triangular', text: 'Peaked (triangular)' },
+    { value: 'normal', text: 'Bell (normal, cut at the ends)' },
   ];
   const ranges = {
     gen: 0,
@@ -2864,7 +2864,7 @@
   }
 
   function layerChoices(kind) {
-    const out = [{ value: '', text: kind === null ? 'Every winter in the scenario' : 'Everywhere in the scenario' }];
+    const out = [{ value: '', text: kind === null ? 'Every winter' : 'Everywhere' }];
     if (kind === null) return out;
     state.scenario.layers.forEach((L, i) => {
       if (L.material && L.material.kind === kind) out.push({ value: String(i), text: 'Layer ' + (i + 1) + (L.name ? ': ' + L.name : '') });
