@@ -39,7 +39,7 @@ pub mod reference;
 pub mod run;
 
 use crate::materials::Material;
-use phase::Phase;
+use phase::{stretch_of, Phase, Pieces, VARYING_K};
 
 /// Why a transient run could not go on.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -163,15 +163,6 @@ pub const MAX_SNOW_CELLS: usize = 8;
 /// tool, so that the top flux stays continuous in the cell's state; no source).
 pub const SNOW_MELT_OUT_SHARE: f64 = 0.1;
 
-/// The tag [`Solver`] keeps for a cell whose k varies with its state (no stretch of
-/// constant k; see [`Phase::constant_k_stretch`]).
-const VARYING_K: u8 = u8::MAX;
-
-/// The stretch of constant k that enthalpy `h` lies on, or [`VARYING_K`].
-fn stretch_of(phase: &Phase, h: f64) -> u8 {
-    phase.constant_k_stretch(h).unwrap_or(VARYING_K)
-}
-
 /// The column and its state.
 #[derive(Debug, Clone)]
 pub struct Solver {
@@ -203,15 +194,27 @@ pub struct Solver {
     /// The snow the snow cells represent.
     pub snow: Option<SnowLayer>,
     // Scratch, preallocated: no allocation per step.
+    //
+    // What the solver keeps between passes and steps, and why it is exact. Every number
+    // below is a pure function of the cells and their state (enthalpy, or the step
+    // length); the solver keeps it while its inputs are unchanged and computes it again,
+    // or marks it, where they change, so the numbers it uses are bit for bit those a
+    // solver computing everything afresh would use (`clear_step_cache` forgets all of it,
+    // and a test compares the two; debug builds check the rows, faces, stretches and
+    // held k against fresh values at every pass).
     h_old: Vec<f64>,
     /// Half-cell resistances Δz/2k held through a step's passes, m²K/W.
     k: Vec<f64>,
-    /// The state the last converged step left, so the next step need not evaluate it
-    /// again: each cell's half-cell resistance and dT/dH (in `slope`) hold for the enthalpy
-    /// in `h_key` (NaN: not known). Exact: a cell whose enthalpy is unchanged has the same
-    /// k and dT/dH; anything that changes a cell otherwise (snow remapping) clears its key.
-    k_state: Vec<f64>,
+    /// The enthalpy each cell had when the last converged step ended (NaN: not known).
+    /// Where it still matches, the cell's k, `slope` and `stretch` are those of its state;
+    /// anything that changes a cell otherwise (snow remapping, a state set from outside)
+    /// leaves it unmatched, and the next step's start evaluates the cell afresh.
     h_key: Vec<f64>,
+    /// The half-cell resistance the settled check evaluated at the present state, for the
+    /// cells in `k_unsure`; a converged step hands it to `k` for the next step.
+    k_state: Vec<f64>,
+    /// Each cell's phase unpacked for the inner loop (see [`Pieces`]); follows `cells`.
+    pieces: Vec<Pieces>,
     /// The stretch of constant k ([`Phase::constant_k_stretch`], [`VARYING_K`] where k
     /// varies with the state) that each cell's present enthalpy lies on; set wherever the
     /// solver sets an enthalpy, and at a step's start for every cell whose `h_key` does not
@@ -220,16 +223,21 @@ pub struct Solver {
     /// The stretch of the state at which each cell's held `k` was taken. A cell whose
     /// `stretch` equals it (and is not [`VARYING_K`]) has the same k now, bit for bit.
     k_stretch: Vec<u8>,
+    /// Cells lo..hi (lo, hi) hold every cell whose k may differ from its held one: those
+    /// on no stretch of constant k, or on another stretch than the one their held k was
+    /// taken on. Only there does the settled check evaluate k, and only there can a
+    /// converged step's final state give a cell a new k for the next step.
+    k_unsure: (usize, usize),
     /// Face conductances 1/(r_above + r_below), W/m²K; face i is the top face of cell i.
     g: Vec<f64>,
+    /// dT/dH of each cell's present state, K per J/m³.
     slope: Vec<f64>,
-    /// The tridiagonal system of a Newton pass: below `rows_changed`, a row is the one
-    /// the present `cap`, `g` and `slope` give, and `lu` holds its factors.
+    /// The tridiagonal system of a Newton pass (sub-, main and super-diagonal). From row
+    /// `rows_changed` down, each row is the one the present `cap`, `g` and `slope` give,
+    /// and `lu` holds its factors.
     a: Vec<f64>,
     b: Vec<f64>,
     c: Vec<f64>,
-    r: Vec<f64>,
-    dp: Vec<f64>,
     /// Δz/Δt of each cell for the step length `cap_dt` (NaN: none yet).
     cap: Vec<f64>,
     cap_dt: f64,
@@ -288,17 +296,17 @@ impl Solver {
             snow: None,
             h_old: vec![0.0; n],
             k: vec![0.0; n],
-            k_state: vec![0.0; n],
             h_key: vec![f64::NAN; n],
+            k_state: vec![0.0; n],
+            pieces: Vec::new(),
             stretch: vec![VARYING_K; n],
             k_stretch: vec![VARYING_K; n],
+            k_unsure: (0, n),
             g: vec![0.0; n + 1],
             slope: vec![0.0; n],
             a: vec![0.0; n],
             b: vec![0.0; n],
             c: vec![0.0; n],
-            r: vec![0.0; n],
-            dp: vec![0.0; n],
             cap: vec![0.0; n],
             cap_dt: f64::NAN,
             lu: Tridiagonal::new(n),
@@ -307,6 +315,7 @@ impl Solver {
             bottom_row: false,
             linear_pieces: false,
         };
+        s.pieces = s.cells.iter().map(|c| Pieces::of(&c.phase)).collect();
         s.linear_pieces = s
             .cells
             .iter()
@@ -334,6 +343,7 @@ impl Solver {
         self.h_key.fill(f64::NAN);
         self.cap_dt = f64::NAN;
         self.stale = self.cells.len();
+        self.k_unsure = (0, self.cells.len());
         self.lu = Tridiagonal::new(self.cells.len());
     }
 
@@ -467,6 +477,7 @@ impl Solver {
                 let (cell, h) = make(j);
                 self.temperature[j] = cell.phase.temperature(h);
                 self.enthalpy[j] = h;
+                self.pieces[j] = Pieces::of(&cell.phase);
                 self.cells[j] = cell;
                 self.h_key[j] = f64::NAN;
             }
@@ -478,6 +489,8 @@ impl Solver {
                 .zip(&hs)
                 .map(|(c, &h)| c.phase.temperature(h))
                 .collect();
+            let pieces: Vec<Pieces> = cells.iter().map(|c| Pieces::of(&c.phase)).collect();
+            self.pieces.splice(0..ns_old, pieces);
             self.cells.splice(0..ns_old, cells);
             self.enthalpy.splice(0..ns_old, hs);
             self.temperature.splice(0..ns_old, ts);
@@ -489,8 +502,6 @@ impl Solver {
                 &mut self.a,
                 &mut self.b,
                 &mut self.c,
-                &mut self.r,
-                &mut self.dp,
                 &mut self.cap,
             ] {
                 v.resize(n, 0.0);
@@ -504,6 +515,7 @@ impl Solver {
             self.lu = Tridiagonal::new(n);
             // Every array shifted by the change in the number of snow cells.
             self.stale = n;
+            self.k_unsure = (0, n);
             self.snow_cells = ns_new;
         }
         self.snow = snow;
@@ -594,11 +606,13 @@ impl Solver {
     }
 
     /// Take every cell's half-cell resistance at the present state (a Picard update of k),
-    /// then the face conductances. A cell still on the stretch of constant k its held k was
-    /// taken on keeps it: evaluating it again would give the same bits.
+    /// then the face conductances. Only the cells in `k_unsure` can have a new k; every
+    /// other cell is still on the stretch of constant k its held k was taken on, and
+    /// evaluating it again would give the same bits.
     fn update_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition) {
+        let (lo, hi) = self.k_unsure;
         let mut changed = 0;
-        for i in 0..self.cells.len() {
+        for i in lo..hi {
             if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
                 continue;
             }
@@ -608,37 +622,42 @@ impl Solver {
                 changed = i + 1;
             }
         }
-        self.k_stretch.copy_from_slice(&self.stretch);
+        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
         self.face_conductances(top, bottom, changed);
     }
 
-    /// Half-cell resistances and dT/dH of every cell at the present state, taken from the
-    /// last converged step where a cell's enthalpy has not changed since; then the face
-    /// conductances.
+    /// At a step's start, the half-cell resistance, dT/dH and stretch of every cell whose
+    /// enthalpy is not the one the last converged step left (a snow cell remapped, a state
+    /// set from outside), then the face conductances. Every other cell keeps what the last
+    /// step left: its state is unchanged, and so are they.
     fn conductances_at_step_start(&mut self, top: &TopCondition, bottom: &BottomCondition) {
         let n = self.cells.len();
         // Cells 0..changed have a new k (or were changed from outside).
         let mut changed = self.stale.min(n);
         for i in 0..n {
-            let k = if self.h_key[i] == self.enthalpy[i] {
-                self.k_state[i]
-            } else {
-                let phase = &self.cells[i].phase;
-                let (h, t) = (self.enthalpy[i], self.temperature[i]);
-                let slope = phase.dt_dh(h, t);
-                if slope.to_bits() != self.slope[i].to_bits() {
-                    self.slope[i] = slope;
-                    self.rows_changed = self.rows_changed.max(i + 2);
-                }
-                self.stretch[i] = stretch_of(phase, h);
-                self.half_resistance(i)
-            };
+            if self.h_key[i] == self.enthalpy[i] {
+                continue;
+            }
+            let phase = &self.cells[i].phase;
+            let (h, t) = (self.enthalpy[i], self.temperature[i]);
+            let slope = phase.dt_dh(h, t);
+            if slope.to_bits() != self.slope[i].to_bits() {
+                self.slope[i] = slope;
+                self.rows_changed = self.rows_changed.max(i + 2);
+            }
+            let stretch = stretch_of(phase, h);
+            self.stretch[i] = stretch;
+            self.k_stretch[i] = stretch;
+            if stretch == VARYING_K {
+                let (lo, hi) = self.k_unsure;
+                self.k_unsure = (lo.min(i), hi.max(i + 1));
+            }
+            let k = self.half_resistance(i);
             if k.to_bits() != self.k[i].to_bits() {
                 self.k[i] = k;
                 changed = changed.max(i + 1);
             }
         }
-        self.k_stretch.copy_from_slice(&self.stretch);
         self.stale = 0;
         self.face_conductances(top, bottom, changed);
     }
@@ -681,9 +700,9 @@ impl Solver {
     /// changing phase changes its conductivity (ice conducts about four times better than
     /// water), so the step is not finished until k agrees with the state it produced.
     fn conductances_settled(&mut self, top: &TopCondition, bottom: &BottomCondition) -> bool {
-        let n = self.cells.len();
+        let (lo, hi) = self.k_unsure;
         let mut settled = true;
-        for i in 0..n {
+        for i in lo..hi {
             // Where k is one constant over a stretch of enthalpy and the cell has stayed on
             // it since k was taken, k is unchanged, bit for bit: no need to evaluate it.
             if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
@@ -701,6 +720,32 @@ impl Solver {
             self.update_conductances(top, bottom);
         }
         settled
+    }
+
+    /// End a converged step: book its energy with the conductances and temperatures it
+    /// was solved with, key the state, then take k at the final state for the next step
+    /// (the settled check left it in `k_state` for the cells in `k_unsure`; every other
+    /// cell's held k is already that of its state).
+    fn finish_step(
+        &mut self,
+        q_top: f64,
+        q_bot: f64,
+        dt: f64,
+        top: &TopCondition,
+        bottom: &BottomCondition,
+    ) {
+        self.book(q_top, q_bot, dt);
+        self.h_key.copy_from_slice(&self.enthalpy);
+        let (lo, hi) = self.k_unsure;
+        let mut changed = 0;
+        for i in lo..hi {
+            if self.k_state[i].to_bits() != self.k[i].to_bits() {
+                self.k[i] = self.k_state[i];
+                changed = i + 1;
+            }
+        }
+        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        self.face_conductances(top, bottom, changed);
     }
 
     /// Half-cell resistance Δz/2k of cell i at its current state, m²K/W.
@@ -831,60 +876,12 @@ impl Solver {
         // conserved exactly, and a pass in which no cell changes regime is exact.
         self.conductances_at_step_start(top, bottom);
         for iter in 0..=self.tolerances.max_iterations {
-            let (q_top, q_bot) = self.fluxes(top, bottom);
-            // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
-            // |R_i| Δt/Δz (J/m³).
-            let mut worst: f64 = 0.0;
-            {
-                // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
-                let (t, h, h_old) = (
-                    &self.temperature[..n],
-                    &self.enthalpy[..n],
-                    &self.h_old[..n],
-                );
-                let (g, cap, r) = (&self.g[..n + 1], &self.cap[..n], &mut self.r[..n]);
-                // Downward flux through the face above cell i, then below it: inflow from
-                // above g_i (T_{i−1} − T_i) and from below g_{i+1} (T_{i+1} − T_i) are
-                // f_above and −f_below, each face's flux computed once.
-                let mut f_above = q_top;
-                for i in 0..n {
-                    let f_below = if i + 1 < n {
-                        g[i + 1] * (t[i] - t[i + 1])
-                    } else {
-                        -q_bot
-                    };
-                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
-                    f_above = f_below;
-                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
-                    if res.abs() > tol * cap[i] {
-                        worst = worst.max(res.abs() / cap[i]);
-                    }
-                    if !res.is_finite() {
-                        worst = f64::INFINITY;
-                    }
-                    r[i] = -res;
-                }
-            }
-            if !worst.is_finite() {
-                break;
-            }
-            last_residual = worst;
-            if worst <= tol {
-                if !self.conductances_settled(top, bottom) {
-                    // New conductances: measure the residual again before solving.
-                    continue;
-                }
-                // Book the energy with the conductances and temperatures of this state.
-                self.book(q_top, q_bot, dt);
-                self.h_key.copy_from_slice(&self.enthalpy);
-                return Ok(iter.max(1));
-            }
-            if iter == self.tolerances.max_iterations {
-                break;
-            }
             // Newton: J δH = −R, with T linearised about the iterate (`slope` holds dT/dH
             // of the present state: set at the step's start, then by each update below).
-            // Only the rows that may have changed since the last pass are built.
+            // The system is built and factorised first (only the rows that may have
+            // changed since the last pass), so that the residual, computed from the
+            // bottom row up, feeds the solve's upward sweep as it goes.
+            let (q_top, q_bot) = self.fluxes(top, bottom);
             let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
             let rows = self.rows_changed.clamp(1, n);
             {
@@ -911,43 +908,110 @@ impl Solver {
             self.b[0] += (-dq_dt - self.g[0]) * self.slope[0] - dq_dh;
             #[cfg(debug_assertions)]
             self.check_kept_rows(rows, g_bottom_row);
-            self.lu
-                .solve(&self.a, &self.b, &self.c, &self.r, &mut self.dp, rows);
+            self.lu.factor(&self.a, &self.b, &self.c, rows);
             self.rows_changed = 0;
+            // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
+            // |R_i| Δt/Δz (J/m³). −R_i is the right-hand side of row i: the loop runs from
+            // the bottom row up and makes the solve's upward sweep with it, y_i =
+            // (−R_i − c_i y_{i+1}) / d_i.
+            let mut worst: f64 = 0.0;
+            {
+                // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
+                let (t, h, h_old) = (
+                    &self.temperature[..n],
+                    &self.enthalpy[..n],
+                    &self.h_old[..n],
+                );
+                let (g, cap, c) = (&self.g[..n + 1], &self.cap[..n], &self.c[..n]);
+                let (y, inv) = (&mut self.lu.rp[..n], &self.lu.inv[..n]);
+                // Downward flux through the face below cell i, then above it: inflow from
+                // below g_{i+1} (T_{i+1} − T_i) and from above g_i (T_{i−1} − T_i) are
+                // −f_below and f_above, each face's flux computed once.
+                let mut f_below = -q_bot;
+                let mut y_below = 0.0;
+                for i in (0..n).rev() {
+                    let f_above = if i > 0 {
+                        g[i] * (t[i - 1] - t[i])
+                    } else {
+                        q_top
+                    };
+                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
+                    f_below = f_above;
+                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
+                    if res.abs() > tol * cap[i] {
+                        worst = worst.max(res.abs() / cap[i]);
+                    }
+                    if !res.is_finite() {
+                        worst = f64::INFINITY;
+                    }
+                    y_below = if i + 1 < n {
+                        (-res - c[i] * y_below) * inv[i]
+                    } else {
+                        -res * inv[i]
+                    };
+                    y[i] = y_below;
+                }
+            }
+            if !worst.is_finite() {
+                break;
+            }
+            last_residual = worst;
+            if worst <= tol {
+                if !self.conductances_settled(top, bottom) {
+                    // New conductances: measure the residual again before solving.
+                    continue;
+                }
+                self.finish_step(q_top, q_bot, dt, top, bottom);
+                return Ok(iter.max(1));
+            }
+            if iter == self.tolerances.max_iterations {
+                break;
+            }
             // Where T(H) has a kink (the edge of an unfrozen-water curve) a full Newton step
             // can cycle between two states; after a few passes, damp the step to break it.
             let damping = if iter < 12 { 1.0 } else { 0.5 };
             let mut same_regime = damping == 1.0;
+            // The solve's downward sweep gives δH cell by cell, x_i = y_i − (a_i/d_i) x_{i−1}:
+            // update the enthalpy, T, dT/dH and stretch; mark the rows whose slope changed
+            // and the cells whose k may now differ from the held one.
             let mut slopes_changed = 0;
+            let (mut lo, mut hi) = (n, 0);
             {
-                let (cells, dp) = (&self.cells[..n], &self.dp[..n]);
-                let (h, t, sl, st) = (
+                let (cells, pieces) = (&self.cells[..n], &self.pieces[..n]);
+                let (y, ap) = (&self.lu.rp[..n], &self.lu.ap[..n]);
+                let (h, t, sl, st, k_st) = (
                     &mut self.enthalpy[..n],
                     &mut self.temperature[..n],
                     &mut self.slope[..n],
                     &mut self.stretch[..n],
+                    &self.k_stretch[..n],
                 );
+                let mut dh = 0.0;
                 for i in 0..n {
-                    let phase = &cells[i].phase;
-                    h[i] += damping * dp[i];
-                    t[i] = phase.temperature(h[i]);
-                    let slope = phase.dt_dh(h[i], t[i]);
+                    dh = if i > 0 { y[i] - ap[i] * dh } else { y[0] };
+                    h[i] += damping * dh;
+                    let (ti, slope, stretch) = pieces[i].state(&cells[i].phase, h[i]);
+                    t[i] = ti;
                     same_regime &= slope == sl[i];
                     if slope.to_bits() != sl[i].to_bits() {
                         slopes_changed = i + 2;
                     }
                     sl[i] = slope;
-                    st[i] = stretch_of(phase, h[i]);
+                    st[i] = stretch;
+                    if stretch == VARYING_K || stretch != k_st[i] {
+                        lo = lo.min(i);
+                        hi = i + 1;
+                    }
                 }
             }
             self.rows_changed = slopes_changed;
+            self.k_unsure = (lo.min(hi), hi);
             same_regime &= self.top_flux(top).3 == top_piece;
             // With conductances held, every cell's T(H) and the top flux on the same linear
             // piece, the Newton step solved the step's equations exactly (to round-off).
             if same_regime && self.linear_pieces && self.conductances_settled(top, bottom) {
                 let (q_top, q_bot) = self.fluxes(top, bottom);
-                self.book(q_top, q_bot, dt);
-                self.h_key.copy_from_slice(&self.enthalpy);
+                self.finish_step(q_top, q_bot, dt, top, bottom);
                 return Ok(iter + 1);
             }
         }
@@ -993,13 +1057,24 @@ impl Solver {
             let face = 1.0 / (k[0] + k[1]);
             assert_eq!(face.to_bits(), g[i + 1].to_bits(), "kept face {}", i + 1);
         }
+        let (lo, hi) = self.k_unsure;
         for i in 0..n {
             let p = &self.cells[i].phase;
+            assert_eq!(self.pieces[i], Pieces::of(p), "pieces {i}");
             assert_eq!(
                 self.stretch[i],
                 stretch_of(p, self.enthalpy[i]),
                 "stretch {i}"
             );
+            if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
+                assert_eq!(
+                    self.k[i].to_bits(),
+                    self.half_resistance(i).to_bits(),
+                    "held k of cell {i}"
+                );
+            } else {
+                assert!(lo <= i && i < hi, "cell {i} outside {lo}..{hi}");
+            }
             assert_eq!(
                 self.cap[i].to_bits(),
                 (self.cells[i].dz_m * (1.0 / self.cap_dt)).to_bits(),
@@ -1053,14 +1128,15 @@ impl Solver {
 /// Tridiagonal solver (Thomas algorithm) that eliminates from the bottom row up and keeps
 /// its factorisation. Row i's factors depend only on rows i..n, so when a new matrix
 /// differs from the last only in its upper rows (the freezing front and the surface, while
-/// the deep ground is unchanged), only those rows are factorised again; the sweep of the
-/// right-hand side then needs no division. Diagonally dominant here (Δz/Δt on the
-/// diagonal), so no pivoting is needed.
+/// the deep ground is unchanged), only those rows are factorised again (the caller says
+/// which); the sweeps of the right-hand side then need no division. Diagonally dominant
+/// here (Δz/Δt on the diagonal), so no pivoting is needed.
 #[derive(Debug, Clone)]
 struct Tridiagonal {
     /// a_i / d_i and 1 / d_i, d_i the pivot of row i.
     ap: Vec<f64>,
     inv: Vec<f64>,
+    /// The upward sweep's y_i = (r_i − c_i y_{i+1}) / d_i, for the downward sweep.
     rp: Vec<f64>,
     valid: bool,
 }
@@ -1075,35 +1151,41 @@ impl Tridiagonal {
         }
     }
 
-    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`, where only rows 0..rows of a, b
-    /// and c may differ from the last call (every row is factorised on the first call).
-    /// Factorising an unchanged row again would give the same bits, so the answer is the
-    /// same as a solve from scratch.
-    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64], rows: usize) {
-        let n = b.len();
-        let (a, c) = (&a[..n], &c[..n]);
+    /// Factorise the matrix with rows a x_{i−1} + b x_i + c x_{i+1}, where only rows
+    /// 0..rows may differ from the last call (every row is factorised on the first call).
+    /// Factorising an unchanged row again would give the same bits, so the factors are
+    /// those of a factorisation from scratch.
+    fn factor(&mut self, a: &[f64], b: &[f64], c: &[f64], rows: usize) {
+        let n = self.ap.len();
+        let (a, b, c) = (&a[..n], &b[..n], &c[..n]);
         let rows = if self.valid { rows.min(n) } else { n };
-        {
-            let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
-            // Factorise rows rows-1 .. 0 (bottom up).
-            for i in (0..rows).rev() {
-                let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
-                let d = 1.0 / (b[i] - below);
-                inv[i] = d;
-                ap[i] = a[i] * d;
-            }
+        let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
+        // Rows rows-1 .. 0, bottom up.
+        for i in (0..rows).rev() {
+            let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
+            let d = 1.0 / (b[i] - below);
+            inv[i] = d;
+            ap[i] = a[i] * d;
         }
         self.valid = true;
-        // Right-hand side, bottom up, then back-substitute top down.
-        let (rp, inv, ap) = (&mut self.rp[..n], &self.inv[..n], &self.ap[..n]);
-        let (r, x) = (&r[..n], &mut x[..n]);
-        rp[n - 1] = r[n - 1] * inv[n - 1];
+    }
+
+    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`, where only rows 0..rows may
+    /// differ from the last call.
+    /// (The solver's passes make the two sweeps below themselves, fused with the residual
+    /// and the update of the state.)
+    #[cfg(test)]
+    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64], rows: usize) {
+        self.factor(a, b, c, rows);
+        let n = self.rp.len();
+        let (y, inv, ap) = (&mut self.rp, &self.inv, &self.ap);
+        y[n - 1] = r[n - 1] * inv[n - 1];
         for i in (0..n - 1).rev() {
-            rp[i] = (r[i] - c[i] * rp[i + 1]) * inv[i];
+            y[i] = (r[i] - c[i] * y[i + 1]) * inv[i];
         }
-        x[0] = rp[0];
+        x[0] = y[0];
         for i in 1..n {
-            x[i] = rp[i] - ap[i] * x[i - 1];
+            x[i] = y[i] - ap[i] * x[i - 1];
         }
     }
 }
