@@ -39,7 +39,7 @@ pub mod reference;
 pub mod run;
 
 use crate::materials::Material;
-use phase::Phase;
+use phase::{stretch_of, Phase, Pieces, VARYING_K};
 
 /// Why a transient run could not go on.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -194,27 +194,70 @@ pub struct Solver {
     /// The snow the snow cells represent.
     pub snow: Option<SnowLayer>,
     // Scratch, preallocated: no allocation per step.
+    //
+    // What the solver keeps between passes and steps, and why it is exact. Every number
+    // below is a pure function of the cells and their state (enthalpy, or the step
+    // length); the solver keeps it while its inputs are unchanged and computes it again,
+    // or marks it, where they change, so the numbers it uses are bit for bit those a
+    // solver computing everything afresh would use (`clear_step_cache` forgets all of it,
+    // and a test compares the two; debug builds check the rows, faces, stretches and
+    // held k against fresh values at every pass).
     h_old: Vec<f64>,
-    /// Half-cell resistances Δz/2k, m²K/W.
+    /// Half-cell resistances Δz/2k held through a step's passes, m²K/W.
     k: Vec<f64>,
-    /// The state the last converged step left, so the next step need not evaluate it
-    /// again: each cell's half-cell resistance and dT/dH (in `slope`) hold for the enthalpy
-    /// in `h_key` (NaN: not known). Exact: a cell whose enthalpy is unchanged has the same
-    /// k and dT/dH; anything that changes a cell otherwise (snow remapping) clears its key.
-    k_state: Vec<f64>,
+    /// The enthalpy each cell had when the last converged step ended (NaN: not known).
+    /// Where it still matches, the cell's k, `slope` and `stretch` are those of its state;
+    /// anything that changes a cell otherwise (snow remapping, a state set from outside)
+    /// leaves it unmatched, and the next step's start evaluates the cell afresh.
     h_key: Vec<f64>,
-    /// The enthalpy each cell had when its held half-cell resistance `k` was taken.
-    h_k: Vec<f64>,
+    /// The half-cell resistance the settled check evaluated at the present state, for the
+    /// cells in `k_unsure`; a converged step hands it to `k` for the next step.
+    k_state: Vec<f64>,
+    /// Each cell's phase unpacked for the inner loop (see [`Pieces`]); follows `cells`.
+    pieces: Vec<Pieces>,
+    /// The stretch of constant k ([`Phase::constant_k_stretch`], [`VARYING_K`] where k
+    /// varies with the state) that each cell's present enthalpy lies on; set wherever the
+    /// solver sets an enthalpy, and at a step's start for every cell whose `h_key` does not
+    /// match.
+    stretch: Vec<u8>,
+    /// The stretch of the state at which each cell's held `k` was taken. A cell whose
+    /// `stretch` equals it (and is not [`VARYING_K`]) has the same k now, bit for bit.
+    k_stretch: Vec<u8>,
+    /// Cells lo..hi (lo, hi) hold every cell whose k may differ from its held one: those
+    /// on no stretch of constant k, or on another stretch than the one their held k was
+    /// taken on. Only there does the settled check evaluate k, and only there can a
+    /// converged step's final state give a cell a new k for the next step.
+    k_unsure: (usize, usize),
+    /// Face conductances 1/(r_above + r_below), W/m²K; face i is the top face of cell i.
     g: Vec<f64>,
+    /// dT/dH of each cell's present state, K per J/m³.
     slope: Vec<f64>,
+    /// The tridiagonal system of a Newton pass (sub-, main and super-diagonal). From row
+    /// `rows_changed` down, each row is the one the present `cap`, `g` and `slope` give,
+    /// and `lu` holds its factors.
     a: Vec<f64>,
     b: Vec<f64>,
     c: Vec<f64>,
-    r: Vec<f64>,
-    dp: Vec<f64>,
-    /// Δz/Δt of each cell for the current step.
+    /// Δz/Δt of each cell for the step length `cap_dt` (NaN: none yet).
     cap: Vec<f64>,
+    cap_dt: f64,
     lu: Tridiagonal,
+    /// Rows of the system that may differ from those last built and factorised are the
+    /// rows 0..rows_changed. Every change of a cell's Δz/Δt, face conductance or dT/dH
+    /// moves this bound below the rows it enters (row i holds cap_i, g_i, g_{i+1} and
+    /// the slopes of cells i − 1 to i + 1), so the rows below it need not be built or
+    /// factorised again: they, and their factors, are bit for bit what building them
+    /// again would give. The deep ground, whose cells stay on one linear piece of T(H)
+    /// and one constant k, then costs nothing here; only the rows down to the freezing
+    /// front and the snow are rebuilt.
+    rows_changed: usize,
+    /// The cells 0..stale were changed from outside the passes (snow remapping, a change
+    /// in the number of cells, a cleared cache): their Δz/Δt and faces are computed afresh
+    /// at the next step's start.
+    stale: usize,
+    /// Whether the bottom row of the last system built carries the bottom face's
+    /// conductance (a held bottom temperature).
+    bottom_row: bool,
     /// Whether every cell's T(H) is piecewise linear (no unfrozen-water curve), so a pass
     /// that keeps every cell on its piece is exact.
     linear_pieces: bool,
@@ -253,20 +296,26 @@ impl Solver {
             snow: None,
             h_old: vec![0.0; n],
             k: vec![0.0; n],
-            k_state: vec![0.0; n],
             h_key: vec![f64::NAN; n],
-            h_k: vec![0.0; n],
+            k_state: vec![0.0; n],
+            pieces: Vec::new(),
+            stretch: vec![VARYING_K; n],
+            k_stretch: vec![VARYING_K; n],
+            k_unsure: (0, n),
             g: vec![0.0; n + 1],
             slope: vec![0.0; n],
             a: vec![0.0; n],
             b: vec![0.0; n],
             c: vec![0.0; n],
-            r: vec![0.0; n],
-            dp: vec![0.0; n],
             cap: vec![0.0; n],
+            cap_dt: f64::NAN,
             lu: Tridiagonal::new(n),
+            rows_changed: n,
+            stale: n,
+            bottom_row: false,
             linear_pieces: false,
         };
+        s.pieces = s.cells.iter().map(|c| Pieces::of(&c.phase)).collect();
         s.linear_pieces = s
             .cells
             .iter()
@@ -286,11 +335,16 @@ impl Solver {
         self.restart_ledger();
     }
 
-    /// Forget the state kept from the last converged step (each cell's k and dT/dH), so the
-    /// next step evaluates every cell afresh. The kept state is exact, so this changes no
-    /// number; a test uses it to show that.
+    /// Forget the state kept from the last converged step (each cell's k and dT/dH, the
+    /// face conductances, Δz/Δt, the rows of the system and their factors), so the next
+    /// step evaluates and factorises everything afresh. The kept state is exact, so this
+    /// changes no number; a test uses it to show that.
     pub fn clear_step_cache(&mut self) {
         self.h_key.fill(f64::NAN);
+        self.cap_dt = f64::NAN;
+        self.stale = self.cells.len();
+        self.k_unsure = (0, self.cells.len());
+        self.lu = Tridiagonal::new(self.cells.len());
     }
 
     /// Start the energy ledger afresh from the present state.
@@ -423,9 +477,11 @@ impl Solver {
                 let (cell, h) = make(j);
                 self.temperature[j] = cell.phase.temperature(h);
                 self.enthalpy[j] = h;
+                self.pieces[j] = Pieces::of(&cell.phase);
                 self.cells[j] = cell;
                 self.h_key[j] = f64::NAN;
             }
+            self.stale = self.stale.max(ns_new);
         } else {
             let (cells, hs): (Vec<Cell>, Vec<f64>) = (0..ns_new).map(make).unzip();
             let ts: Vec<f64> = cells
@@ -433,6 +489,8 @@ impl Solver {
                 .zip(&hs)
                 .map(|(c, &h)| c.phase.temperature(h))
                 .collect();
+            let pieces: Vec<Pieces> = cells.iter().map(|c| Pieces::of(&c.phase)).collect();
+            self.pieces.splice(0..ns_old, pieces);
             self.cells.splice(0..ns_old, cells);
             self.enthalpy.splice(0..ns_old, hs);
             self.temperature.splice(0..ns_old, ts);
@@ -444,18 +502,20 @@ impl Solver {
                 &mut self.a,
                 &mut self.b,
                 &mut self.c,
-                &mut self.r,
-                &mut self.dp,
                 &mut self.cap,
             ] {
                 v.resize(n, 0.0);
             }
             self.g.resize(n + 1, 0.0);
             self.k_state.resize(n, 0.0);
-            self.h_k.resize(n, 0.0);
+            self.stretch.resize(n, VARYING_K);
+            self.k_stretch.resize(n, VARYING_K);
             self.h_key.clear();
             self.h_key.resize(n, f64::NAN);
             self.lu = Tridiagonal::new(n);
+            // Every array shifted by the change in the number of snow cells.
+            self.stale = n;
+            self.k_unsure = (0, n);
             self.snow_cells = ns_new;
         }
         self.snow = snow;
@@ -545,36 +605,69 @@ impl Solver {
         }
     }
 
+    /// Take every cell's half-cell resistance at the present state (a Picard update of k),
+    /// then the face conductances. Only the cells in `k_unsure` can have a new k; every
+    /// other cell is still on the stretch of constant k its held k was taken on, and
+    /// evaluating it again would give the same bits.
     fn update_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition) {
-        // Half-cell resistances Δz/2k, then face conductances 1/(r_above + r_below).
-        for i in 0..self.cells.len() {
-            self.k[i] = self.half_resistance(i);
-        }
-        self.h_k.copy_from_slice(&self.enthalpy);
-        self.face_conductances(top, bottom);
-    }
-
-    /// Half-cell resistances and dT/dH of every cell at the present state, taken from the
-    /// last converged step where a cell's enthalpy has not changed since; then the face
-    /// conductances.
-    fn conductances_at_step_start(&mut self, top: &TopCondition, bottom: &BottomCondition) {
-        for i in 0..self.cells.len() {
-            if self.h_key[i] == self.enthalpy[i] {
-                self.k[i] = self.k_state[i];
-            } else {
-                self.k[i] = self.half_resistance(i);
-                self.slope[i] = self.cells[i]
-                    .phase
-                    .dt_dh(self.enthalpy[i], self.temperature[i]);
+        let (lo, hi) = self.k_unsure;
+        let mut changed = 0;
+        for i in lo..hi {
+            if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
+                continue;
+            }
+            let half = self.half_resistance(i);
+            if half.to_bits() != self.k[i].to_bits() {
+                self.k[i] = half;
+                changed = i + 1;
             }
         }
-        self.h_k.copy_from_slice(&self.enthalpy);
-        self.face_conductances(top, bottom);
+        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        self.face_conductances(top, bottom, changed);
     }
 
-    fn face_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition) {
+    /// At a step's start, the half-cell resistance, dT/dH and stretch of every cell whose
+    /// enthalpy is not the one the last converged step left (a snow cell remapped, a state
+    /// set from outside), then the face conductances. Every other cell keeps what the last
+    /// step left: its state is unchanged, and so are they.
+    fn conductances_at_step_start(&mut self, top: &TopCondition, bottom: &BottomCondition) {
         let n = self.cells.len();
-        self.g[0] = match *top {
+        // Cells 0..changed have a new k (or were changed from outside).
+        let mut changed = self.stale.min(n);
+        for i in 0..n {
+            if self.h_key[i] == self.enthalpy[i] {
+                continue;
+            }
+            let phase = &self.cells[i].phase;
+            let (h, t) = (self.enthalpy[i], self.temperature[i]);
+            let slope = phase.dt_dh(h, t);
+            if slope.to_bits() != self.slope[i].to_bits() {
+                self.slope[i] = slope;
+                self.rows_changed = self.rows_changed.max(i + 2);
+            }
+            let stretch = stretch_of(phase, h);
+            self.stretch[i] = stretch;
+            self.k_stretch[i] = stretch;
+            if stretch == VARYING_K {
+                let (lo, hi) = self.k_unsure;
+                self.k_unsure = (lo.min(i), hi.max(i + 1));
+            }
+            let k = self.half_resistance(i);
+            if k.to_bits() != self.k[i].to_bits() {
+                self.k[i] = k;
+                changed = changed.max(i + 1);
+            }
+        }
+        self.stale = 0;
+        self.face_conductances(top, bottom, changed);
+    }
+
+    /// Face conductances: the top and bottom faces, and the faces of cells 0..changed (the
+    /// cells whose half-cell resistance may have changed; the other faces keep theirs,
+    /// which computing them again would give bit for bit).
+    fn face_conductances(&mut self, top: &TopCondition, bottom: &BottomCondition, changed: usize) {
+        let n = self.cells.len();
+        let top_g = match *top {
             TopCondition::Air {
                 film_w_m2k,
                 extra_resistance_m2k_w,
@@ -582,13 +675,24 @@ impl Solver {
             } => 1.0 / (1.0 / film_w_m2k + extra_resistance_m2k_w + self.k[0]),
             TopCondition::Surface { .. } => 1.0 / self.k[0],
         };
-        for i in 1..n {
-            self.g[i] = 1.0 / (self.k[i - 1] + self.k[i]);
+        self.set_face(0, top_g);
+        for i in 1..(changed + 1).min(n) {
+            self.set_face(i, 1.0 / (self.k[i - 1] + self.k[i]));
         }
-        self.g[n] = match bottom {
+        let bottom_g = match bottom {
             BottomCondition::Temperature { .. } => 1.0 / self.k[n - 1],
             BottomCondition::Flux { .. } => 0.0,
         };
+        self.set_face(n, bottom_g);
+    }
+
+    /// Set face i's conductance; where its bits change, the rows it enters (i − 1 and i)
+    /// must be built again.
+    fn set_face(&mut self, i: usize, g: f64) {
+        if g.to_bits() != self.g[i].to_bits() {
+            self.g[i] = g;
+            self.rows_changed = self.rows_changed.max(i + 1);
+        }
     }
 
     /// Whether the conductances held through the passes still match the current state to
@@ -596,17 +700,14 @@ impl Solver {
     /// changing phase changes its conductivity (ice conducts about four times better than
     /// water), so the step is not finished until k agrees with the state it produced.
     fn conductances_settled(&mut self, top: &TopCondition, bottom: &BottomCondition) -> bool {
-        let n = self.cells.len();
+        let (lo, hi) = self.k_unsure;
         let mut settled = true;
-        for i in 0..n {
+        for i in lo..hi {
             // Where k is one constant over a stretch of enthalpy and the cell has stayed on
             // it since k was taken, k is unchanged, bit for bit: no need to evaluate it.
-            let phase = &self.cells[i].phase;
-            if let Some(now) = phase.constant_k_stretch(self.enthalpy[i]) {
-                if phase.constant_k_stretch(self.h_k[i]) == Some(now) {
-                    self.k_state[i] = self.k[i];
-                    continue;
-                }
+            if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
+                self.k_state[i] = self.k[i];
+                continue;
             }
             let half = self.half_resistance(i);
             self.k_state[i] = half;
@@ -619,6 +720,32 @@ impl Solver {
             self.update_conductances(top, bottom);
         }
         settled
+    }
+
+    /// End a converged step: book its energy with the conductances and temperatures it
+    /// was solved with, key the state, then take k at the final state for the next step
+    /// (the settled check left it in `k_state` for the cells in `k_unsure`; every other
+    /// cell's held k is already that of its state).
+    fn finish_step(
+        &mut self,
+        q_top: f64,
+        q_bot: f64,
+        dt: f64,
+        top: &TopCondition,
+        bottom: &BottomCondition,
+    ) {
+        self.book(q_top, q_bot, dt);
+        self.h_key.copy_from_slice(&self.enthalpy);
+        let (lo, hi) = self.k_unsure;
+        let mut changed = 0;
+        for i in lo..hi {
+            if self.k_state[i].to_bits() != self.k[i].to_bits() {
+                self.k[i] = self.k_state[i];
+                changed = i + 1;
+            }
+        }
+        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        self.face_conductances(top, bottom, changed);
     }
 
     /// Half-cell resistance Δz/2k of cell i at its current state, m²K/W.
@@ -708,6 +835,28 @@ impl Solver {
         (q_top, q_bot)
     }
 
+    /// Δz/Δt of every cell for a step of `dt` (kept while the step length and the cells
+    /// stay the same), and whether the bottom row carries a face conductance; rows whose
+    /// inputs change are marked to be built again.
+    fn capacities(&mut self, dt: f64, bottom_row: bool) {
+        let n = self.cells.len();
+        let inv_dt = 1.0 / dt;
+        let fresh = if dt.to_bits() == self.cap_dt.to_bits() {
+            self.stale.min(n)
+        } else {
+            n
+        };
+        for i in 0..fresh {
+            self.cap[i] = self.cells[i].dz_m * inv_dt;
+        }
+        self.cap_dt = dt;
+        self.rows_changed = self.rows_changed.max(fresh);
+        if bottom_row != self.bottom_row {
+            self.bottom_row = bottom_row;
+            self.rows_changed = n;
+        }
+    }
+
     /// One implicit step of length `dt` from the current state; on failure the state is
     /// restored and the residual returned.
     fn try_step(
@@ -721,73 +870,24 @@ impl Solver {
         let tol = self.tolerances.enthalpy_j_m3;
         let g_bottom_row = matches!(bottom, BottomCondition::Temperature { .. });
         let mut last_residual = f64::INFINITY;
-        let inv_dt = 1.0 / dt;
-        for i in 0..n {
-            self.cap[i] = self.cells[i].dz_m * inv_dt;
-        }
+        self.capacities(dt, g_bottom_row);
         // Conductivities are taken at the start of the step (lagged by one step) and held
         // through its passes; the fluxes booked use the same conductances, so energy is still
         // conserved exactly, and a pass in which no cell changes regime is exact.
         self.conductances_at_step_start(top, bottom);
         for iter in 0..=self.tolerances.max_iterations {
-            let (q_top, q_bot) = self.fluxes(top, bottom);
-            // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
-            // |R_i| Δt/Δz (J/m³).
-            let mut worst: f64 = 0.0;
-            {
-                // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
-                let (t, h, h_old) = (
-                    &self.temperature[..n],
-                    &self.enthalpy[..n],
-                    &self.h_old[..n],
-                );
-                let (g, cap, r) = (&self.g[..n + 1], &self.cap[..n], &mut self.r[..n]);
-                // Downward flux through the face above cell i, then below it: inflow from
-                // above g_i (T_{i−1} − T_i) and from below g_{i+1} (T_{i+1} − T_i) are
-                // f_above and −f_below, each face's flux computed once.
-                let mut f_above = q_top;
-                for i in 0..n {
-                    let f_below = if i + 1 < n {
-                        g[i + 1] * (t[i] - t[i + 1])
-                    } else {
-                        -q_bot
-                    };
-                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
-                    f_above = f_below;
-                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
-                    if res.abs() > tol * cap[i] {
-                        worst = worst.max(res.abs() / cap[i]);
-                    }
-                    if !res.is_finite() {
-                        worst = f64::INFINITY;
-                    }
-                    r[i] = -res;
-                }
-            }
-            if !worst.is_finite() {
-                break;
-            }
-            last_residual = worst;
-            if worst <= tol {
-                if !self.conductances_settled(top, bottom) {
-                    // New conductances: measure the residual again before solving.
-                    continue;
-                }
-                // Book the energy with the conductances and temperatures of this state.
-                self.book(q_top, q_bot, dt);
-                self.h_key.copy_from_slice(&self.enthalpy);
-                return Ok(iter.max(1));
-            }
-            if iter == self.tolerances.max_iterations {
-                break;
-            }
             // Newton: J δH = −R, with T linearised about the iterate (`slope` holds dT/dH
             // of the present state: set at the step's start, then by each update below).
+            // The system is built and factorised first (only the rows that may have
+            // changed since the last pass), so that the residual, computed from the
+            // bottom row up, feeds the solve's upward sweep as it goes.
+            let (q_top, q_bot) = self.fluxes(top, bottom);
             let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
+            let rows = self.rows_changed.clamp(1, n);
             {
                 let (g, cap, slope) = (&self.g[..n + 1], &self.cap[..n], &self.slope[..n]);
                 let (a, b, c) = (&mut self.a[..n], &mut self.b[..n], &mut self.c[..n]);
-                for i in 0..n {
+                for i in 0..rows {
                     let g_up = g[i];
                     let g_dn = if i < n - 1 || g_bottom_row {
                         g[i + 1]
@@ -806,35 +906,112 @@ impl Solver {
             // The top row: the top flux's own derivatives (they differ from the face
             // conductance where the snow surface is held at 0 °C).
             self.b[0] += (-dq_dt - self.g[0]) * self.slope[0] - dq_dh;
-            self.lu
-                .solve(&self.a, &self.b, &self.c, &self.r, &mut self.dp);
+            #[cfg(debug_assertions)]
+            self.check_kept_rows(rows, g_bottom_row);
+            self.lu.factor(&self.a, &self.b, &self.c, rows);
+            self.rows_changed = 0;
+            // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
+            // |R_i| Δt/Δz (J/m³). −R_i is the right-hand side of row i: the loop runs from
+            // the bottom row up and makes the solve's upward sweep with it, y_i =
+            // (−R_i − c_i y_{i+1}) / d_i.
+            let mut worst: f64 = 0.0;
+            {
+                // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
+                let (t, h, h_old) = (
+                    &self.temperature[..n],
+                    &self.enthalpy[..n],
+                    &self.h_old[..n],
+                );
+                let (g, cap, c) = (&self.g[..n + 1], &self.cap[..n], &self.c[..n]);
+                let (y, inv) = (&mut self.lu.rp[..n], &self.lu.inv[..n]);
+                // Downward flux through the face below cell i, then above it: inflow from
+                // below g_{i+1} (T_{i+1} − T_i) and from above g_i (T_{i−1} − T_i) are
+                // −f_below and f_above, each face's flux computed once.
+                let mut f_below = -q_bot;
+                let mut y_below = 0.0;
+                for i in (0..n).rev() {
+                    let f_above = if i > 0 {
+                        g[i] * (t[i - 1] - t[i])
+                    } else {
+                        q_top
+                    };
+                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
+                    f_below = f_above;
+                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
+                    if res.abs() > tol * cap[i] {
+                        worst = worst.max(res.abs() / cap[i]);
+                    }
+                    if !res.is_finite() {
+                        worst = f64::INFINITY;
+                    }
+                    y_below = if i + 1 < n {
+                        (-res - c[i] * y_below) * inv[i]
+                    } else {
+                        -res * inv[i]
+                    };
+                    y[i] = y_below;
+                }
+            }
+            if !worst.is_finite() {
+                break;
+            }
+            last_residual = worst;
+            if worst <= tol {
+                if !self.conductances_settled(top, bottom) {
+                    // New conductances: measure the residual again before solving.
+                    continue;
+                }
+                self.finish_step(q_top, q_bot, dt, top, bottom);
+                return Ok(iter.max(1));
+            }
+            if iter == self.tolerances.max_iterations {
+                break;
+            }
             // Where T(H) has a kink (the edge of an unfrozen-water curve) a full Newton step
             // can cycle between two states; after a few passes, damp the step to break it.
             let damping = if iter < 12 { 1.0 } else { 0.5 };
             let mut same_regime = damping == 1.0;
+            // The solve's downward sweep gives δH cell by cell, x_i = y_i − (a_i/d_i) x_{i−1}:
+            // update the enthalpy, T, dT/dH and stretch; mark the rows whose slope changed
+            // and the cells whose k may now differ from the held one.
+            let mut slopes_changed = 0;
+            let (mut lo, mut hi) = (n, 0);
             {
-                let (cells, dp) = (&self.cells[..n], &self.dp[..n]);
-                let (h, t, sl) = (
+                let (cells, pieces) = (&self.cells[..n], &self.pieces[..n]);
+                let (y, ap) = (&self.lu.rp[..n], &self.lu.ap[..n]);
+                let (h, t, sl, st, k_st) = (
                     &mut self.enthalpy[..n],
                     &mut self.temperature[..n],
                     &mut self.slope[..n],
+                    &mut self.stretch[..n],
+                    &self.k_stretch[..n],
                 );
+                let mut dh = 0.0;
                 for i in 0..n {
-                    let phase = &cells[i].phase;
-                    h[i] += damping * dp[i];
-                    t[i] = phase.temperature(h[i]);
-                    let slope = phase.dt_dh(h[i], t[i]);
+                    dh = if i > 0 { y[i] - ap[i] * dh } else { y[0] };
+                    h[i] += damping * dh;
+                    let (ti, slope, stretch) = pieces[i].state(&cells[i].phase, h[i]);
+                    t[i] = ti;
                     same_regime &= slope == sl[i];
+                    if slope.to_bits() != sl[i].to_bits() {
+                        slopes_changed = i + 2;
+                    }
                     sl[i] = slope;
+                    st[i] = stretch;
+                    if stretch == VARYING_K || stretch != k_st[i] {
+                        lo = lo.min(i);
+                        hi = i + 1;
+                    }
                 }
             }
+            self.rows_changed = slopes_changed;
+            self.k_unsure = (lo.min(hi), hi);
             same_regime &= self.top_flux(top).3 == top_piece;
             // With conductances held, every cell's T(H) and the top flux on the same linear
             // piece, the Newton step solved the step's equations exactly (to round-off).
             if same_regime && self.linear_pieces && self.conductances_settled(top, bottom) {
                 let (q_top, q_bot) = self.fluxes(top, bottom);
-                self.book(q_top, q_bot, dt);
-                self.h_key.copy_from_slice(&self.enthalpy);
+                self.finish_step(q_top, q_bot, dt, top, bottom);
                 return Ok(iter + 1);
             }
         }
@@ -844,6 +1021,66 @@ impl Solver {
         }
         self.h_key.fill(f64::NAN);
         Err(last_residual)
+    }
+
+    /// Debug builds: check that the rows of the system below `rows` (those not built
+    /// again) are bit for bit what building them from the present Δz/Δt, conductances and
+    /// slopes gives, and that every kept face conductance and stretch agrees with the state.
+    #[cfg(debug_assertions)]
+    fn check_kept_rows(&self, rows: usize, g_bottom_row: bool) {
+        let n = self.cells.len();
+        let (g, slope) = (&self.g, &self.slope);
+        for i in rows.max(1)..n {
+            let g_dn = if i < n - 1 || g_bottom_row {
+                g[i + 1]
+            } else {
+                0.0
+            };
+            let b = self.cap[i] + (g[i] + g_dn) * slope[i];
+            let a = -g[i] * slope[i - 1];
+            let c = if i < n - 1 {
+                -g[i + 1] * slope[i + 1]
+            } else {
+                0.0
+            };
+            assert_eq!(
+                (a.to_bits(), b.to_bits(), c.to_bits()),
+                (
+                    self.a[i].to_bits(),
+                    self.b[i].to_bits(),
+                    self.c[i].to_bits()
+                ),
+                "kept row {i} of {n}"
+            );
+        }
+        for (i, k) in self.k.windows(2).enumerate() {
+            let face = 1.0 / (k[0] + k[1]);
+            assert_eq!(face.to_bits(), g[i + 1].to_bits(), "kept face {}", i + 1);
+        }
+        let (lo, hi) = self.k_unsure;
+        for i in 0..n {
+            let p = &self.cells[i].phase;
+            assert_eq!(self.pieces[i], Pieces::of(p), "pieces {i}");
+            assert_eq!(
+                self.stretch[i],
+                stretch_of(p, self.enthalpy[i]),
+                "stretch {i}"
+            );
+            if self.stretch[i] != VARYING_K && self.stretch[i] == self.k_stretch[i] {
+                assert_eq!(
+                    self.k[i].to_bits(),
+                    self.half_resistance(i).to_bits(),
+                    "held k of cell {i}"
+                );
+            } else {
+                assert!(lo <= i && i < hi, "cell {i} outside {lo}..{hi}");
+            }
+            assert_eq!(
+                self.cap[i].to_bits(),
+                (self.cells[i].dz_m * (1.0 / self.cap_dt)).to_bits(),
+                "cap {i}"
+            );
+        }
     }
 
     /// Advance by `dt` seconds with the conditions at the end of the step (implicit),
@@ -891,17 +1128,15 @@ impl Solver {
 /// Tridiagonal solver (Thomas algorithm) that eliminates from the bottom row up and keeps
 /// its factorisation. Row i's factors depend only on rows i..n, so when a new matrix
 /// differs from the last only in its upper rows (the freezing front and the surface, while
-/// the deep ground is unchanged), only those rows are factorised again; the sweep of the
-/// right-hand side then needs no division. Diagonally dominant here (Δz/Δt on the
-/// diagonal), so no pivoting is needed.
+/// the deep ground is unchanged), only those rows are factorised again (the caller says
+/// which); the sweeps of the right-hand side then need no division. Diagonally dominant
+/// here (Δz/Δt on the diagonal), so no pivoting is needed.
 #[derive(Debug, Clone)]
 struct Tridiagonal {
-    a: Vec<f64>,
-    b: Vec<f64>,
-    c: Vec<f64>,
     /// a_i / d_i and 1 / d_i, d_i the pivot of row i.
     ap: Vec<f64>,
     inv: Vec<f64>,
+    /// The upward sweep's y_i = (r_i − c_i y_{i+1}) / d_i, for the downward sweep.
     rp: Vec<f64>,
     valid: bool,
 }
@@ -909,9 +1144,6 @@ struct Tridiagonal {
 impl Tridiagonal {
     fn new(n: usize) -> Self {
         Tridiagonal {
-            a: vec![0.0; n],
-            b: vec![0.0; n],
-            c: vec![0.0; n],
             ap: vec![0.0; n],
             inv: vec![0.0; n],
             rp: vec![0.0; n],
@@ -919,44 +1151,41 @@ impl Tridiagonal {
         }
     }
 
-    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`.
-    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64]) {
-        let n = b.len();
-        let (a, c) = (&a[..n], &c[..n]);
-        {
-            let (sa, sb, sc) = (&mut self.a[..n], &mut self.b[..n], &mut self.c[..n]);
-            let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
-            // Lowest row (counting from the top) from which the cached factors still hold.
-            let mut keep = if self.valid { n } else { 0 };
-            while keep > 0 {
-                let i = keep - 1;
-                if a[i] != sa[i] || b[i] != sb[i] || c[i] != sc[i] {
-                    break;
-                }
-                keep -= 1;
-            }
-            // Factorise rows keep-1 .. 0 (bottom up).
-            for i in (0..keep.max(if self.valid { 0 } else { n })).rev() {
-                let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
-                let d = 1.0 / (b[i] - below);
-                inv[i] = d;
-                ap[i] = a[i] * d;
-                sa[i] = a[i];
-                sb[i] = b[i];
-                sc[i] = c[i];
-            }
+    /// Factorise the matrix with rows a x_{i−1} + b x_i + c x_{i+1}, where only rows
+    /// 0..rows may differ from the last call (every row is factorised on the first call).
+    /// Factorising an unchanged row again would give the same bits, so the factors are
+    /// those of a factorisation from scratch.
+    fn factor(&mut self, a: &[f64], b: &[f64], c: &[f64], rows: usize) {
+        let n = self.ap.len();
+        let (a, b, c) = (&a[..n], &b[..n], &c[..n]);
+        let rows = if self.valid { rows.min(n) } else { n };
+        let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
+        // Rows rows-1 .. 0, bottom up.
+        for i in (0..rows).rev() {
+            let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
+            let d = 1.0 / (b[i] - below);
+            inv[i] = d;
+            ap[i] = a[i] * d;
         }
         self.valid = true;
-        // Right-hand side, bottom up, then back-substitute top down.
-        let (rp, inv, ap) = (&mut self.rp[..n], &self.inv[..n], &self.ap[..n]);
-        let (r, x) = (&r[..n], &mut x[..n]);
-        rp[n - 1] = r[n - 1] * inv[n - 1];
+    }
+
+    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`, where only rows 0..rows may
+    /// differ from the last call.
+    /// (The solver's passes make the two sweeps below themselves, fused with the residual
+    /// and the update of the state.)
+    #[cfg(test)]
+    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64], rows: usize) {
+        self.factor(a, b, c, rows);
+        let n = self.rp.len();
+        let (y, inv, ap) = (&mut self.rp, &self.inv, &self.ap);
+        y[n - 1] = r[n - 1] * inv[n - 1];
         for i in (0..n - 1).rev() {
-            rp[i] = (r[i] - c[i] * rp[i + 1]) * inv[i];
+            y[i] = (r[i] - c[i] * y[i + 1]) * inv[i];
         }
-        x[0] = rp[0];
+        x[0] = y[0];
         for i in 1..n {
-            x[i] = rp[i] - ap[i] * x[i - 1];
+            x[i] = y[i] - ap[i] * x[i - 1];
         }
     }
 }
@@ -1015,18 +1244,23 @@ mod tests {
         a[0] = 0.0;
         let mut t = Tridiagonal::new(n);
         let mut x = vec![0.0; n];
-        t.solve(&a, &b, &c, &r, &mut x);
+        // The first call factorises every row, whatever it is told.
+        t.solve(&a, &b, &c, &r, &mut x, 0);
         assert!(residual(&a, &b, &c, &r, &x) < 1e-13);
-        // Change rows 3 and 7 only: the cached factors of rows 8.. are reused.
+        // Change rows 3 and 7 only: the kept factors of rows 8.. are reused, and the answer
+        // is bit for bit that of a solver factorising everything.
         let mut b2 = b.clone();
         b2[3] += 0.7;
         b2[7] -= 0.2;
-        t.solve(&a, &b2, &c, &r, &mut x);
+        t.solve(&a, &b2, &c, &r, &mut x, 8);
         assert!(residual(&a, &b2, &c, &r, &x) < 1e-13);
-        // A change in the last row forces a full refactorisation.
+        let mut scratch = vec![0.0; n];
+        Tridiagonal::new(n).solve(&a, &b2, &c, &r, &mut scratch, n);
+        assert_eq!(x, scratch);
+        // A change in the last row needs every row factorised again.
         let mut b3 = b2.clone();
         b3[n - 1] += 1.0;
-        t.solve(&a, &b3, &c, &r, &mut x);
+        t.solve(&a, &b3, &c, &r, &mut x, n);
         assert!(residual(&a, &b3, &c, &r, &x) < 1e-13);
     }
 }

@@ -16,7 +16,7 @@
 //! liquid share θ (the weighting of Johansen 1975's saturated conductivity; common practice).
 
 use crate::materials::ice;
-use crate::materials::{ConductivityLaw, Material};
+use crate::materials::{Branch, ConductivityLaw, Material};
 
 /// Width of the temperature bands over which a snow cell's heat capacity is held constant,
 /// K. See [`Phase::Snow`].
@@ -438,6 +438,140 @@ impl Phase {
     }
 }
 
+/// The tag the solver keeps for a state whose k varies with it (no stretch of constant k;
+/// see [`Phase::constant_k_stretch`]).
+pub(crate) const VARYING_K: u8 = u8::MAX;
+
+/// The stretch of constant k that enthalpy `h` lies on, or [`VARYING_K`].
+pub(crate) fn stretch_of(phase: &Phase, h: f64) -> u8 {
+    phase.constant_k_stretch(h).unwrap_or(VARYING_K)
+}
+
+/// A cell's phase unpacked for the solver's inner loop. For an inert cell and a cell that
+/// freezes at one temperature, T(H) is linear on each side of 0 and L, so T, dT/dH and the
+/// stretch of constant k follow from two comparisons and one division, with dT/dH and the
+/// stretch of each side worked out once here; any other phase is asked each time. Either
+/// way [`Pieces::state`] gives bit for bit what [`Phase::temperature`], [`Phase::dt_dh`]
+/// and [`Phase::constant_k_stretch`] give (a test checks it).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Pieces {
+    kind: PieceKind,
+    c_frozen: f64,
+    c_unfrozen: f64,
+    latent: f64,
+    /// 1/C on the frozen and the thawed side, K per J/m³.
+    slope_frozen: f64,
+    slope_unfrozen: f64,
+    /// The stretch tags of the frozen and the thawed side ([`VARYING_K`] where that
+    /// side's k depends on temperature).
+    stretch_frozen: u8,
+    stretch_unfrozen: u8,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum PieceKind {
+    Inert,
+    Isothermal,
+    /// Ask the phase.
+    Other,
+}
+
+impl Pieces {
+    pub(crate) fn of(phase: &Phase) -> Pieces {
+        let tag = |b: Branch, tag: u8| {
+            if matches!(b, Branch::Constant(_)) {
+                tag
+            } else {
+                VARYING_K
+            }
+        };
+        let (kind, c_frozen, c_unfrozen, latent, law) = match *phase {
+            Phase::Inert {
+                c_frozen,
+                c_unfrozen,
+                law,
+            } => (PieceKind::Inert, c_frozen, c_unfrozen, 0.0, Some(law)),
+            // With L > 0 the pieces below 0 and above L do not meet, as `state` assumes.
+            Phase::Isothermal {
+                c_frozen,
+                c_unfrozen,
+                latent,
+                law,
+            } if latent > 0.0 => (
+                PieceKind::Isothermal,
+                c_frozen,
+                c_unfrozen,
+                latent,
+                Some(law),
+            ),
+            _ => (PieceKind::Other, 1.0, 1.0, 0.0, None),
+        };
+        let (stretch_frozen, stretch_unfrozen) = law.map_or((VARYING_K, VARYING_K), |l| {
+            (tag(l.frozen, 0), tag(l.unfrozen, 1))
+        });
+        Pieces {
+            kind,
+            c_frozen,
+            c_unfrozen,
+            latent,
+            slope_frozen: 1.0 / c_frozen,
+            slope_unfrozen: 1.0 / c_unfrozen,
+            stretch_frozen,
+            stretch_unfrozen,
+        }
+    }
+
+    /// T(H) °C, dT/dH K per J/m³ and the stretch tag of enthalpy `h` in `phase`, the phase
+    /// these pieces were unpacked from.
+    #[inline]
+    pub(crate) fn state(&self, phase: &Phase, h: f64) -> (f64, f64, u8) {
+        match self.kind {
+            PieceKind::Inert => {
+                // As in `Phase::constant_k_stretch`: a |H| this small has no tag.
+                if h < 0.0 {
+                    let tag = if h > -1e-290 {
+                        VARYING_K
+                    } else {
+                        self.stretch_frozen
+                    };
+                    (h / self.c_frozen, self.slope_frozen, tag)
+                } else {
+                    let tag = if h < 1e-290 {
+                        VARYING_K
+                    } else {
+                        self.stretch_unfrozen
+                    };
+                    (h / self.c_unfrozen, self.slope_unfrozen, tag)
+                }
+            }
+            PieceKind::Isothermal => {
+                if h < 0.0 {
+                    (h / self.c_frozen, self.slope_frozen, self.stretch_frozen)
+                } else if h > self.latent {
+                    (
+                        (h - self.latent) / self.c_unfrozen,
+                        self.slope_unfrozen,
+                        self.stretch_unfrozen,
+                    )
+                } else {
+                    let tag = if h <= 0.0 {
+                        self.stretch_frozen
+                    } else if h >= self.latent {
+                        self.stretch_unfrozen
+                    } else {
+                        VARYING_K
+                    };
+                    (0.0, 0.0, tag)
+                }
+            }
+            PieceKind::Other => {
+                let t = phase.temperature(h);
+                (t, phase.dt_dh(h, t), stretch_of(phase, h))
+            }
+        }
+    }
+}
+
 /// Specific enthalpy of snow (its ice) at `t_c`, J/kg, referred to ice at 0 °C: banded
 /// ∫₀ᵀ c_ice dθ below 0 °C (see [`Phase::Snow`]), 0 at 0 °C (frozen), L_f + c_w T above.
 pub fn snow_specific_enthalpy(t_c: f64) -> f64 {
@@ -459,5 +593,102 @@ fn snow_temperature(h: f64) -> f64 {
         (h - ice::LATENT_HEAT_FUSION_J_PER_KG) / ice::WATER_SPECIFIC_HEAT_J_PER_KG_K
     } else {
         0.0
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The unpacked pieces give the phase's own T(H), dT/dH and stretch, bit for bit, for
+    /// every kind of phase, on both sides of and at 0 and L, at signed zeros, at the
+    /// smallest enthalpies (where an inert cell has no stretch), at a snow band edge and at
+    /// NaN. Invariant of this tool; no outside source.
+    #[test]
+    fn pieces_give_the_phases_own_bits() {
+        let law = ConductivityLaw {
+            frozen: Branch::Constant(2.1),
+            unfrozen: Branch::Constant(1.4),
+        };
+        let ice = ConductivityLaw {
+            frozen: Branch::IceIh,
+            unfrozen: Branch::Constant(0.56),
+        };
+        let air = ConductivityLaw::same(Branch::Linear {
+            k0: 0.024,
+            slope: 7e-5,
+        });
+        let curve = UnfrozenWater {
+            alpha: 0.05,
+            beta: -0.5,
+            total: 0.2,
+        };
+        let phases = [
+            Phase::Inert {
+                c_frozen: 1.9e6,
+                c_unfrozen: 2.0e6,
+                law,
+            },
+            Phase::Inert {
+                c_frozen: 1.2e3,
+                c_unfrozen: 1.2e3,
+                law: air,
+            },
+            Phase::Isothermal {
+                c_frozen: 1.9e6,
+                c_unfrozen: 2.8e6,
+                latent: 1.0e8,
+                law,
+            },
+            Phase::Isothermal {
+                c_frozen: 1.9e6,
+                c_unfrozen: 4.2e6,
+                latent: 3.0e8,
+                law: ice,
+            },
+            // Not a phase a material resolves to, but one the enum can hold.
+            Phase::Isothermal {
+                c_frozen: 1.9e6,
+                c_unfrozen: 2.8e6,
+                latent: -1.0e6,
+                law,
+            },
+            Phase::Range {
+                c_frozen: 1.9e6,
+                c_unfrozen: 2.8e6,
+                latent: 1.0e8,
+                law,
+                curve,
+            },
+            Phase::Snow {
+                density_kg_m3: 250.0,
+                conductivity: 0.2,
+            },
+        ];
+        let mut hs: Vec<f64> = (-300..=300).map(|i| i as f64 * 1.3e6 + 17.0).collect();
+        hs.extend([
+            0.0,
+            -0.0,
+            1e-300,
+            -1e-300,
+            1e-320,
+            -1e-320,
+            1.0e8,
+            3.0e8,
+            -1.0e6,
+            250.0 * snow_edge_enthalpy(1.0),
+            f64::NAN,
+        ]);
+        let bits = |(t, s, k): (f64, f64, u8)| (t.to_bits(), s.to_bits(), k);
+        for p in &phases {
+            let pieces = Pieces::of(p);
+            for &h in &hs {
+                let t = p.temperature(h);
+                let own = (t, p.dt_dh(h, t), stretch_of(p, h));
+                assert_eq!(bits(pieces.state(p, h)), bits(own), "{p:?} at H = {h:e}");
+            }
+        }
+        assert_eq!(Pieces::of(&phases[2]).kind, PieceKind::Isothermal);
+        assert_eq!(Pieces::of(&phases[4]).kind, PieceKind::Other);
     }
 }
