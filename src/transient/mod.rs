@@ -39,7 +39,7 @@ pub mod reference;
 pub mod run;
 
 use crate::materials::Material;
-use phase::{stretch_of, Phase, Pieces, VARYING_K};
+use phase::{stretch_of, Phase, Pieces, BETWEEN, VARYING_K};
 
 /// Why a transient run could not go on.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -215,6 +215,10 @@ pub struct Solver {
     k_state: Vec<f64>,
     /// Each cell's phase unpacked for the inner loop (see [`Pieces`]); follows `cells`.
     pieces: Vec<Pieces>,
+    /// The linear piece of T(H) each cell's `slope` and `stretch` were set for
+    /// ([`BETWEEN`]: none, or not known). A state found on the same piece again has the
+    /// same dT/dH and stretch, bit for bit, so the update need not compare them.
+    piece: Vec<u8>,
     /// The stretch of constant k ([`Phase::constant_k_stretch`], [`VARYING_K`] where k
     /// varies with the state) that each cell's present enthalpy lies on; set wherever the
     /// solver sets an enthalpy, and at a step's start for every cell whose `h_key` does not
@@ -299,6 +303,7 @@ impl Solver {
             h_key: vec![f64::NAN; n],
             k_state: vec![0.0; n],
             pieces: Vec::new(),
+            piece: vec![BETWEEN; n],
             stretch: vec![VARYING_K; n],
             k_stretch: vec![VARYING_K; n],
             k_unsure: (0, n),
@@ -478,6 +483,7 @@ impl Solver {
                 self.temperature[j] = cell.phase.temperature(h);
                 self.enthalpy[j] = h;
                 self.pieces[j] = Pieces::of(&cell.phase);
+                self.piece[j] = BETWEEN;
                 self.cells[j] = cell;
                 self.h_key[j] = f64::NAN;
             }
@@ -508,6 +514,8 @@ impl Solver {
             }
             self.g.resize(n + 1, 0.0);
             self.k_state.resize(n, 0.0);
+            self.piece.clear();
+            self.piece.resize(n, BETWEEN);
             self.stretch.resize(n, VARYING_K);
             self.k_stretch.resize(n, VARYING_K);
             self.h_key.clear();
@@ -558,13 +566,20 @@ impl Solver {
     pub fn fronts(&self) -> Fronts {
         let ground = self.ground();
         let freezes = |i: usize| self.cells[i].phase.freezes();
-        let Some(deepest) = ground
-            .clone()
-            .rev()
-            // A cell above 0 °C holds no ice in any phase model: test that first (cheap).
-            .find(|&i| self.temperature[i] <= 0.0 && freezes(i) && self.frozen_fraction(i) > 1e-9)
-        else {
-            return Fronts::default();
+        // A cell above 0 °C holds no ice in any phase model: look for cells at or below
+        // 0 °C first (a plain scan of the temperatures, from the bottom up).
+        let mut end = ground.end;
+        let deepest = loop {
+            let below_zero = self.temperature[ground.start..end]
+                .iter()
+                .rposition(|&t| t <= 0.0);
+            let Some(i) = below_zero.map(|j| ground.start + j) else {
+                return Fronts::default();
+            };
+            if freezes(i) && self.frozen_fraction(i) > 1e-9 {
+                break i;
+            }
+            end = i;
         };
         let c = &self.cells[deepest];
         let f = self.frozen_fraction(deepest).clamp(0.0, 1.0);
@@ -622,8 +637,27 @@ impl Solver {
                 changed = i + 1;
             }
         }
-        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        self.held_k_taken();
         self.face_conductances(top, bottom, changed);
+    }
+
+    /// Every cell in `k_unsure` has had its k taken at its present state: note the
+    /// stretch it was taken on, and narrow `k_unsure` to the cells whose k varies with
+    /// their state (the only ones now unsure).
+    fn held_k_taken(&mut self) {
+        let (lo, hi) = self.k_unsure;
+        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        let varying = |&s: &u8| s == VARYING_K;
+        self.k_unsure = match self.stretch[lo..hi].iter().position(varying) {
+            Some(first) => {
+                let last = self.stretch[lo..hi]
+                    .iter()
+                    .rposition(varying)
+                    .unwrap_or(first);
+                (lo + first, lo + last + 1)
+            }
+            None => (0, 0),
+        };
     }
 
     /// At a step's start, the half-cell resistance, dT/dH and stretch of every cell whose
@@ -648,9 +682,9 @@ impl Solver {
             let stretch = stretch_of(phase, h);
             self.stretch[i] = stretch;
             self.k_stretch[i] = stretch;
+            self.piece[i] = BETWEEN;
             if stretch == VARYING_K {
-                let (lo, hi) = self.k_unsure;
-                self.k_unsure = (lo.min(i), hi.max(i + 1));
+                self.k_unsure = take_in(self.k_unsure, i);
             }
             let k = self.half_resistance(i);
             if k.to_bits() != self.k[i].to_bits() {
@@ -744,7 +778,7 @@ impl Solver {
                 changed = i + 1;
             }
         }
-        self.k_stretch[lo..hi].copy_from_slice(&self.stretch[lo..hi]);
+        self.held_k_taken();
         self.face_conductances(top, bottom, changed);
     }
 
@@ -926,31 +960,21 @@ impl Solver {
                 let (y, inv) = (&mut self.lu.rp[..n], &self.lu.inv[..n]);
                 // Downward flux through the face below cell i, then above it: inflow from
                 // below g_{i+1} (T_{i+1} − T_i) and from above g_i (T_{i−1} − T_i) are
-                // −f_below and f_above, each face's flux computed once.
+                // −f_below and f_above, each face's flux computed once. The bottom row's
+                // c is 0, so its y is (−R − 0·0)/d, the same bits as −R/d.
                 let mut f_below = -q_bot;
                 let mut y_below = 0.0;
-                for i in (0..n).rev() {
-                    let f_above = if i > 0 {
-                        g[i] * (t[i - 1] - t[i])
-                    } else {
-                        q_top
-                    };
+                for i in (1..n).rev() {
+                    let f_above = g[i] * (t[i - 1] - t[i]);
                     let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
+                    measure_residual(&mut worst, res, cap[i], tol);
                     f_below = f_above;
-                    // |R| Δt/Δz as an enthalpy error, compared without dividing.
-                    if res.abs() > tol * cap[i] {
-                        worst = worst.max(res.abs() / cap[i]);
-                    }
-                    if !res.is_finite() {
-                        worst = f64::INFINITY;
-                    }
-                    y_below = if i + 1 < n {
-                        (-res - c[i] * y_below) * inv[i]
-                    } else {
-                        -res * inv[i]
-                    };
+                    y_below = (-res - c[i] * y_below) * inv[i];
                     y[i] = y_below;
                 }
+                let res = cap[0] * (h[0] - h_old[0]) - (q_top - f_below);
+                measure_residual(&mut worst, res, cap[0], tol);
+                y[0] = (-res - c[0] * y_below) * inv[0];
             }
             if !worst.is_finite() {
                 break;
@@ -975,37 +999,42 @@ impl Solver {
             // update the enthalpy, T, dT/dH and stretch; mark the rows whose slope changed
             // and the cells whose k may now differ from the held one.
             let mut slopes_changed = 0;
-            let (mut lo, mut hi) = (n, 0);
+            let mut unsure = self.k_unsure;
             {
                 let (cells, pieces) = (&self.cells[..n], &self.pieces[..n]);
                 let (y, ap) = (&self.lu.rp[..n], &self.lu.ap[..n]);
-                let (h, t, sl, st, k_st) = (
+                let (h, t, sl, st, k_st, pc) = (
                     &mut self.enthalpy[..n],
                     &mut self.temperature[..n],
                     &mut self.slope[..n],
                     &mut self.stretch[..n],
                     &self.k_stretch[..n],
+                    &mut self.piece[..n],
                 );
                 let mut dh = 0.0;
                 for i in 0..n {
                     dh = if i > 0 { y[i] - ap[i] * dh } else { y[0] };
                     h[i] += damping * dh;
-                    let (ti, slope, stretch) = pieces[i].state(&cells[i].phase, h[i]);
+                    let (ti, slope, stretch, piece) = pieces[i].state(&cells[i].phase, h[i]);
                     t[i] = ti;
-                    same_regime &= slope == sl[i];
-                    if slope.to_bits() != sl[i].to_bits() {
-                        slopes_changed = i + 2;
-                    }
-                    sl[i] = slope;
-                    st[i] = stretch;
-                    if stretch == VARYING_K || stretch != k_st[i] {
-                        lo = lo.min(i);
-                        hi = i + 1;
+                    // A cell found on the same linear piece as before keeps its dT/dH and
+                    // stretch, and so whether its k is unsure.
+                    if piece == BETWEEN || piece != pc[i] {
+                        same_regime &= slope == sl[i];
+                        if slope.to_bits() != sl[i].to_bits() {
+                            slopes_changed = i + 2;
+                        }
+                        sl[i] = slope;
+                        st[i] = stretch;
+                        pc[i] = piece;
+                        if stretch == VARYING_K || stretch != k_st[i] {
+                            unsure = take_in(unsure, i);
+                        }
                     }
                 }
             }
             self.rows_changed = slopes_changed;
-            self.k_unsure = (lo.min(hi), hi);
+            self.k_unsure = unsure;
             same_regime &= self.top_flux(top).3 == top_piece;
             // With conductances held, every cell's T(H) and the top flux on the same linear
             // piece, the Newton step solved the step's equations exactly (to round-off).
@@ -1061,6 +1090,14 @@ impl Solver {
         for i in 0..n {
             let p = &self.cells[i].phase;
             assert_eq!(self.pieces[i], Pieces::of(p), "pieces {i}");
+            if self.piece[i] != BETWEEN {
+                let (_, slope, stretch, piece) = self.pieces[i].state(p, self.enthalpy[i]);
+                assert_eq!(
+                    (piece, slope.to_bits(), stretch),
+                    (self.piece[i], self.slope[i].to_bits(), self.stretch[i]),
+                    "piece {i}"
+                );
+            }
             assert_eq!(
                 self.stretch[i],
                 stretch_of(p, self.enthalpy[i]),
@@ -1122,6 +1159,28 @@ impl Solver {
                 self.step_split(0.5 * dt, dt_requested, top, bottom)
             }
         }
+    }
+}
+
+/// The range of cells lo..hi widened to take in cell i.
+fn take_in((lo, hi): (usize, usize), i: usize) -> (usize, usize) {
+    if lo >= hi {
+        (i, i + 1)
+    } else {
+        (lo.min(i), hi.max(i + 1))
+    }
+}
+
+/// Take a cell's residual `res` (J/m²/s; its cell's Δz/Δt is `cap`) into the worst
+/// enthalpy error |R| Δt/Δz of a pass so far, compared with the tolerance without dividing;
+/// a residual that is not finite makes it infinite.
+#[inline(always)]
+fn measure_residual(worst: &mut f64, res: f64, cap: f64, tol: f64) {
+    if res.abs() > tol * cap {
+        *worst = worst.max(res.abs() / cap);
+    }
+    if !res.is_finite() {
+        *worst = f64::INFINITY;
     }
 }
 

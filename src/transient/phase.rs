@@ -447,22 +447,34 @@ pub(crate) fn stretch_of(phase: &Phase, h: f64) -> u8 {
     phase.constant_k_stretch(h).unwrap_or(VARYING_K)
 }
 
+/// Which piece of T(H) [`Pieces::state`] found a state on: the frozen or the thawed
+/// linear piece, whose dT/dH and stretch are fixed, or [`BETWEEN`] (anything else).
+pub(crate) const FROZEN_PIECE: u8 = 0;
+pub(crate) const THAWED_PIECE: u8 = 2;
+pub(crate) const BETWEEN: u8 = 1;
+
 /// A cell's phase unpacked for the solver's inner loop. For an inert cell and a cell that
-/// freezes at one temperature, T(H) is linear on each side of 0 and L, so T, dT/dH and the
-/// stretch of constant k follow from two comparisons and one division, with dT/dH and the
-/// stretch of each side worked out once here; any other phase is asked each time. Either
-/// way [`Pieces::state`] gives bit for bit what [`Phase::temperature`], [`Phase::dt_dh`]
-/// and [`Phase::constant_k_stretch`] give (a test checks it).
+/// freezes at one temperature, T(H) is linear below one enthalpy (frozen: T = H/C_f) and
+/// above another (thawed: T = (H − L)/C_u), with one dT/dH and one stretch of constant k
+/// on each; those are worked out once here, so a state on either piece costs a comparison
+/// and a division. Between the two (a cell changing phase, an inert cell within 1e-290 of
+/// H = 0) and for any other phase, the phase is asked. Either way [`Pieces::state`] gives
+/// bit for bit what [`Phase::temperature`], [`Phase::dt_dh`] and
+/// [`Phase::constant_k_stretch`] give (a test checks it).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub(crate) struct Pieces {
+    /// Below this enthalpy the state is on the frozen piece, above this on the thawed one
+    /// (J/m³; −∞ and +∞ where there are no such pieces).
+    frozen_below: f64,
+    thawed_above: f64,
     kind: PieceKind,
     c_frozen: f64,
     c_unfrozen: f64,
     latent: f64,
-    /// 1/C on the frozen and the thawed side, K per J/m³.
+    /// 1/C on the frozen and the thawed piece, K per J/m³.
     slope_frozen: f64,
     slope_unfrozen: f64,
-    /// The stretch tags of the frozen and the thawed side ([`VARYING_K`] where that
+    /// The stretch tags of the frozen and the thawed piece ([`VARYING_K`] where that
     /// side's k depends on temperature).
     stretch_frozen: u8,
     stretch_unfrozen: u8,
@@ -485,12 +497,21 @@ impl Pieces {
                 VARYING_K
             }
         };
-        let (kind, c_frozen, c_unfrozen, latent, law) = match *phase {
+        // `Phase::constant_k_stretch` gives an inert cell no stretch within 1e-290 of H = 0.
+        let tiny = 1e-290;
+        let (kind, edges, c_frozen, c_unfrozen, latent, law) = match *phase {
             Phase::Inert {
                 c_frozen,
                 c_unfrozen,
                 law,
-            } => (PieceKind::Inert, c_frozen, c_unfrozen, 0.0, Some(law)),
+            } => (
+                PieceKind::Inert,
+                (-tiny, tiny),
+                c_frozen,
+                c_unfrozen,
+                0.0,
+                Some(law),
+            ),
             // With L > 0 the pieces below 0 and above L do not meet, as `state` assumes.
             Phase::Isothermal {
                 c_frozen,
@@ -499,17 +520,32 @@ impl Pieces {
                 law,
             } if latent > 0.0 => (
                 PieceKind::Isothermal,
+                (0.0, latent),
                 c_frozen,
                 c_unfrozen,
                 latent,
                 Some(law),
             ),
-            _ => (PieceKind::Other, 1.0, 1.0, 0.0, None),
+            _ => (PieceKind::Other, (0.0, 0.0), 1.0, 1.0, 0.0, None),
         };
         let (stretch_frozen, stretch_unfrozen) = law.map_or((VARYING_K, VARYING_K), |l| {
             (tag(l.frozen, 0), tag(l.unfrozen, 1))
         });
+        // On a piece dT/dH must equal itself (a NaN would not), as the solver takes one
+        // piece for one slope.
+        let kind = if c_frozen.is_nan() || c_unfrozen.is_nan() {
+            PieceKind::Other
+        } else {
+            kind
+        };
+        let (frozen_below, thawed_above) = if kind == PieceKind::Other {
+            (f64::NEG_INFINITY, f64::INFINITY)
+        } else {
+            edges
+        };
         Pieces {
+            frozen_below,
+            thawed_above,
             kind,
             c_frozen,
             c_unfrozen,
@@ -521,10 +557,33 @@ impl Pieces {
         }
     }
 
-    /// T(H) °C, dT/dH K per J/m³ and the stretch tag of enthalpy `h` in `phase`, the phase
-    /// these pieces were unpacked from.
+    /// T(H) °C, dT/dH K per J/m³, the stretch tag of enthalpy `h` in `phase` (the phase
+    /// these pieces were unpacked from), and the piece it is on.
     #[inline]
-    pub(crate) fn state(&self, phase: &Phase, h: f64) -> (f64, f64, u8) {
+    pub(crate) fn state(&self, phase: &Phase, h: f64) -> (f64, f64, u8, u8) {
+        if h > self.thawed_above {
+            // An inert cell's L is 0, and h − 0 = h for h > 0.
+            (
+                (h - self.latent) / self.c_unfrozen,
+                self.slope_unfrozen,
+                self.stretch_unfrozen,
+                THAWED_PIECE,
+            )
+        } else if h < self.frozen_below {
+            (
+                h / self.c_frozen,
+                self.slope_frozen,
+                self.stretch_frozen,
+                FROZEN_PIECE,
+            )
+        } else {
+            let (t, slope, stretch) = self.between(phase, h);
+            (t, slope, stretch, BETWEEN)
+        }
+    }
+
+    /// `state` off the two pieces.
+    fn between(&self, phase: &Phase, h: f64) -> (f64, f64, u8) {
         match self.kind {
             PieceKind::Inert => {
                 // As in `Phase::constant_k_stretch`: a |H| this small has no tag.
@@ -679,13 +738,28 @@ mod tests {
             250.0 * snow_edge_enthalpy(1.0),
             f64::NAN,
         ]);
+        hs.extend([
+            1e-290,
+            -1e-290,
+            2e-290,
+            -2e-290,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ]);
         let bits = |(t, s, k): (f64, f64, u8)| (t.to_bits(), s.to_bits(), k);
         for p in &phases {
             let pieces = Pieces::of(p);
+            // One piece has one dT/dH and one stretch.
+            let mut on_piece = [None, None, None];
             for &h in &hs {
                 let t = p.temperature(h);
                 let own = (t, p.dt_dh(h, t), stretch_of(p, h));
-                assert_eq!(bits(pieces.state(p, h)), bits(own), "{p:?} at H = {h:e}");
+                let (t, slope, stretch, piece) = pieces.state(p, h);
+                assert_eq!(bits((t, slope, stretch)), bits(own), "{p:?} at H = {h:e}");
+                if piece != BETWEEN {
+                    let seen = on_piece[piece as usize].get_or_insert((slope.to_bits(), stretch));
+                    assert_eq!(*seen, (slope.to_bits(), stretch), "{p:?} piece {piece}");
+                }
             }
         }
         assert_eq!(Pieces::of(&phases[2]).kind, PieceKind::Isothermal);
