@@ -154,3 +154,29 @@ test('marking inputs from scratch on a scenario without ranges, saved in the fil
   assert.equal(saved.ranges.inputs[1].what, 'insulation-derating');
   assert.equal(saved.ranges.inputs[1].distribution.kind, 'triangular');
 }));
+
+test('a shelter study: the interior and the melt as ranges, and how many runs melt the inner surface', () => withPage(async (page) => {
+  await andRecompute(page, () => page.selectOption('#example-pick', 'training-dome-four'));
+  await andRecompute(page, () => page.click('#ranges-add'));
+  // The dome's own snow density gives the default range around it.
+  assert.equal(await field(page, 'ranges.inputs[0].what').inputValue(), 'snow-density');
+  await setField(page, 'ranges.inputs[0].low', '200');
+  await setField(page, 'ranges.inputs[0].high', '420');
+  await setField(page, 'ranges.runs', '30');
+  await setField(page, 'ranges.seed', '21');
+  const d = await study(page);
+  assert.equal(d.state, 'done');
+  for (const id of ['shelter-interior', 'shelter-melt']) {
+    assert.equal(await page.locator(`#r-summary tr[data-result="${id}"]`).count(), 1, id);
+  }
+  // Lighter snow insulates better: some runs melt the inner surface, not all.
+  const line = await page.locator('#r-limits li[data-result="shelter-melt"]').textContent();
+  const m = line.match(/the inner surface melts in (\d+) of 30 runs/);
+  assert.ok(m, line);
+  assert.ok(Number(m[1]) > 0 && Number(m[1]) < 30, line);
+  assert.equal(await page.locator('#r-limits').isVisible(), true);
+  // The summary CSV carries the same count.
+  const sum = await download(page, 'r-summary-csv');
+  const row = sum.split('\n').find((l) => l.startsWith('Melt inside the shelter')).split(',');
+  assert.equal(row[15], m[1]);
+}));

@@ -70,14 +70,18 @@ pub enum RangeResult {
     FrostBelowFooting,
     /// The shelter's steady interior air temperature (°C).
     ShelterInterior,
+    /// Snow melting off the shelter's inner surfaces once the walls have warmed through
+    /// (kg/h; 0 while every inner surface stays frozen).
+    ShelterMelt,
 }
 
 impl RangeResult {
-    pub const ALL: [RangeResult; 4] = [
+    pub const ALL: [RangeResult; 5] = [
         RangeResult::RValue,
         RangeResult::FrostDepth,
         RangeResult::FrostBelowFooting,
         RangeResult::ShelterInterior,
+        RangeResult::ShelterMelt,
     ];
     pub fn id(self) -> &'static str {
         match self {
@@ -85,6 +89,7 @@ impl RangeResult {
             RangeResult::FrostDepth => "frost-depth",
             RangeResult::FrostBelowFooting => "frost-below-footing",
             RangeResult::ShelterInterior => "shelter-interior",
+            RangeResult::ShelterMelt => "shelter-melt",
         }
     }
     pub fn name(self) -> &'static str {
@@ -93,6 +98,7 @@ impl RangeResult {
             RangeResult::FrostDepth => "Deepest frost over the winter",
             RangeResult::FrostBelowFooting => "Frost below the footing",
             RangeResult::ShelterInterior => "Shelter interior",
+            RangeResult::ShelterMelt => "Melt inside the shelter",
         }
     }
     /// The units quantity it is shown in.
@@ -101,6 +107,7 @@ impl RangeResult {
             RangeResult::RValue => "r_value",
             RangeResult::FrostDepth | RangeResult::FrostBelowFooting => "depth",
             RangeResult::ShelterInterior => "temperature",
+            RangeResult::ShelterMelt => "mass_rate",
         }
     }
     /// Whether the scenario has the part this result comes from.
@@ -109,7 +116,17 @@ impl RangeResult {
             RangeResult::RValue => !s.layers.is_empty(),
             RangeResult::FrostDepth => s.winter.is_some(),
             RangeResult::FrostBelowFooting => s.edge.is_some(),
-            RangeResult::ShelterInterior => s.shelter.is_some(),
+            RangeResult::ShelterInterior | RangeResult::ShelterMelt => s.shelter.is_some(),
+        }
+    }
+
+    /// The limit whose crossing the report counts, with what crossing it means: frost below
+    /// the footing's base, an inner surface melting. None for the others.
+    pub fn limit(self) -> Option<(f64, &'static str)> {
+        match self {
+            RangeResult::FrostBelowFooting => Some((0.0, "frost gets below the footing's base")),
+            RangeResult::ShelterMelt => Some((0.0, "the inner surface melts")),
+            _ => None,
         }
     }
 }
@@ -514,7 +531,7 @@ pub fn result_has_snow(s: &Scenario, r: RangeResult) -> bool {
             .edge
             .as_ref()
             .is_some_and(|e| climate_has_snow(&e.climate, &e.outside)),
-        RangeResult::ShelterInterior => s.shelter.is_some(),
+        RangeResult::ShelterInterior | RangeResult::ShelterMelt => s.shelter.is_some(),
     }
 }
 
@@ -799,7 +816,7 @@ impl RangesPlan {
             Err(why) => return fail(why),
         };
         TaskOutcome {
-            values: self.results.iter().map(|&r| evaluate(&s, r)).collect(),
+            values: evaluate_all(&s, &self.results),
         }
     }
 
@@ -896,6 +913,15 @@ impl RangesPlan {
                 Ok(m) => (Some(m), None),
                 Err(e) => (None, Some(e.to_string())),
             };
+            let past_limit = r.limit().map(|(limit, meaning)| PastLimitDoc {
+                limit,
+                meaning,
+                runs: stats
+                    .as_ref()
+                    .map_or(0, |m| m.values.iter().filter(|&&v| v > limit).count()),
+                of: stats.as_ref().map_or(0, |m| m.values.len()),
+                base_past: base.as_ref().ok().map(|&b| b > limit),
+            });
             results.push(RangeResultReport {
                 id: r.id(),
                 name: r.name(),
@@ -921,6 +947,7 @@ impl RangesPlan {
                 error: mc_error,
                 spread,
                 sensitivity,
+                past_limit,
             });
         }
         let trials = (0..runs)
@@ -969,31 +996,47 @@ fn input_label(d: &RangedInputDoc) -> String {
 
 /// One result of one scenario (the parts it needs only).
 pub fn evaluate(s: &Scenario, r: RangeResult) -> Result<f64, String> {
+    evaluate_all(s, &[r]).remove(0)
+}
+
+/// Each of `results` for one scenario, running each part it needs once (the shelter's two
+/// results come from one shelter run).
+pub fn evaluate_all(s: &Scenario, results: &[RangeResult]) -> Vec<Result<f64, String>> {
     let msg = |e: InputErrors| e.to_string();
-    match r {
-        RangeResult::RValue => crate::scenario::compute(s)
-            .map(|c| c.result.r_total_m2k_per_w)
-            .map_err(msg),
-        RangeResult::FrostDepth => {
-            let w = s.winter.as_ref().ok_or("the scenario has no winter")?;
-            let c = crate::scenario::compute(s).map_err(msg)?;
-            crate::scenario_winter::run_winter(w, &c.result.stack, &s.layers)
-                .map(|r| r.max_frost_depth_m)
-                .map_err(msg)
-        }
-        RangeResult::FrostBelowFooting => {
-            let e = s.edge.as_ref().ok_or("the scenario has no building edge")?;
-            crate::scenario_edge::run_edge_scenario(e)
-                .map(|r| r.max_frost_below_base_m)
-                .map_err(msg)
-        }
-        RangeResult::ShelterInterior => {
-            let sh = s.shelter.as_ref().ok_or("the scenario has no shelter")?;
-            crate::scenario_shelter::run_shelter(sh)
-                .map(|r| r.interior_c)
-                .map_err(msg)
-        }
-    }
+    let mut shelter: Option<Result<crate::scenario_shelter::ShelterReport, String>> = None;
+    results
+        .iter()
+        .map(|&r| match r {
+            RangeResult::RValue => crate::scenario::compute(s)
+                .map(|c| c.result.r_total_m2k_per_w)
+                .map_err(msg),
+            RangeResult::FrostDepth => {
+                let w = s.winter.as_ref().ok_or("the scenario has no winter")?;
+                let c = crate::scenario::compute(s).map_err(msg)?;
+                crate::scenario_winter::run_winter(w, &c.result.stack, &s.layers)
+                    .map(|r| r.max_frost_depth_m)
+                    .map_err(msg)
+            }
+            RangeResult::FrostBelowFooting => {
+                let e = s.edge.as_ref().ok_or("the scenario has no building edge")?;
+                crate::scenario_edge::run_edge_scenario(e)
+                    .map(|r| r.max_frost_below_base_m)
+                    .map_err(msg)
+            }
+            RangeResult::ShelterInterior | RangeResult::ShelterMelt => {
+                let report = shelter.get_or_insert_with(|| {
+                    let sh = s.shelter.as_ref().ok_or("the scenario has no shelter")?;
+                    crate::scenario_shelter::run_shelter(sh).map_err(msg)
+                });
+                let report = report.as_ref().map_err(Clone::clone)?;
+                Ok(if r == RangeResult::ShelterMelt {
+                    report.melt_kg_per_h
+                } else {
+                    report.interior_c
+                })
+            }
+        })
+        .collect()
 }
 
 /// Run every task of a plan on up to `threads` threads (1 on wasm) and assemble the report.
@@ -1120,6 +1163,22 @@ pub struct RangeResultReport {
     pub spread: Option<SpreadDoc>,
     /// Largest swing first.
     pub sensitivity: Vec<SwingDoc>,
+    /// For a result with a limit ([`RangeResult::limit`]): how many runs went past it.
+    pub past_limit: Option<PastLimitDoc>,
+}
+
+/// How many Monte Carlo runs put a result past its limit (value > limit).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PastLimitDoc {
+    /// The limit, SI (0: the footing's base, or no melt).
+    pub limit: f64,
+    /// What going past it means, e.g. "frost gets below the footing's base".
+    pub meaning: &'static str,
+    /// Runs past the limit, out of the runs that gave a value.
+    pub runs: usize,
+    pub of: usize,
+    /// Whether the base case is past it.
+    pub base_past: Option<bool>,
 }
 
 /// One Monte Carlo run: its inputs and its results (None where it failed).
@@ -1209,7 +1268,7 @@ pub fn trials_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
 /// seed and the spread across the snow regressions (units in the unit column).
 pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
     let mut out = String::from(
-        "result,unit,base case,P10,P50,P90,mean,sd,min,max,runs,failed runs,seed,regressions low,regressions high\n",
+        "result,unit,base case,P10,P50,P90,mean,sd,min,max,runs,failed runs,seed,regressions low,regressions high,runs past the limit,past the limit means\n",
     );
     for res in &r.results {
         let q = res.quantity;
@@ -1225,7 +1284,7 @@ pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
                 None => format!("{v}"),
             });
         out.push_str(&format!(
-            "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
+            "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
             csv_field(res.name),
             csv_field(&unit_symbol(q, sys)),
             opt(res.base),
@@ -1241,6 +1300,12 @@ pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
             r.seed,
             opt(res.spread.as_ref().and_then(|s| s.min)),
             opt(res.spread.as_ref().and_then(|s| s.max)),
+            res.past_limit
+                .as_ref()
+                .map_or_else(String::new, |p| p.runs.to_string()),
+            res.past_limit
+                .as_ref()
+                .map_or_else(String::new, |p| csv_field(p.meaning)),
         ));
     }
     out
@@ -1280,6 +1345,9 @@ pub fn summary_text(
                 v(sp.min),
                 v(sp.max)
             ));
+        }
+        if let Some(p) = &res.past_limit {
+            out.push_str(&format!("; {} in {} of {} runs", p.meaning, p.runs, p.of));
         }
     }
     out

@@ -165,15 +165,21 @@ fn the_band_across_regressions_holds_every_single_regression_result() {
     let s = snowy();
     let r = scenario_ranges::run_ranges(&s, 2).unwrap();
     let ids: Vec<&str> = r.results.iter().map(|x| x.id).collect();
-    assert_eq!(ids, ["r-value", "shelter-interior"]);
-    for (res, kind) in r
-        .results
-        .iter()
-        .zip([RangeResult::RValue, RangeResult::ShelterInterior])
-    {
+    assert_eq!(ids, ["r-value", "shelter-interior", "shelter-melt"]);
+    for (res, kind) in r.results.iter().zip([
+        RangeResult::RValue,
+        RangeResult::ShelterInterior,
+        RangeResult::ShelterMelt,
+    ]) {
         let sp = res.spread.as_ref().expect("snow: a spread");
         let (lo, hi) = (sp.min.unwrap(), sp.max.unwrap());
-        assert!(lo < hi, "{}: the regressions differ", res.id);
+        // Four asleep in this dome keep every inner surface frozen whatever the regression:
+        // no melt at either end. The other two differ across the regressions.
+        if kind == RangeResult::ShelterMelt {
+            assert_eq!((lo, hi), (0.0, 0.0), "no melt");
+        } else {
+            assert!(lo < hi, "{}: the regressions differ", res.id);
+        }
         assert_eq!(sp.members.len() + sp.skipped.len(), 9);
         // Each regression set by hand in the document (not through the study's own
         // setter) and the result computed by the ordinary path.
@@ -476,4 +482,69 @@ fn the_example_study_runs_and_reads_sensibly() {
         .unwrap();
     assert!(sd.at_high.unwrap() > sd.at_low.unwrap());
     assert_eq!(r.trials.len(), 8);
+}
+
+#[test]
+fn runs_past_a_limit_are_counted_from_the_runs_themselves() {
+    // The dome with a 50 W stove and the snow's density uncertain: lighter snow insulates
+    // better and its inner surface melts, denser snow stays frozen (about half the runs
+    // each way, seen when the test was written). The melt result and the interior come
+    // from one shelter run, and the count of runs whose inner surface melts is that of the
+    // runs' own values.
+    let mut v: Value =
+        serde_json::from_str(scenario::example("training-dome-four").unwrap().json).unwrap();
+    v["version"] = json!(5);
+    v["ranges"] = json!({
+        "runs": 60, "seed": 21, "results": ["shelter-interior", "shelter-melt"],
+        "inputs": [ { "what": "snow-density", "low": 200, "high": 420 } ]
+    });
+    v["shelter"]["conditions"]["stove_w"] = json!(50.0);
+    let s = doc(v);
+    let r = scenario_ranges::run_ranges(&s, 2).unwrap();
+    let melt = r.results.iter().find(|x| x.id == "shelter-melt").unwrap();
+    let interior = r
+        .results
+        .iter()
+        .find(|x| x.id == "shelter-interior")
+        .unwrap();
+    assert!(interior.past_limit.is_none(), "the interior has no limit");
+    let p = melt.past_limit.as_ref().expect("melt has a limit");
+    assert_eq!(p.limit, 0.0);
+    assert_eq!(p.meaning, "the inner surface melts");
+    let by_hand = r
+        .trials
+        .iter()
+        .filter(|t| t.values[1].unwrap() > 0.0)
+        .count();
+    assert_eq!((p.runs, p.of), (by_hand, 60));
+    assert!(
+        0 < p.runs && p.runs < 60,
+        "the range straddles the limit: {}",
+        p.runs
+    );
+    // Lighter snow melts: every melting run's density is below every frozen run's.
+    let (wet, dry): (Vec<_>, Vec<_>) = r.trials.iter().partition(|t| t.values[1].unwrap() > 0.0);
+    let lightest_dry = dry
+        .iter()
+        .map(|t| t.inputs[0])
+        .fold(f64::INFINITY, f64::min);
+    assert!(wet.iter().all(|t| t.inputs[0] < lightest_dry));
+    assert_eq!(p.base_past, Some(melt.base.unwrap() > 0.0));
+    // Each run's two values are those of an ordinary run of its scenario.
+    let plan = RangesPlan::new(&s).unwrap();
+    for i in [0, 17, 59] {
+        let one = plan.scenario_for(scenario_ranges::Task::Sample(i)).unwrap();
+        let rep = hibernal::scenario_shelter::run_shelter(one.shelter.as_ref().unwrap()).unwrap();
+        assert_eq!(
+            r.trials[i].values,
+            vec![Some(rep.interior_c), Some(rep.melt_kg_per_h)]
+        );
+    }
+    // The summary names the count; a result without a limit leaves it empty.
+    let sum = summary_csv(&r, UnitSystem::Si);
+    let rows: Vec<Vec<&str>> = sum.lines().map(|l| l.split(',').collect()).collect();
+    assert_eq!(rows[0][15], "runs past the limit");
+    assert_eq!(rows[1][15], "");
+    assert_eq!(rows[2][15], p.runs.to_string());
+    assert_eq!(rows[2][16], "the inner surface melts");
 }

@@ -2794,6 +2794,7 @@
     { value: 'frost-depth', text: 'Deepest frost over the winter', has: (s) => !!s.winter },
     { value: 'frost-below-footing', text: 'Frost below the footing', has: (s) => !!s.edge },
     { value: 'shelter-interior', text: 'Shelter interior', has: (s) => !!s.shelter },
+    { value: 'shelter-melt', text: 'Melt inside the shelter', has: (s) => !!s.shelter },
   ];
   const SPREADS = [
     { value: 'uniform', text: 'Even (uniform)' },
@@ -3180,6 +3181,8 @@
     t.hidden = !rep;
     $('r-pick-wrap').hidden = !rep;
     $('r-failed').textContent = '';
+    clear($('r-limits'));
+    $('r-limits').hidden = true;
     if (!rep) {
       for (const id of ['r-spread-chart', 'r-sensitivity-chart']) { const c = $(id); const g = c.getContext('2d'); if (g) g.clearRect(0, 0, c.width, c.height); }
       return;
@@ -3187,6 +3190,7 @@
     head.append(el('tr', {}, rangesHeadCell('Result'), rangesHeadCell('Base case'), rangesHeadCell('P10'), rangesHeadCell('P50'),
       rangesHeadCell('P90'), rangesHeadCell('Snow regressions, base case'), rangesHeadCell('Runs'), rangesHeadCell('Moved most by')));
     const notes = [];
+    const limits = $('r-limits');
     rep.results.forEach((res, i) => {
       const q = res.quantity;
       const v = (x) => (x == null ? '–' : fmtU(q, x));
@@ -3203,6 +3207,12 @@
         el('td', { 'data-col': 'runs', text: res.runs_ok + (res.runs_failed ? ' (' + res.runs_failed + ' failed)' : '') }),
         el('td', { 'data-col': 'top', text: top ? top.name : '–' })));
       pick.append(el('option', { value: String(i), text: res.name }));
+      const past = res.past_limit;
+      if (past && past.of > 0) {
+        const pct = Math.round(100 * past.runs / past.of);
+        limits.append(el('li', { 'data-result': res.id, text: res.name + ': ' + past.meaning + ' in ' + past.runs + ' of ' + past.of + ' runs (' + pct + ' %)'
+          + (past.base_past == null ? '.' : past.base_past ? ', the base case among them.' : '; not in the base case.') }));
+      }
       if (res.runs_failed) {
         const first = res.failures[0];
         notes.push(res.name + ': ' + res.runs_failed + ' of ' + rep.runs + ' runs gave no value' + (first ? ' (first, ' + first.field + ': ' + first.message + ')' : '') + '; the percentiles are of the others.');
@@ -3211,6 +3221,7 @@
     if (rep.results.some((x) => x.id === 'frost-below-footing')) notes.push('Frost below the footing: a negative value is how far above the footing\'s base the frost stays.');
     notes.push('Seed ' + rep.seed + ', ' + rep.runs + ' runs: the same seed and inputs give the same numbers.');
     $('r-failed').textContent = notes.join(' ');
+    $('r-limits').hidden = !$('r-limits').firstChild;
     // The result chosen before, if this study has it; else the first that is not the
     // steady R-value (a winter, an edge or a shelter is what a range study is usually for).
     let at = rep.results.findIndex((x) => x.id === ranges.pickId);
