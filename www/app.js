@@ -3196,7 +3196,8 @@
       const v = (x) => (x == null ? '–' : fmtU(q, x));
       const sp = res.spread;
       const band = sp && sp.min != null ? v(sp.min) + ' to ' + v(sp.max) : 'no snow';
-      const top = res.sensitivity.find((s) => s.swing != null);
+      // The input with the largest swing, if any moved the answer at all.
+      const top = res.sensitivity.find((s) => s.swing != null && s.swing > 0);
       body.append(el('tr', { 'data-result': res.id },
         el('th', { scope: 'row', text: res.name }),
         el('td', { 'data-col': 'base', text: v(res.base) }),
@@ -3205,7 +3206,7 @@
         el('td', { 'data-col': 'p90', text: v(res.p90) }),
         el('td', { 'data-col': 'band', text: band }),
         el('td', { 'data-col': 'runs', text: res.runs_ok + (res.runs_failed ? ' (' + res.runs_failed + ' failed)' : '') }),
-        el('td', { 'data-col': 'top', text: top ? top.name : '–' })));
+        el('td', { 'data-col': 'top', text: top ? top.name : 'none of the inputs' })));
       pick.append(el('option', { value: String(i), text: res.name }));
       const past = res.past_limit;
       if (past && past.of > 0) {
