@@ -25,9 +25,11 @@ export async function launch() {
 const local = (url) => url.startsWith('file:') || url.startsWith('data:') || url.startsWith('blob:');
 
 // Opens the page in a fresh context. `problems` collects anything that must fail
-// a test: network requests, console errors, page errors, dialogs.
-export async function openPage(browser, viewport = { width: 1280, height: 900 }, deviceScaleFactor = 1) {
+// a test: network requests, console errors, page errors, dialogs. `init`, if given, runs in
+// the page before its own scripts (to take a browser feature away, say).
+export async function openPage(browser, viewport = { width: 1280, height: 900 }, deviceScaleFactor = 1, init = null) {
   const context = await browser.newContext({ viewport, deviceScaleFactor });
+  if (init) await context.addInitScript(init);
   const problems = [];
   await context.route('**/*', (route) => (local(route.request().url()) ? route.continue() : route.abort()));
   const page = await context.newPage();
