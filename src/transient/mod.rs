@@ -960,12 +960,16 @@ impl Solver {
                 let (y, inv) = (&mut self.lu.rp[..n], &self.lu.inv[..n]);
                 // Downward flux through the face below cell i, then above it: inflow from
                 // below g_{i+1} (T_{i+1} − T_i) and from above g_i (T_{i−1} − T_i) are
-                // −f_below and f_above, each face's flux computed once. The bottom row's
-                // c is 0, so its y is (−R − 0·0)/d, the same bits as −R/d.
+                // −f_below and f_above, each face's flux computed once (and each cell's
+                // temperature read once). The bottom row's c is +0, so its y is
+                // (−R − 0·0)·(1/d), the same bits as −R·(1/d).
                 let mut f_below = -q_bot;
                 let mut y_below = 0.0;
+                let mut t_here = t[n - 1];
                 for i in (1..n).rev() {
-                    let f_above = g[i] * (t[i - 1] - t[i]);
+                    let t_above = t[i - 1];
+                    let f_above = g[i] * (t_above - t_here);
+                    t_here = t_above;
                     let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
                     measure_residual(&mut worst, res, cap[i], tol);
                     f_below = f_above;
