@@ -166,8 +166,12 @@ pub const SNOW_MELT_OUT_SHARE: f64 = 0.1;
 /// The column and its state.
 #[derive(Debug, Clone)]
 pub struct Solver {
+    /// The cells, snow cells first. Read them freely; change them only through the
+    /// solver (`set_snow`), which keeps what it derives from each cell's phase in step.
     pub cells: Vec<Cell>,
-    /// Enthalpy per cell, J/m³.
+    /// Enthalpy per cell, J/m³. A state may be set here from outside between steps
+    /// (with `temperature` set to match): the next step notices and evaluates those cells
+    /// afresh.
     pub enthalpy: Vec<f64>,
     /// Temperature per cell, °C (follows from enthalpy).
     pub temperature: Vec<f64>,
