@@ -166,8 +166,12 @@ pub const SNOW_MELT_OUT_SHARE: f64 = 0.1;
 /// The column and its state.
 #[derive(Debug, Clone)]
 pub struct Solver {
+    /// The cells, snow cells first. Read them freely; change them only through the
+    /// solver (`set_snow`), which keeps what it derives from each cell's phase in step.
     pub cells: Vec<Cell>,
-    /// Enthalpy per cell, J/m³.
+    /// Enthalpy per cell, J/m³. A state may be set here from outside between steps
+    /// (with `temperature` set to match): the next step notices and evaluates those cells
+    /// afresh.
     pub enthalpy: Vec<f64>,
     /// Temperature per cell, °C (follows from enthalpy).
     pub temperature: Vec<f64>,
@@ -202,7 +206,10 @@ pub struct Solver {
     // solver computing everything afresh would use (`clear_step_cache` forgets all of it,
     // and a test compares the two; debug builds check the rows, faces, stretches and
     // held k against fresh values at every pass).
-    h_old: Vec<f64>,
+    //
+    /// What the two inner loops read and write of each row besides the cell's enthalpy,
+    /// temperature and phase, side by side (see [`Row`]).
+    rows: Vec<Row>,
     /// Half-cell resistances Δz/2k held through a step's passes, m²K/W.
     k: Vec<f64>,
     /// The enthalpy each cell had when the last converged step ended (NaN: not known).
@@ -215,10 +222,6 @@ pub struct Solver {
     k_state: Vec<f64>,
     /// Each cell's phase unpacked for the inner loop (see [`Pieces`]); follows `cells`.
     pieces: Vec<Pieces>,
-    /// The linear piece of T(H) each cell's `slope` and `stretch` were set for
-    /// ([`BETWEEN`]: none, or not known). A state found on the same piece again has the
-    /// same dT/dH and stretch, bit for bit, so the update need not compare them.
-    piece: Vec<u8>,
     /// The stretch of constant k ([`Phase::constant_k_stretch`], [`VARYING_K`] where k
     /// varies with the state) that each cell's present enthalpy lies on; set wherever the
     /// solver sets an enthalpy, and at a step's start for every cell whose `h_key` does not
@@ -236,16 +239,13 @@ pub struct Solver {
     g: Vec<f64>,
     /// dT/dH of each cell's present state, K per J/m³.
     slope: Vec<f64>,
-    /// The tridiagonal system of a Newton pass (sub-, main and super-diagonal). From row
-    /// `rows_changed` down, each row is the one the present `cap`, `g` and `slope` give,
-    /// and `lu` holds its factors.
+    /// The tridiagonal system of a Newton pass: sub- and main diagonal (the super-diagonal
+    /// is in `rows`). From row `rows_changed` down, each row is the one the present Δz/Δt,
+    /// `g` and `slope` give, and `rows` hold its factors.
     a: Vec<f64>,
     b: Vec<f64>,
-    c: Vec<f64>,
-    /// Δz/Δt of each cell for the step length `cap_dt` (NaN: none yet).
-    cap: Vec<f64>,
+    /// The step length the rows' Δz/Δt are for (NaN: none yet).
     cap_dt: f64,
-    lu: Tridiagonal,
     /// Rows of the system that may differ from those last built and factorised are the
     /// rows 0..rows_changed. Every change of a cell's Δz/Δt, face conductance or dT/dH
     /// moves this bound below the rows it enters (row i holds cap_i, g_i, g_{i+1} and
@@ -298,12 +298,11 @@ impl Solver {
             last_ground_surface_c: initial_c,
             snow_cells: 0,
             snow: None,
-            h_old: vec![0.0; n],
+            rows: vec![Row::default(); n],
             k: vec![0.0; n],
             h_key: vec![f64::NAN; n],
             k_state: vec![0.0; n],
             pieces: Vec::new(),
-            piece: vec![BETWEEN; n],
             stretch: vec![VARYING_K; n],
             k_stretch: vec![VARYING_K; n],
             k_unsure: (0, n),
@@ -311,10 +310,7 @@ impl Solver {
             slope: vec![0.0; n],
             a: vec![0.0; n],
             b: vec![0.0; n],
-            c: vec![0.0; n],
-            cap: vec![0.0; n],
             cap_dt: f64::NAN,
-            lu: Tridiagonal::new(n),
             rows_changed: n,
             stale: n,
             bottom_row: false,
@@ -349,7 +345,6 @@ impl Solver {
         self.cap_dt = f64::NAN;
         self.stale = self.cells.len();
         self.k_unsure = (0, self.cells.len());
-        self.lu = Tridiagonal::new(self.cells.len());
     }
 
     /// Start the energy ledger afresh from the present state.
@@ -483,7 +478,7 @@ impl Solver {
                 self.temperature[j] = cell.phase.temperature(h);
                 self.enthalpy[j] = h;
                 self.pieces[j] = Pieces::of(&cell.phase);
-                self.piece[j] = BETWEEN;
+                self.rows[j].piece = BETWEEN;
                 self.cells[j] = cell;
                 self.h_key[j] = f64::NAN;
             }
@@ -501,26 +496,17 @@ impl Solver {
             self.enthalpy.splice(0..ns_old, hs);
             self.temperature.splice(0..ns_old, ts);
             let n = self.cells.len();
-            for v in [
-                &mut self.h_old,
-                &mut self.k,
-                &mut self.slope,
-                &mut self.a,
-                &mut self.b,
-                &mut self.c,
-                &mut self.cap,
-            ] {
+            for v in [&mut self.k, &mut self.slope, &mut self.a, &mut self.b] {
                 v.resize(n, 0.0);
             }
+            self.rows.clear();
+            self.rows.resize(n, Row::default());
             self.g.resize(n + 1, 0.0);
             self.k_state.resize(n, 0.0);
-            self.piece.clear();
-            self.piece.resize(n, BETWEEN);
             self.stretch.resize(n, VARYING_K);
             self.k_stretch.resize(n, VARYING_K);
             self.h_key.clear();
             self.h_key.resize(n, f64::NAN);
-            self.lu = Tridiagonal::new(n);
             // Every array shifted by the change in the number of snow cells.
             self.stale = n;
             self.k_unsure = (0, n);
@@ -682,7 +668,7 @@ impl Solver {
             let stretch = stretch_of(phase, h);
             self.stretch[i] = stretch;
             self.k_stretch[i] = stretch;
-            self.piece[i] = BETWEEN;
+            self.rows[i].piece = BETWEEN;
             if stretch == VARYING_K {
                 self.k_unsure = take_in(self.k_unsure, i);
             }
@@ -881,7 +867,7 @@ impl Solver {
             n
         };
         for i in 0..fresh {
-            self.cap[i] = self.cells[i].dz_m * inv_dt;
+            self.rows[i].cap = self.cells[i].dz_m * inv_dt;
         }
         self.cap_dt = dt;
         self.rows_changed = self.rows_changed.max(fresh);
@@ -900,7 +886,9 @@ impl Solver {
         bottom: &BottomCondition,
     ) -> Result<usize, f64> {
         let n = self.cells.len();
-        self.h_old.copy_from_slice(&self.enthalpy);
+        for (row, &h) in self.rows.iter_mut().zip(&self.enthalpy) {
+            row.h_old = h;
+        }
         let tol = self.tolerances.enthalpy_j_m3;
         let g_bottom_row = matches!(bottom, BottomCondition::Temperature { .. });
         let mut last_residual = f64::INFINITY;
@@ -919,8 +907,8 @@ impl Solver {
             let (_, dq_dt, dq_dh, top_piece) = self.top_flux(top);
             let rows = self.rows_changed.clamp(1, n);
             {
-                let (g, cap, slope) = (&self.g[..n + 1], &self.cap[..n], &self.slope[..n]);
-                let (a, b, c) = (&mut self.a[..n], &mut self.b[..n], &mut self.c[..n]);
+                let (g, slope) = (&self.g[..n + 1], &self.slope[..n]);
+                let (a, b, row) = (&mut self.a[..n], &mut self.b[..n], &mut self.rows[..n]);
                 for i in 0..rows {
                     let g_up = g[i];
                     let g_dn = if i < n - 1 || g_bottom_row {
@@ -928,9 +916,9 @@ impl Solver {
                     } else {
                         0.0
                     };
-                    b[i] = cap[i] + (g_up + g_dn) * slope[i];
+                    b[i] = row[i].cap + (g_up + g_dn) * slope[i];
                     a[i] = if i > 0 { -g[i] * slope[i - 1] } else { 0.0 };
-                    c[i] = if i < n - 1 {
+                    row[i].c = if i < n - 1 {
                         -g[i + 1] * slope[i + 1]
                     } else {
                         0.0
@@ -942,7 +930,7 @@ impl Solver {
             self.b[0] += (-dq_dt - self.g[0]) * self.slope[0] - dq_dh;
             #[cfg(debug_assertions)]
             self.check_kept_rows(rows, g_bottom_row);
-            self.lu.factor(&self.a, &self.b, &self.c, rows);
+            factor(&mut self.rows, &self.a, &self.b, rows);
             self.rows_changed = 0;
             // Residual R_i = Δz (H − Hⁿ)/Δt − inflow, measured as an enthalpy error
             // |R_i| Δt/Δz (J/m³). −R_i is the right-hand side of row i: the loop runs from
@@ -951,13 +939,8 @@ impl Solver {
             let mut worst: f64 = 0.0;
             {
                 // Slices of length n (n + 1 faces), so the loop runs without bounds checks.
-                let (t, h, h_old) = (
-                    &self.temperature[..n],
-                    &self.enthalpy[..n],
-                    &self.h_old[..n],
-                );
-                let (g, cap, c) = (&self.g[..n + 1], &self.cap[..n], &self.c[..n]);
-                let (y, inv) = (&mut self.lu.rp[..n], &self.lu.inv[..n]);
+                let (t, h) = (&self.temperature[..n], &self.enthalpy[..n]);
+                let (g, row) = (&self.g[..n + 1], &mut self.rows[..n]);
                 // Downward flux through the face below cell i, then above it: inflow from
                 // below g_{i+1} (T_{i+1} − T_i) and from above g_i (T_{i−1} − T_i) are
                 // −f_below and f_above, each face's flux computed once (and each cell's
@@ -970,15 +953,17 @@ impl Solver {
                     let t_above = t[i - 1];
                     let f_above = g[i] * (t_above - t_here);
                     t_here = t_above;
-                    let res = cap[i] * (h[i] - h_old[i]) - (f_above - f_below);
-                    measure_residual(&mut worst, res, cap[i], tol);
+                    let r = &mut row[i];
+                    let res = r.cap * (h[i] - r.h_old) - (f_above - f_below);
+                    measure_residual(&mut worst, res, r.cap, tol);
                     f_below = f_above;
-                    y_below = (-res - c[i] * y_below) * inv[i];
-                    y[i] = y_below;
+                    y_below = (-res - r.c * y_below) * r.inv;
+                    r.y = y_below;
                 }
-                let res = cap[0] * (h[0] - h_old[0]) - (q_top - f_below);
-                measure_residual(&mut worst, res, cap[0], tol);
-                y[0] = (-res - c[0] * y_below) * inv[0];
+                let r = &mut row[0];
+                let res = r.cap * (h[0] - r.h_old) - (q_top - f_below);
+                measure_residual(&mut worst, res, r.cap, tol);
+                r.y = (-res - r.c * y_below) * r.inv;
             }
             if !worst.is_finite() {
                 break;
@@ -1006,31 +991,31 @@ impl Solver {
             let mut unsure = self.k_unsure;
             {
                 let (cells, pieces) = (&self.cells[..n], &self.pieces[..n]);
-                let (y, ap) = (&self.lu.rp[..n], &self.lu.ap[..n]);
-                let (h, t, sl, st, k_st, pc) = (
+                let row = &mut self.rows[..n];
+                let (h, t, sl, st, k_st) = (
                     &mut self.enthalpy[..n],
                     &mut self.temperature[..n],
                     &mut self.slope[..n],
                     &mut self.stretch[..n],
                     &self.k_stretch[..n],
-                    &mut self.piece[..n],
                 );
                 let mut dh = 0.0;
                 for i in 0..n {
-                    dh = if i > 0 { y[i] - ap[i] * dh } else { y[0] };
+                    let r = &mut row[i];
+                    dh = if i > 0 { r.y - r.ap * dh } else { r.y };
                     h[i] += damping * dh;
                     let (ti, slope, stretch, piece) = pieces[i].state(&cells[i].phase, h[i]);
                     t[i] = ti;
                     // A cell found on the same linear piece as before keeps its dT/dH and
                     // stretch, and so whether its k is unsure.
-                    if piece == BETWEEN || piece != pc[i] {
+                    if piece == BETWEEN || piece != r.piece {
                         same_regime &= slope == sl[i];
                         if slope.to_bits() != sl[i].to_bits() {
                             slopes_changed = i + 2;
                         }
                         sl[i] = slope;
                         st[i] = stretch;
-                        pc[i] = piece;
+                        r.piece = piece;
                         if stretch == VARYING_K || stretch != k_st[i] {
                             unsure = take_in(unsure, i);
                         }
@@ -1048,7 +1033,9 @@ impl Solver {
                 return Ok(iter + 1);
             }
         }
-        self.enthalpy.copy_from_slice(&self.h_old);
+        for (h, row) in self.enthalpy.iter_mut().zip(&self.rows) {
+            *h = row.h_old;
+        }
         for i in 0..n {
             self.temperature[i] = self.cells[i].phase.temperature(self.enthalpy[i]);
         }
@@ -1057,8 +1044,9 @@ impl Solver {
     }
 
     /// Debug builds: check that the rows of the system below `rows` (those not built
-    /// again) are bit for bit what building them from the present Δz/Δt, conductances and
-    /// slopes gives, and that every kept face conductance and stretch agrees with the state.
+    /// again) and their factors are bit for bit what building and factorising them from
+    /// the present Δz/Δt, conductances and slopes gives, and that every kept face
+    /// conductance, stretch, piece and held k agrees with the state.
     #[cfg(debug_assertions)]
     fn check_kept_rows(&self, rows: usize, g_bottom_row: bool) {
         let n = self.cells.len();
@@ -1069,7 +1057,7 @@ impl Solver {
             } else {
                 0.0
             };
-            let b = self.cap[i] + (g[i] + g_dn) * slope[i];
+            let b = self.rows[i].cap + (g[i] + g_dn) * slope[i];
             let a = -g[i] * slope[i - 1];
             let c = if i < n - 1 {
                 -g[i + 1] * slope[i + 1]
@@ -1081,9 +1069,20 @@ impl Solver {
                 (
                     self.a[i].to_bits(),
                     self.b[i].to_bits(),
-                    self.c[i].to_bits()
+                    self.rows[i].c.to_bits()
                 ),
                 "kept row {i} of {n}"
+            );
+            let below = if i + 1 < n {
+                c * self.rows[i + 1].ap
+            } else {
+                0.0
+            };
+            let d = 1.0 / (b - below);
+            assert_eq!(
+                (d.to_bits(), (a * d).to_bits()),
+                (self.rows[i].inv.to_bits(), self.rows[i].ap.to_bits()),
+                "kept factors of row {i} of {n}"
             );
         }
         for (i, k) in self.k.windows(2).enumerate() {
@@ -1094,11 +1093,11 @@ impl Solver {
         for i in 0..n {
             let p = &self.cells[i].phase;
             assert_eq!(self.pieces[i], Pieces::of(p), "pieces {i}");
-            if self.piece[i] != BETWEEN {
+            if self.rows[i].piece != BETWEEN {
                 let (_, slope, stretch, piece) = self.pieces[i].state(p, self.enthalpy[i]);
                 assert_eq!(
                     (piece, slope.to_bits(), stretch),
-                    (self.piece[i], self.slope[i].to_bits(), self.stretch[i]),
+                    (self.rows[i].piece, self.slope[i].to_bits(), self.stretch[i]),
                     "piece {i}"
                 );
             }
@@ -1117,7 +1116,7 @@ impl Solver {
                 assert!(lo <= i && i < hi, "cell {i} outside {lo}..{hi}");
             }
             assert_eq!(
-                self.cap[i].to_bits(),
+                self.rows[i].cap.to_bits(),
                 (self.cells[i].dz_m * (1.0 / self.cap_dt)).to_bits(),
                 "cap {i}"
             );
@@ -1188,68 +1187,63 @@ fn measure_residual(worst: &mut f64, res: f64, cap: f64, tol: f64) {
     }
 }
 
-/// Tridiagonal solver (Thomas algorithm) that eliminates from the bottom row up and keeps
-/// its factorisation. Row i's factors depend only on rows i..n, so when a new matrix
-/// differs from the last only in its upper rows (the freezing front and the surface, while
-/// the deep ground is unchanged), only those rows are factorised again (the caller says
-/// which); the sweeps of the right-hand side then need no division. Diagonally dominant
-/// here (Δz/Δt on the diagonal), so no pivoting is needed.
-#[derive(Debug, Clone)]
-struct Tridiagonal {
-    /// a_i / d_i and 1 / d_i, d_i the pivot of row i.
-    ap: Vec<f64>,
-    inv: Vec<f64>,
-    /// The upward sweep's y_i = (r_i − c_i y_{i+1}) / d_i, for the downward sweep.
-    rp: Vec<f64>,
-    valid: bool,
+/// One row of a pass, side by side for the inner loops: what they read and write of row
+/// i of the system and of cell i, besides the cell's enthalpy, temperature and phase. (Kept
+/// together so that a loop reads one stream of memory; in wasm each separate array costs
+/// an address computation of its own on every read.)
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct Row {
+    /// Δz/Δt of the cell for the step length `Solver::cap_dt`, m/s.
+    cap: f64,
+    /// The cell's enthalpy at the start of the step, J/m³.
+    h_old: f64,
+    /// The system's super-diagonal c_i, and the factors a_i/d_i and 1/d_i of the row
+    /// (d_i its pivot; see [`factor`]).
+    c: f64,
+    ap: f64,
+    inv: f64,
+    /// The upward sweep's y_i = (r_i − c_i y_{i+1}) / d_i.
+    y: f64,
+    /// The linear piece of T(H) the cell's `slope` and `stretch` were set for
+    /// ([`BETWEEN`]: none, or not known). A state found on the same piece again has the
+    /// same dT/dH and stretch, bit for bit, so the update need not compare them.
+    piece: u8,
 }
 
-impl Tridiagonal {
-    fn new(n: usize) -> Self {
-        Tridiagonal {
-            ap: vec![0.0; n],
-            inv: vec![0.0; n],
-            rp: vec![0.0; n],
-            valid: false,
+impl Default for Row {
+    fn default() -> Self {
+        Row {
+            cap: 0.0,
+            h_old: 0.0,
+            c: 0.0,
+            ap: 0.0,
+            inv: 0.0,
+            y: 0.0,
+            piece: BETWEEN,
         }
     }
+}
 
-    /// Factorise the matrix with rows a x_{i−1} + b x_i + c x_{i+1}, where only rows
-    /// 0..rows may differ from the last call (every row is factorised on the first call).
-    /// Factorising an unchanged row again would give the same bits, so the factors are
-    /// those of a factorisation from scratch.
-    fn factor(&mut self, a: &[f64], b: &[f64], c: &[f64], rows: usize) {
-        let n = self.ap.len();
-        let (a, b, c) = (&a[..n], &b[..n], &c[..n]);
-        let rows = if self.valid { rows.min(n) } else { n };
-        let (ap, inv) = (&mut self.ap[..n], &mut self.inv[..n]);
-        // Rows rows-1 .. 0, bottom up.
-        for i in (0..rows).rev() {
-            let below = if i + 1 < n { c[i] * ap[i + 1] } else { 0.0 };
-            let d = 1.0 / (b[i] - below);
-            inv[i] = d;
-            ap[i] = a[i] * d;
-        }
-        self.valid = true;
-    }
-
-    /// Solve a x_{i−1} + b x_i + c x_{i+1} = r into `x`, where only rows 0..rows may
-    /// differ from the last call.
-    /// (The solver's passes make the two sweeps below themselves, fused with the residual
-    /// and the update of the state.)
-    #[cfg(test)]
-    fn solve(&mut self, a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &mut [f64], rows: usize) {
-        self.factor(a, b, c, rows);
-        let n = self.rp.len();
-        let (y, inv, ap) = (&mut self.rp, &self.inv, &self.ap);
-        y[n - 1] = r[n - 1] * inv[n - 1];
-        for i in (0..n - 1).rev() {
-            y[i] = (r[i] - c[i] * y[i + 1]) * inv[i];
-        }
-        x[0] = y[0];
-        for i in 1..n {
-            x[i] = y[i] - ap[i] * x[i - 1];
-        }
+/// Factorise rows 0..changed of the tridiagonal system a x_{i−1} + b x_i + c x_{i+1} = r
+/// (c in `rows`) for the Thomas algorithm, eliminating from the bottom row up: row i's
+/// factors depend only on rows i..n, so when the system differs from the one last
+/// factorised only in its upper rows (the freezing front and the surface, while the deep
+/// ground is unchanged), only those are factorised again, and the factors are bit for bit
+/// those of a factorisation from scratch. The sweeps of the right-hand side then need no
+/// division. Diagonally dominant here (Δz/Δt on the diagonal), so no pivoting is needed.
+fn factor(rows: &mut [Row], a: &[f64], b: &[f64], changed: usize) {
+    let n = rows.len();
+    let (a, b) = (&a[..n], &b[..n]);
+    // Rows changed-1 .. 0, bottom up.
+    for i in (0..changed.min(n)).rev() {
+        let below = if i + 1 < n {
+            rows[i].c * rows[i + 1].ap
+        } else {
+            0.0
+        };
+        let d = 1.0 / (b[i] - below);
+        rows[i].inv = d;
+        rows[i].ap = a[i] * d;
     }
 }
 
@@ -1279,7 +1273,7 @@ pub fn cells_for(
 
 #[cfg(test)]
 mod tests {
-    use super::Tridiagonal;
+    use super::{factor, Row};
 
     fn residual(a: &[f64], b: &[f64], c: &[f64], r: &[f64], x: &[f64]) -> f64 {
         let n = b.len();
@@ -1297,6 +1291,32 @@ mod tests {
             .fold(0.0, f64::max)
     }
 
+    /// The solve the solver's passes make (fused there with the residual and the update),
+    /// rows 0..changed factorised again.
+    fn solve(
+        rows: &mut [Row],
+        a: &[f64],
+        b: &[f64],
+        c: &[f64],
+        r: &[f64],
+        changed: usize,
+    ) -> Vec<f64> {
+        let n = rows.len();
+        for (row, &ci) in rows.iter_mut().zip(c) {
+            row.c = ci;
+        }
+        factor(rows, a, b, changed);
+        rows[n - 1].y = r[n - 1] * rows[n - 1].inv;
+        for i in (0..n - 1).rev() {
+            rows[i].y = (r[i] - c[i] * rows[i + 1].y) * rows[i].inv;
+        }
+        let mut x = vec![rows[0].y; n];
+        for i in 1..n {
+            x[i] = rows[i].y - rows[i].ap * x[i - 1];
+        }
+        x
+    }
+
     #[test]
     fn reused_factors_solve_a_matrix_changed_in_its_upper_rows_exactly() {
         let n = 50;
@@ -1305,25 +1325,25 @@ mod tests {
         let c: Vec<f64> = (0..n).map(|i| -0.4 + 0.003 * i as f64).collect();
         let r: Vec<f64> = (0..n).map(|i| (i as f64).sin()).collect();
         a[0] = 0.0;
-        let mut t = Tridiagonal::new(n);
-        let mut x = vec![0.0; n];
-        // The first call factorises every row, whatever it is told.
-        t.solve(&a, &b, &c, &r, &mut x, 0);
+        let mut rows = vec![Row::default(); n];
+        let x = solve(&mut rows, &a, &b, &c, &r, n);
         assert!(residual(&a, &b, &c, &r, &x) < 1e-13);
         // Change rows 3 and 7 only: the kept factors of rows 8.. are reused, and the answer
-        // is bit for bit that of a solver factorising everything.
+        // is bit for bit that of a factorisation of every row.
         let mut b2 = b.clone();
         b2[3] += 0.7;
         b2[7] -= 0.2;
-        t.solve(&a, &b2, &c, &r, &mut x, 8);
+        let x = solve(&mut rows, &a, &b2, &c, &r, 8);
         assert!(residual(&a, &b2, &c, &r, &x) < 1e-13);
-        let mut scratch = vec![0.0; n];
-        Tridiagonal::new(n).solve(&a, &b2, &c, &r, &mut scratch, n);
+        let scratch = solve(&mut vec![Row::default(); n], &a, &b2, &c, &r, n);
         assert_eq!(x, scratch);
-        // A change in the last row needs every row factorised again.
+        // Told too few rows (row 7 changed, rows 0..5 factorised again), the kept factors
+        // of row 7 are stale and the answer is wrong: the count matters.
         let mut b3 = b2.clone();
-        b3[n - 1] += 1.0;
-        t.solve(&a, &b3, &c, &r, &mut x, n);
+        b3[7] += 1.0;
+        let x = solve(&mut rows, &a, &b3, &c, &r, 5);
+        assert!(residual(&a, &b3, &c, &r, &x) > 1e-6);
+        let x = solve(&mut rows, &a, &b3, &c, &r, n);
         assert!(residual(&a, &b3, &c, &r, &x) < 1e-13);
     }
 }
