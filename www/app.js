@@ -3050,8 +3050,11 @@
         w.onmessage = (ev) => {
           if (gen !== ranges.gen) return;
           const m = ev.data;
-          if (m.type === 'ready') feed(w);
-          else if (m.type === 'done') {
+          // Two tasks in hand, so a worker never waits on the page between tasks.
+          if (m.type === 'ready') {
+            feed(w);
+            feed(w);
+          } else if (m.type === 'done') {
             if (!main.record(m.k, m.outcome)) { onFail('an outcome came back that the study could not take'); return; }
             feed(w);
             onDone();
@@ -3124,14 +3127,14 @@
       ranges.main = null;
       if (ranges.study) ranges.study.free();
       ranges.study = main;
-      ranges.report = main.report();
+      const rep = main.report();
+      ranges.report = rep;
       ranges.ranWith = JSON.stringify(scen);
       $('r-go').disabled = false;
       $('r-stop').disabled = true;
       box.dataset.runs = String(Number(box.dataset.runs || 0) + 1);
       box.dataset.ms = String(Math.round(ms));
       box.dataset.state = 'done';
-      const rep = main.report();
       $('r-status').textContent = 'Done: ' + rep.runs + ' runs and ' + (all - rep.runs) + ' more trials (the base case, each input at its ends, each snow regression) in ' + msWords(ms) + (box.dataset.workers !== '0' ? ' on ' + box.dataset.workers + ' workers' : ' on this page') + '.';
       renderRangesReport();
       rangesStale();
@@ -3145,7 +3148,7 @@
     };
     const where = 'on ' + workerCount() + ' workers';
     const onDone = () => {
-      if (main.report() !== null && main.recorded() === all) finishStudy();
+      if (main.recorded() === all && main.report() !== null) finishStudy();
       else progress(where);
     };
     if (startWorkers(scen, main, gen, onDone, fail)) {
