@@ -522,11 +522,11 @@ pub fn spread_svg(
 /// caller puts the largest swing first, so it is on top), each from the answer with the
 /// input at its low end to the answer with it at its high end, split at a dashed vertical
 /// line at the base case: the part towards the low end's answer in one colour, towards the
-/// high end's in another (a legend row under the chart says which). The input is named left of its bar, each
-/// end's label written beyond that end. When both ends fall on one side of the base case
-/// the longer part is drawn first so the shorter stays visible. The base case not finite:
-/// no base line, and each bar splits at its middle. No bars draws the axes and the note
-/// "no uncertain inputs". `scale` as in [`draw_spread`].
+/// high end's in another (a legend row under the chart says which). The input is named
+/// left of its bar, each end's label written beyond that end. When both ends fall on one
+/// side of the base case the longer part is drawn first so the shorter stays visible. The
+/// base case not finite: no base line, and each bar splits at its middle. No bars draws
+/// the axes and the note "no uncertain inputs". `scale` as in [`draw_spread`].
 pub fn draw_sensitivity<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     c: &SensitivityChart,
