@@ -999,20 +999,26 @@ pub fn evaluate(s: &Scenario, r: RangeResult) -> Result<f64, String> {
     evaluate_all(s, &[r]).remove(0)
 }
 
-/// Each of `results` for one scenario, running each part it needs once (the shelter's two
-/// results come from one shelter run).
+/// Each of `results` for one scenario, running each part it needs once (the steady stack
+/// serves the R-value and the winter; the shelter's two results come from one shelter run).
 pub fn evaluate_all(s: &Scenario, results: &[RangeResult]) -> Vec<Result<f64, String>> {
     let msg = |e: InputErrors| e.to_string();
+    let mut steady: Option<Result<crate::scenario::Computed, String>> = None;
     let mut shelter: Option<Result<crate::scenario_shelter::ShelterReport, String>> = None;
     results
         .iter()
         .map(|&r| match r {
-            RangeResult::RValue => crate::scenario::compute(s)
+            RangeResult::RValue => steady
+                .get_or_insert_with(|| crate::scenario::compute(s).map_err(msg))
+                .as_ref()
                 .map(|c| c.result.r_total_m2k_per_w)
-                .map_err(msg),
+                .map_err(Clone::clone),
             RangeResult::FrostDepth => {
                 let w = s.winter.as_ref().ok_or("the scenario has no winter")?;
-                let c = crate::scenario::compute(s).map_err(msg)?;
+                let c = steady
+                    .get_or_insert_with(|| crate::scenario::compute(s).map_err(msg))
+                    .as_ref()
+                    .map_err(Clone::clone)?;
                 crate::scenario_winter::run_winter(w, &c.result.stack, &s.layers)
                     .map(|r| r.max_frost_depth_m)
                     .map_err(msg)
