@@ -4,8 +4,8 @@
 //! passes and conjugate-gradient iterations per step. Run: `cargo bench --bench
 //! design_winter_2d`.
 
-use hibernal::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::edge2d::run_edge;
+use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+use hibernal::physics::edge2d::run_edge;
 use std::time::Instant;
 
 fn main() {

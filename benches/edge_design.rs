@@ -1,11 +1,11 @@
-//! Benchmark: searches of the edge design (`edge2d::design`) on the invented section and
+//! Benchmark: searches of the edge design (`edge2d::least`) on the invented section and
 //! design winter, at the design grid (4 cm cells at the foci) and at a finer one, and on a
 //! coarse trial grid (10 cm). Prints, for each: outcome, answer, runs, cells and wall time.
 //! Run: `cargo bench --bench edge_design`.
 
-use hibernal::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::edge2d::design::{least_edge_value, EdgeQuantity};
-use hibernal::edge2d::{run_edge, AxisSpacing, EdgeSection, Inside};
+use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+use hibernal::physics::edge2d::least::{least_edge_value, EdgeQuantity};
+use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeSection, Inside};
 use std::time::Instant;
 
 fn case(name: &str, s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64, res: f64) {

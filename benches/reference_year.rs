@@ -3,8 +3,8 @@
 //! Prints wall time (median of several runs), iterations per step and cell-updates per
 //! second. Run: `cargo bench --bench reference_year` (or `./build.sh bench`).
 
-use hibernal::transient::reference::reference_year;
-use hibernal::transient::run::run;
+use hibernal::physics::transient::reference::reference_year;
+use hibernal::physics::transient::run::run;
 use std::time::Instant;
 
 fn main() {

@@ -3,12 +3,12 @@
 //! which the time of 200 reference years on workers is estimated.
 //! Run: `cargo bench --bench uncertainty`.
 
-use hibernal::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use hibernal::stack::{Boundary, Layer, Stack};
-use hibernal::steady;
-use hibernal::transient::reference::reference_year;
-use hibernal::transient::run::run;
-use hibernal::uncertainty::{monte_carlo, sample_at, Distribution, UncertainInput};
+use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use hibernal::physics::ranges::{monte_carlo, sample_at, Distribution, UncertainInput};
+use hibernal::physics::stack::{Boundary, Layer, Stack};
+use hibernal::physics::steady;
+use hibernal::physics::transient::reference::reference_year;
+use hibernal::physics::transient::run::run;
 use std::time::Instant;
 
 fn stack(density: f64) -> Stack {

@@ -6,9 +6,9 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use crate::materials::Family;
+use crate::physics::materials::Family;
+use crate::physics::units::{quantity, UnitSystem};
 use crate::scenario::Computed;
-use crate::units::{quantity, UnitSystem};
 
 /// Errors from drawing (the backend's message).
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]

@@ -7,7 +7,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 
 use crate::chart::{chart_scale, err, svg_document, ChartError};
-use crate::units::{quantity, UnitSystem};
+use crate::physics::units::{quantity, UnitSystem};
 
 /// What an outline is, for its stroke and fill.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -4,7 +4,7 @@
 //! input at its low and its high end). Written once against plotters' generic
 //! [`DrawingBackend`], like [`crate::chart`]. The inputs are plain data
 //! ([`SpreadChart`], [`SensitivityChart`]) and know nothing of the scenario document: all
-//! values are SI and `quantity` names the unit they are shown in ([`crate::units`]).
+//! values are SI and `quantity` names the unit they are shown in ([`crate::physics::units`]).
 //!
 //! No data never fails: an empty chart draws its axes and a note. Values that are not
 //! finite, or beyond [`LARGEST_DRAWN`] in the unit shown, are skipped.
@@ -16,15 +16,15 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 use crate::chart::{
     chart_scale, err, padded_range, svg_document, tick, tick_decimals, ChartError, BAND, INK,
 };
-use crate::uncertainty::percentile_sorted;
-use crate::units::{quantity, Quantity, UnitSystem};
+use crate::physics::ranges::percentile_sorted;
+use crate::physics::units::{quantity, Quantity, UnitSystem};
 
 /// One result's spread, for a chart.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct SpreadChart<'a> {
     /// The result's name, the chart's caption and its x axis, e.g. "Deepest frost".
     pub title: &'a str,
-    /// A units quantity id ([`crate::units::quantity`]): "depth", "temperature",
+    /// A units quantity id ([`crate::physics::units::quantity`]): "depth", "temperature",
     /// "r_value", …
     pub quantity: &'a str,
     /// The Monte Carlo values (SI), any order; values that are not finite are skipped.

@@ -5,10 +5,10 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::climate::{design_freezing_index, DailySeries, DesignOptions};
 use crate::climate_csv::{
     read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, LineProblem, TemperatureUnit,
 };
+use crate::physics::climate::{design_freezing_index, DailySeries, DesignOptions};
 use crate::scenario::ErrorDoc;
 use crate::scenario_winter::DayDoc;
 
@@ -273,7 +273,7 @@ pub fn summarise_days(
     let mut errors = Vec::new();
     for (i, d) in days.iter().enumerate() {
         match chrono::NaiveDate::parse_from_str(&d.date, "%Y-%m-%d") {
-            Ok(date) => records.push(crate::climate::DayRecord {
+            Ok(date) => records.push(crate::physics::climate::DayRecord {
                 date,
                 mean_air_c: d.mean_air_c,
                 snow_depth_m: d.snow_depth_m,

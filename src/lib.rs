@@ -8,18 +8,7 @@
 //! winters' freezing indices and design values), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32
 //! only).
 
-pub mod analytic;
-pub mod climate;
-pub mod design;
-pub mod edge2d;
-pub mod error;
-pub mod materials;
-pub mod shelter;
-pub mod stack;
-pub mod steady;
-pub mod transient;
-pub mod uncertainty;
-pub mod units;
+pub mod physics;
 
 pub mod chart;
 pub mod chart_field;

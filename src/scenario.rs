@@ -15,10 +15,12 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::error::{InputError, InputErrorKind, InputErrors, Warning};
-use crate::materials::{Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use crate::stack::{Boundary, Layer, Stack};
-use crate::steady::{self, SnowBand, SteadyResult};
+use crate::physics::error::{InputError, InputErrorKind, InputErrors, Warning};
+use crate::physics::materials::{
+    Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture,
+};
+use crate::physics::stack::{Boundary, Layer, Stack};
+use crate::physics::steady::{self, SnowBand, SteadyResult};
 
 /// The `format` tag every scenario carries.
 pub const FORMAT_TAG: &str = "hibernal-scenario";
@@ -715,8 +717,8 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
         title: s.title.clone(),
         r_total_m2k_w: r.r_total_m2k_per_w,
         r_layers_m2k_w: r.r_layers_m2k_per_w,
-        r_total_ft2_f_h_btu: r.r_total_m2k_per_w * crate::units::R_US_PER_R_SI,
-        r_layers_ft2_f_h_btu: r.r_layers_m2k_per_w * crate::units::R_US_PER_R_SI,
+        r_total_ft2_f_h_btu: r.r_total_m2k_per_w * crate::physics::units::R_US_PER_R_SI,
+        r_layers_ft2_f_h_btu: r.r_layers_m2k_per_w * crate::physics::units::R_US_PER_R_SI,
         u_w_m2k: r.u_w_per_m2_k,
         heat_flux_w_m2: r.heat_flux_w_per_m2,
         top: face(&r.top),
@@ -820,8 +822,8 @@ pub fn example(id: &str) -> Option<&'static Example> {
 /// The steady temperature profile as CSV (the points the profile chart draws): depth below
 /// the top face and temperature, with the band across snow regressions (lowest, highest)
 /// where the stack has snow; units in the header, in the system chosen.
-pub fn profile_csv(c: &Computed, sys: crate::units::UnitSystem) -> String {
-    use crate::units::quantity;
+pub fn profile_csv(c: &Computed, sys: crate::physics::units::UnitSystem) -> String {
+    use crate::physics::units::quantity;
     let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
         return String::new();
     };

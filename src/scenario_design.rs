@@ -1,19 +1,20 @@
 //! The `least_thickness` part of a winter section: which layer's thickness to search, the
 //! limit frost must stay above, and the range to search; the search run a slice at a time
-//! (`DesignJob`) and its report. The search itself is [`crate::design`].
+//! (`DesignJob`) and its report. The search itself is [`crate::physics::least`].
 
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::climate::Climate;
-use crate::design::{
+use crate::physics::climate::Climate;
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::least::{
     limit_depth_m, with_layer_thickness, DesignAnswer, FrostLimit, Search, Searcher, Trial,
 };
-use crate::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::stack::ResolvedStack;
+use crate::physics::transient::run::{self};
+use crate::physics::transient::setup::RunSpec;
 use crate::scenario::LayerDoc;
 use crate::scenario_winter::WinterDoc;
-use crate::stack::ResolvedStack;
-use crate::transient::run::{self, RunSpec};
 
 /// Find the least thickness of one layer that keeps frost above a limit through the
 /// winter.
@@ -182,7 +183,7 @@ pub struct DesignJob {
     current: Option<(f64, run::Run)>,
 }
 
-fn run_error(e: crate::transient::TransientError) -> InputErrors {
+fn run_error(e: crate::physics::transient::TransientError) -> InputErrors {
     InputErrors::from(InputError::new(
         "winter",
         InputErrorKind::NotCovered(e.to_string()),
@@ -291,7 +292,7 @@ impl DesignJob {
     /// R = t / k of the sized layer when it is an insulation board (constant k).
     fn board_r_value(&self, thickness_m: f64) -> Option<f64> {
         let m = self.spec.materials.get(self.layer)?;
-        if m.family != crate::materials::Family::Insulation {
+        if m.family != crate::physics::materials::Family::Insulation {
             return None;
         }
         let k = m.conductivity.k(0.0);

@@ -1,5 +1,5 @@
 //! The `edge` section of the scenario document (format version 4): a vertical cross-section
-//! through the edge of a slab-on-grade building ([`crate::edge2d`]) run through a winter, the
+//! through the edge of a slab-on-grade building ([`crate::physics::edge2d`]) run through a winter, the
 //! far-field soil column run by the 1D winter machinery beside it, and the report of both.
 //! Edge module (serde). The section stands on its own, like the shelter: it reads neither
 //! `layers` nor `top` nor `bottom`.
@@ -7,21 +7,22 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::analytic;
 use crate::chart_field::{Outline, OutlineKind};
-use crate::climate::Climate;
-use crate::edge2d::{
+use crate::physics::analytic;
+use crate::physics::climate::Climate;
+use crate::physics::edge2d::{
     AxisSpacing, Board, EdgeError, EdgeField, EdgeRun, EdgeSection, FoundationWall, Inside,
     Outside, Region, Slab, SoilBand, StartTemperature, WallBoard, Wing,
 };
-use crate::error::{check, InputError, InputErrorKind, InputErrors};
-use crate::materials::{Material, MaterialSpec};
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::materials::{Material, MaterialSpec};
+use crate::physics::stack::{Boundary, Layer, Stack};
+use crate::physics::transient::run::Progress;
+use crate::physics::transient::setup::Forcing;
 use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc};
 use crate::scenario_winter::{
     ClimateDoc, DeepDoc, HandMethodRow, InitialDoc, SurfaceDoc, WinterDoc, WinterJob, WinterReport,
 };
-use crate::stack::{Boundary, Layer, Stack};
-use crate::transient::run::{Forcing, Progress};
 
 const DAY: f64 = 86_400.0;
 
@@ -202,7 +203,7 @@ fn board_of(
     thickness_m: f64,
     field: &str,
     errs: &mut InputErrors,
-    warnings: &mut Vec<crate::error::Warning>,
+    warnings: &mut Vec<crate::physics::error::Warning>,
 ) -> Option<(Board, f64)> {
     let derating = match doc {
         MaterialDoc::Insulation {
@@ -237,7 +238,7 @@ fn material_of(
     doc: &MaterialDoc,
     field: &str,
     errs: &mut InputErrors,
-    warnings: &mut Vec<crate::error::Warning>,
+    warnings: &mut Vec<crate::physics::error::Warning>,
 ) -> Option<Material> {
     match MaterialSpec::from(doc).resolve(field, warnings) {
         Ok(m) => Some(m),
@@ -902,7 +903,7 @@ fn outlines(s: &EdgeSection) -> Vec<OutlineDoc> {
 
 fn build_report(
     s: &EdgeSection,
-    r: crate::edge2d::EdgeResult,
+    r: crate::physics::edge2d::EdgeResult,
     column: WinterReport,
     deratings: Vec<(&'static str, f64)>,
     mut warnings: Vec<ErrorDoc>,
@@ -1077,18 +1078,18 @@ fn hand_rows(
 
 /// Heat per metre of wall: the symbol of the units table's `linear_heat` (W/m, or Btu/h
 /// per foot).
-pub fn linear_heat_symbol(sys: crate::units::UnitSystem) -> &'static str {
-    crate::units::quantity("linear_heat").map_or("W/m", |q| q.unit(sys).symbol)
+pub fn linear_heat_symbol(sys: crate::physics::units::UnitSystem) -> &'static str {
+    crate::physics::units::quantity("linear_heat").map_or("W/m", |q| q.unit(sys).symbol)
 }
 
 /// A heat per metre of wall in the chosen units (the units table's `linear_heat`).
-pub fn linear_heat_shown(sys: crate::units::UnitSystem, w_m: f64) -> f64 {
-    crate::units::quantity("linear_heat").map_or(w_m, |q| q.show(sys, w_m))
+pub fn linear_heat_shown(sys: crate::physics::units::UnitSystem, w_m: f64) -> f64 {
+    crate::physics::units::quantity("linear_heat").map_or(w_m, |q| q.show(sys, w_m))
 }
 
 /// The daily series as CSV text in the chosen units, units in the header.
-pub fn edge_daily_csv(r: &EdgeReport, sys: crate::units::UnitSystem) -> String {
-    use crate::units::quantity;
+pub fn edge_daily_csv(r: &EdgeReport, sys: crate::physics::units::UnitSystem) -> String {
+    use crate::physics::units::quantity;
     let cols: [(&str, &str); 4] = [
         ("air temperature", "temperature"),
         ("frost below footing base", "depth"),
@@ -1123,8 +1124,8 @@ pub fn edge_daily_csv(r: &EdgeReport, sys: crate::units::UnitSystem) -> String {
 /// The kept field nearest `day` as CSV (cell centres x and z, temperature, frozen fraction),
 /// units in the header; a comment line names the day of the field. Empty (header only) when
 /// no field was kept.
-pub fn edge_field_csv(r: &EdgeReport, day: f64, sys: crate::units::UnitSystem) -> String {
-    use crate::units::quantity;
+pub fn edge_field_csv(r: &EdgeReport, day: f64, sys: crate::physics::units::UnitSystem) -> String {
+    use crate::physics::units::quantity;
     let sym = |q: &str, si: &str| quantity(q).map_or(si.to_string(), |q| q.unit(sys).symbol.into());
     let show = |q: &str, v: f64| quantity(q).map_or(v, |q| q.show(sys, v));
     let mut out = String::new();

@@ -1,6 +1,6 @@
 //! `edge.least` (edge module: serde): the search for the least wing width, board R-value or
 //! footing depth that keeps frost at or above the footing base through the edge's winter,
-//! over the 2D solver ([`crate::edge2d::design`]); its sliced job for the page and its
+//! over the 2D solver ([`crate::physics::edge2d::least`]); its sliced job for the page and its
 //! report.
 //!
 //! ```json
@@ -13,12 +13,12 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::edge2d::design::{
+use crate::physics::edge2d::least::{
     EdgeDesignError, EdgeDesignJob, EdgeDesignReport, EdgeQuantity, EdgeTrial,
 };
-use crate::error::{InputError, InputErrorKind, InputErrors};
+use crate::physics::error::{InputError, InputErrorKind, InputErrors};
+use crate::physics::transient::run::Progress;
 use crate::scenario_edge::EdgeDoc;
-use crate::transient::run::Progress;
 
 /// What the search varies.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, JsonSchema)]

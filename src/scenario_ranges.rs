@@ -1,7 +1,7 @@
 //! The ranges section of the scenario document (format version 5): how sure the answers
 //! are. Inputs the user marks as uncertain get a range and a spread; the main results of
 //! the scenario's parts get P10, P50 and P90 from a Monte Carlo over those inputs
-//! ([`crate::uncertainty`]), the spread across the snow regressions for the base case, and
+//! ([`crate::physics::ranges`]), the spread across the snow regressions for the base case, and
 //! a one-at-a-time sensitivity study.
 //!
 //! **The work as tasks.** A study is a list of independent tasks ([`RangesPlan::task`]):
@@ -20,11 +20,11 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::error::{InputError, InputErrorKind, InputErrors};
-use crate::materials::SnowCorrelation;
+use crate::physics::error::{InputError, InputErrorKind, InputErrors};
+use crate::physics::materials::SnowCorrelation;
+use crate::physics::ranges::{self, Distribution, MonteCarloJob, UncertainInput};
 use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc, Scenario};
 use crate::scenario_winter::{ClimateDoc, SurfaceDoc};
-use crate::uncertainty::{self, Distribution, MonteCarloJob, UncertainInput};
 
 /// Runs when the section does not say.
 pub const DEFAULT_RUNS: usize = 200;
@@ -270,8 +270,8 @@ fn climate_days(c: &ClimateDoc) -> Vec<f64> {
             .map(|d| {
                 // The mean over day d (t from d to d + 1 days) of the climate's
                 // T = mean − A cos(2π(t − t_c)/365), coldest at noon of its day of the
-                // year, t_c = day − ½ ([`crate::climate::Climate::air_temperature_c`]).
-                let w = 2.0 * std::f64::consts::PI / crate::climate::DAYS_PER_YEAR;
+                // year, t_c = day − ½ ([`crate::physics::climate::Climate::air_temperature_c`]).
+                let w = 2.0 * std::f64::consts::PI / crate::physics::climate::DAYS_PER_YEAR;
                 let a = w * (d as f64 - (f64::from(*coldest_day_of_year) - 0.5));
                 mean_c - amplitude_k * ((a + w).sin() - a.sin()) / w
             })
@@ -282,14 +282,14 @@ fn climate_days(c: &ClimateDoc) -> Vec<f64> {
 }
 
 /// The air freezing index of a climate, °C·days (the largest fall of the cumulative
-/// degree-day curve, [`crate::climate::freezing_index_c_days`]).
+/// degree-day curve, [`crate::physics::climate::freezing_index_c_days`]).
 pub fn climate_freezing_index(c: &ClimateDoc) -> f64 {
     match c {
         ClimateDoc::DesignWinter {
             freezing_index_c_days,
             ..
         } => *freezing_index_c_days,
-        other => crate::climate::freezing_index_c_days(&climate_days(other)),
+        other => crate::physics::climate::freezing_index_c_days(&climate_days(other)),
     }
 }
 
@@ -308,7 +308,7 @@ fn set_freezing_index(c: &mut ClimateDoc, fi: f64) -> Result<(), String> {
     let days = climate_days(c);
     let fi_at = |dt: f64| {
         let shifted: Vec<f64> = days.iter().map(|t| t + dt).collect();
-        crate::climate::freezing_index_c_days(&shifted)
+        crate::physics::climate::freezing_index_c_days(&shifted)
     };
     let (mut warm, mut cold) = (80.0_f64, -80.0_f64);
     if fi_at(cold) < fi || fi_at(warm) > fi {
@@ -776,7 +776,7 @@ impl RangesPlan {
 
     /// The input values of Monte Carlo sample `i`, SI.
     pub fn sample(&self, i: usize) -> Vec<f64> {
-        uncertainty::sample_at(&self.inputs, self.doc.seed, i as u64)
+        ranges::sample_at(&self.inputs, self.doc.seed, i as u64)
     }
 
     /// The scenario task `k` runs.
@@ -1208,12 +1208,12 @@ pub struct RangesReport {
 
 // ------------------------------------------------------------------ CSV
 
-fn unit_symbol(q: &str, sys: crate::units::UnitSystem) -> String {
-    crate::units::quantity(q).map_or_else(String::new, |q| q.unit(sys).symbol.to_string())
+fn unit_symbol(q: &str, sys: crate::physics::units::UnitSystem) -> String {
+    crate::physics::units::quantity(q).map_or_else(String::new, |q| q.unit(sys).symbol.to_string())
 }
 
-fn shown(q: &str, sys: crate::units::UnitSystem, v: f64) -> String {
-    match crate::units::quantity(q) {
+fn shown(q: &str, sys: crate::physics::units::UnitSystem, v: f64) -> String {
+    match crate::physics::units::quantity(q) {
         Some(q) => {
             let places = usize::from(q.unit(sys).decimals) + 2;
             format!("{:.places$}", q.show(sys, v))
@@ -1222,7 +1222,7 @@ fn shown(q: &str, sys: crate::units::UnitSystem, v: f64) -> String {
     }
 }
 
-fn heading(name: &str, q: &str, sys: crate::units::UnitSystem) -> String {
+fn heading(name: &str, q: &str, sys: crate::physics::units::UnitSystem) -> String {
     let sym = unit_symbol(q, sys);
     let h = if sym.is_empty() {
         name.to_string()
@@ -1242,7 +1242,7 @@ fn csv_field(s: &str) -> String {
 
 /// Every Monte Carlo run as CSV: run number, the seed, each input and each result (units
 /// in the headings; a failed result is left empty).
-pub fn trials_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
+pub fn trials_csv(r: &RangesReport, sys: crate::physics::units::UnitSystem) -> String {
     let mut out = String::from("run,seed");
     for i in &r.inputs {
         out.push(',');
@@ -1272,7 +1272,7 @@ pub fn trials_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
 
 /// One row per result: the base case, P10, P50, P90, mean, sd, min, max, the runs, the
 /// seed and the spread across the snow regressions (units in the unit column).
-pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
+pub fn summary_csv(r: &RangesReport, sys: crate::physics::units::UnitSystem) -> String {
     let mut out = String::from(
         "result,unit,base case,P10,P50,P90,mean,sd,min,max,runs,failed runs,seed,regressions low,regressions high,runs past the limit,past the limit means\n",
     );
@@ -1282,7 +1282,7 @@ pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
         // A spread is a difference: no offset.
         let sd = res
             .sd
-            .map_or_else(String::new, |v| match crate::units::quantity(q) {
+            .map_or_else(String::new, |v| match crate::physics::units::quantity(q) {
                 Some(qq) => {
                     let places = usize::from(qq.unit(sys).decimals) + 2;
                     format!("{:.places$}", qq.show(sys, v) - qq.show(sys, 0.0))
@@ -1321,7 +1321,7 @@ pub fn summary_csv(r: &RangesReport, sys: crate::units::UnitSystem) -> String {
 /// across the snow regressions, with the runs, the seed and the time taken.
 pub fn summary_text(
     r: &RangesReport,
-    sys: crate::units::UnitSystem,
+    sys: crate::physics::units::UnitSystem,
     took: std::time::Duration,
 ) -> String {
     let mut out = format!(

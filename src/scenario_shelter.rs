@@ -1,7 +1,7 @@
 //! The shelter section of the scenario document (format version 3): a snow shelter, the
 //! weather and the people in it, the night to follow and the design questions, and the
 //! report of all of it. Edge module (serde): it converts to and from the plain structs of
-//! [`crate::shelter`], which knows nothing of serde.
+//! [`crate::physics::shelter`], which knows nothing of serde.
 //!
 //! The section stands on its own: it does not read the document's `layers`, `top` and
 //! `bottom`, which keep their meaning (a steady stack; in the bundled shelter examples a
@@ -12,13 +12,13 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::error::{check, InputError, InputErrorKind, InputErrors, Warning};
-use crate::scenario::{ErrorDoc, SnowCorrelationDoc};
-use crate::shelter::{
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
+use crate::physics::shelter::{
     self, Activity, Conditions, Entrance, ExposedFace, Floor, NightSettings, NotReachableReason,
     Shape, Shelter, ShelterError, SweepPoint, ThicknessAnswer,
 };
-use crate::units::{quantity, UnitSystem};
+use crate::physics::units::{quantity, UnitSystem};
+use crate::scenario::{ErrorDoc, SnowCorrelationDoc};
 
 /// Field path of the shape (the core names the shape's own fields under `shelter.`; the
 /// document nests them under `shelter.shape.`, see [`shape_path`]).
@@ -464,7 +464,7 @@ impl ShelterDoc {
             "°C",
         );
         let s = &self.sweeps;
-        let (lo, hi) = shelter::design::SEARCH_THICKNESS_M;
+        let (lo, hi) = shelter::least::SEARCH_THICKNESS_M;
         let a = check::within(
             errs,
             "shelter.sweeps.thickness_m",
@@ -797,7 +797,7 @@ fn least_wall(doc: &ShelterDoc, a: ThicknessAnswer, field: String) -> LeastWallD
         } => {
             d.answer = "not-reachable";
             d.interior_c = Some(best_interior_c);
-            let max_t = shelter::design::SEARCH_THICKNESS_M.1;
+            let max_t = shelter::least::SEARCH_THICKNESS_M.1;
             d.message = match reason {
                 NotReachableReason::MeltLimit => {
                     d.reason = Some("melt-limit");

@@ -4,16 +4,17 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::analytic;
-use crate::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
-use crate::error::{check, InputError, InputErrorKind, InputErrors};
-use crate::materials::Material;
+use crate::physics::analytic;
+use crate::physics::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::materials::Material;
+use crate::physics::stack::ResolvedStack;
+use crate::physics::transient::grid::GridSpec;
+use crate::physics::transient::phase::UnfrozenWater;
+use crate::physics::transient::run::{self, RunResult};
+use crate::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
+use crate::physics::transient::BottomCondition;
 use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc, SnowCorrelationDoc};
-use crate::stack::ResolvedStack;
-use crate::transient::grid::GridSpec;
-use crate::transient::phase::UnfrozenWater;
-use crate::transient::run::{self, Forcing, Initial, RunResult, RunSpec, TopModel};
-use crate::transient::BottomCondition;
 
 /// Most cells a winter run may use.
 pub const MAX_CELLS: usize = 2000;
@@ -398,7 +399,7 @@ impl WinterDoc {
             max_cell_m: g.max_cell_m,
         };
         let thicknesses: Vec<f64> = stack.layers.iter().map(|l| l.thickness_m).collect();
-        let cells: usize = crate::transient::grid::faces(&thicknesses, &grid)
+        let cells: usize = crate::physics::transient::grid::faces(&thicknesses, &grid)
             .iter()
             .map(|f| f.len() - 1)
             .sum();
@@ -436,7 +437,7 @@ impl WinterDoc {
 /// One day of the winter report: values at the end of the day, except the ground heat flux,
 /// which is its mean over the day that ends then (the flux swings within a day when the air
 /// steps from one daily value to the next; the mean is the heat the day moved). Day 0's
-/// flux is the flux at the start (see [`crate::transient::run::Sample`]).
+/// flux is the flux at the start (see [`crate::physics::transient::run::Sample`]).
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct WinterDay {
     pub day: f64,
@@ -693,7 +694,7 @@ pub struct WinterJob {
     climate_mean_c: f64,
 }
 
-fn run_error(e: crate::transient::TransientError) -> InputErrors {
+fn run_error(e: crate::physics::transient::TransientError) -> InputErrors {
     InputErrors::from(InputError::new(
         "winter",
         InputErrorKind::NotCovered(e.to_string()),
@@ -881,13 +882,13 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
 
 /// The daily series as CSV text in SI, units in the header.
 pub fn daily_csv(r: &WinterReport) -> String {
-    daily_csv_in(r, crate::units::UnitSystem::Si)
+    daily_csv_in(r, crate::physics::units::UnitSystem::Si)
 }
 
 /// The daily series as CSV text in the chosen units, units in the header. Values carry a
 /// few more decimals than the page shows, so a spreadsheet can redo its sums.
-pub fn daily_csv_in(r: &WinterReport, sys: crate::units::UnitSystem) -> String {
-    use crate::units::quantity;
+pub fn daily_csv_in(r: &WinterReport, sys: crate::physics::units::UnitSystem) -> String {
+    use crate::physics::units::quantity;
     let cols: [(&str, &str); 6] = [
         ("air temperature", "temperature"),
         ("surface temperature", "temperature"),
@@ -926,8 +927,8 @@ pub fn daily_csv_in(r: &WinterReport, sys: crate::units::UnitSystem) -> String {
 /// The daily profiles of a winter run as CSV: one row per kept profile (the day of the
 /// run, then the temperature of each cell), one column per cell centre, its depth and
 /// both units in the header.
-pub fn profiles_csv(w: &WinterReport, sys: crate::units::UnitSystem) -> String {
-    use crate::units::quantity;
+pub fn profiles_csv(w: &WinterReport, sys: crate::physics::units::UnitSystem) -> String {
+    use crate::physics::units::quantity;
     let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
         return String::new();
     };

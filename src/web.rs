@@ -5,10 +5,10 @@
 use serde::Serialize;
 use wasm_bindgen::prelude::*;
 
-use crate::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use crate::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use crate::physics::stack::SURFACE_PRESETS;
+use crate::physics::units::{UnitSystem, QUANTITIES};
 use crate::scenario::{self, ErrorDoc};
-use crate::stack::SURFACE_PRESETS;
-use crate::units::{UnitSystem, QUANTITIES};
 
 /// The unit system a page string names (SI for anything else).
 fn units(id: &str) -> UnitSystem {
@@ -136,7 +136,7 @@ struct Catalogue {
 /// Everything the page offers to choose from, with sources, and the unit table.
 #[wasm_bindgen]
 pub fn catalogue() -> JsValue {
-    let unit = |u: &crate::units::UnitDef| UnitInfo {
+    let unit = |u: &crate::physics::units::UnitDef| UnitInfo {
         symbol: u.symbol,
         factor: u.factor,
         offset: u.offset,
@@ -208,7 +208,7 @@ pub fn catalogue() -> JsValue {
         .into_iter()
         .map(|(id, name)| IdName { id, name })
         .collect(),
-        n_factor_presets: crate::climate::Surface::ALL
+        n_factor_presets: crate::physics::climate::Surface::ALL
             .iter()
             .map(|s| NFactorInfo {
                 id: s.id(),
@@ -227,7 +227,7 @@ pub fn catalogue() -> JsValue {
         .into_iter()
         .map(|(id, name)| IdName { id, name })
         .collect(),
-        activities: crate::shelter::Activity::ALL
+        activities: crate::physics::shelter::Activity::ALL
             .iter()
             .map(|a| ActivityInfo {
                 id: a.id(),
@@ -436,9 +436,9 @@ pub fn benchmark_reference_year() -> JsValue {
             .and_then(|w| w.performance())
             .map_or(0.0, |p| p.now())
     };
-    let (spec, forcing) = crate::transient::reference::reference_year();
+    let (spec, forcing) = crate::physics::transient::reference::reference_year();
     let t0 = now();
-    let r = crate::transient::run::run(&spec, &forcing);
+    let r = crate::physics::transient::run::run(&spec, &forcing);
     let ms = now() - t0;
     match r {
         Ok(r) => to_js(&BenchOutcome {
@@ -524,7 +524,12 @@ fn advance_for<J>(
     job: &mut Option<J>,
     errors: &mut Vec<ErrorDoc>,
     budget_ms: f64,
-    mut step: impl FnMut(&mut J) -> Result<crate::transient::run::Progress, crate::error::InputErrors>,
+    mut step: impl FnMut(
+        &mut J,
+    ) -> Result<
+        crate::physics::transient::run::Progress,
+        crate::physics::error::InputErrors,
+    >,
 ) -> Option<J> {
     let t0 = clock_ms();
     let budget = if budget_ms.is_finite() {
@@ -551,7 +556,7 @@ fn advance_for<J>(
 
 /// `{ok, fraction, finished, errors?}` of a sliced job.
 fn step_outcome(
-    running: &Option<crate::transient::run::Progress>,
+    running: &Option<crate::physics::transient::run::Progress>,
     finished: bool,
     errors: &[ErrorDoc],
 ) -> JsValue {
@@ -782,7 +787,7 @@ impl WinterRun {
 /// that stop it: the scenario unreadable, no edge section, or the section's own.
 fn edge_job<J>(
     scenario_value: JsValue,
-    make: impl FnOnce(&crate::scenario_edge::EdgeDoc) -> Result<J, crate::error::InputErrors>,
+    make: impl FnOnce(&crate::scenario_edge::EdgeDoc) -> Result<J, crate::physics::error::InputErrors>,
 ) -> Result<J, Vec<ErrorDoc>> {
     let s = read_scenario(scenario_value)?;
     let Some(d) = &s.edge else {

@@ -4,7 +4,7 @@
 mod common;
 use common::*;
 
-use hibernal::analytic::*;
+use hibernal::physics::analytic::*;
 use serde_json::Value;
 
 const DAY: f64 = 86_400.0;

@@ -15,8 +15,8 @@ use hibernal::chart_ranges::{
     draw_sensitivity, draw_spread, histogram, pack_labels, sensitivity_svg, spread_svg, Histogram,
     SensitivityChart, SpreadChart, LARGEST_DRAWN, MAX_BINS, MIN_BINS,
 };
-use hibernal::uncertainty::Pcg32;
-use hibernal::units::UnitSystem;
+use hibernal::physics::ranges::Pcg32;
+use hibernal::physics::units::UnitSystem;
 use plotters::prelude::*;
 use proptest::prelude::*;
 

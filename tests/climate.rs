@@ -5,15 +5,15 @@ mod common;
 use common::*;
 
 use chrono::NaiveDate;
-use hibernal::climate::{
+use hibernal::climate_csv::{
+    read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, TemperatureUnit, MAX_CSV_BYTES,
+    MAX_REPORTED_PROBLEMS,
+};
+use hibernal::physics::climate::{
     design_freezing_index, design_winter_amplitudes_k, freezing_degree_days_sum,
     freezing_index_c_days, sinusoid_freezing_index_c_days, surface_freezing_index_c_days,
     thawing_index_c_days, Climate, DailySeries, DayRecord, DesignOptions, Surface, MAX_SERIES_DAYS,
     SECONDS_PER_DAY,
-};
-use hibernal::climate_csv::{
-    read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, TemperatureUnit, MAX_CSV_BYTES,
-    MAX_REPORTED_PROBLEMS,
 };
 use proptest::prelude::*;
 use std::f64::consts::PI;
@@ -933,9 +933,9 @@ fn a_record_brought_into_a_scenario_carries_its_winters_and_design_values() {
         },
     )
     .unwrap();
-    let d = hibernal::climate::design_freezing_index(
+    let d = hibernal::physics::climate::design_freezing_index(
         &direct.series,
-        &hibernal::climate::DesignOptions::default(),
+        &hibernal::physics::climate::DesignOptions::default(),
     )
     .unwrap();
     let design = s
@@ -991,7 +991,7 @@ fn a_bad_record_is_refused_line_by_line_and_a_bad_unit_by_its_option() {
 
 // ------------------------------------------------------------- snow season, annual wave
 
-use hibernal::climate::{fit_annual_wave, SnowSeason};
+use hibernal::physics::climate::{fit_annual_wave, SnowSeason};
 
 fn season(start: f64, peak: f64, end: f64) -> SnowSeason {
     SnowSeason {
@@ -1061,7 +1061,7 @@ fn a_snow_season_rises_and_falls_linearly_and_wraps_over_the_year_end() {
 #[test]
 fn a_snow_season_out_of_range_is_refused_naming_the_field() {
     let field = |s: SnowSeason| {
-        let mut errs = hibernal::error::InputErrors::default();
+        let mut errs = hibernal::physics::error::InputErrors::default();
         s.validate("winter.climate.snow", &mut errs);
         errs.0.into_iter().map(|e| e.field).collect::<Vec<_>>()
     };

@@ -4,14 +4,15 @@
 mod common;
 use common::*;
 
-use hibernal::analytic::stefan_depth_with_resistance_m;
-use hibernal::design::{
+use hibernal::physics::analytic::stefan_depth_with_resistance_m;
+use hibernal::physics::least::{
     least_layer_thickness, least_value, DesignAnswer, FrostLimit, Search, Trial,
 };
-use hibernal::materials::{Branch, ConductivityLaw, Family, Material};
-use hibernal::transient::grid::GridSpec;
-use hibernal::transient::run::{run, Forcing, Initial, RunSpec, TopModel};
-use hibernal::transient::BottomCondition;
+use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
+use hibernal::physics::transient::grid::GridSpec;
+use hibernal::physics::transient::run::run;
+use hibernal::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
+use hibernal::physics::transient::BottomCondition;
 
 const DAY: f64 = 86_400.0;
 

@@ -4,15 +4,15 @@
 mod common;
 use common::*;
 
-use hibernal::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::edge2d::{
+use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+use hibernal::physics::edge2d::{
     run_edge, AxisSpacing, EdgeRun, EdgeSection, Inside, Outside, Plane, StartTemperature, TopFace,
 };
-use hibernal::materials::{Branch, ConductivityLaw, Family, Material};
-use hibernal::transient::grid::{self, GridSpec};
-use hibernal::transient::phase::{Phase, UnfrozenWater};
-use hibernal::transient::run::{Forcing, SinusoidalYear};
-use hibernal::transient::{cells_for, BottomCondition, Solver, TopCondition};
+use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
+use hibernal::physics::transient::grid::{self, GridSpec};
+use hibernal::physics::transient::phase::{Phase, UnfrozenWater};
+use hibernal::physics::transient::setup::{Forcing, SinusoidalYear};
+use hibernal::physics::transient::{cells_for, BottomCondition, Solver, TopCondition};
 
 const DAY: f64 = 86_400.0;
 
@@ -289,7 +289,7 @@ fn far_field_column_follows_the_neumann_solution() {
         p.latent_j_m3,
     );
     let mut s = design_winter_section();
-    s.soil = vec![hibernal::edge2d::SoilBand {
+    s.soil = vec![hibernal::physics::edge2d::SoilBand {
         thickness_m: 12.0,
         material: soil,
         curve: None,
@@ -395,16 +395,15 @@ fn non_convergence_is_an_error() {
     let mut run = EdgeRun::new(&s, "edge").unwrap();
     let climate = design_winter_climate();
     // One pass and no split allowed: a freezing winter step cannot converge in that.
-    run.set_tolerances(hibernal::edge2d::PlaneTolerances {
+    run.set_tolerances(hibernal::physics::edge2d::PlaneTolerances {
         max_iterations: 1,
         min_step_fraction: 0.9,
         ..Default::default()
     });
     match run.advance(&climate, usize::MAX) {
-        Err(hibernal::edge2d::EdgeError::Solver(hibernal::edge2d::PlaneError::NoConvergence {
-            residual,
-            ..
-        })) => assert!(residual > 1e-3),
+        Err(hibernal::physics::edge2d::EdgeError::Solver(
+            hibernal::physics::edge2d::PlaneError::NoConvergence { residual, .. },
+        )) => assert!(residual > 1e-3),
         other => panic!("expected no convergence, got {other:?}"),
     }
 }

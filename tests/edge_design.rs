@@ -1,4 +1,4 @@
-//! Inverse design at the edge (`edge2d::design`): the least wing, board or footing depth
+//! Inverse design at the edge (`edge2d::least`): the least wing, board or footing depth
 //! that keeps frost at or above the footing's base, each trial a 2D winter run.
 //!
 //! The runs use a coarse grid (10 cm cells at the foci growing by 1.35 up to 1 m, about
@@ -6,9 +6,9 @@
 //! in release; the orderings and the agreement with a scan checked here hold on any grid,
 //! and the design grid's own error is studied in tests/edge2d.rs.
 
-use hibernal::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::edge2d::design::*;
-use hibernal::edge2d::{run_edge, AxisSpacing, EdgeSection, Inside};
+use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+use hibernal::physics::edge2d::least::*;
+use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeSection, Inside};
 
 const DAY: f64 = 86_400.0;
 /// The resolution where the answer's own precision is checked, m.
@@ -121,7 +121,7 @@ fn the_search_agrees_with_a_scan() {
     println!("scan {scan:?}");
     for w in scan.windows(2) {
         assert!(
-            w[1].1 <= w[0].1 + hibernal::design::MONOTONE_NOISE_M,
+            w[1].1 <= w[0].1 + hibernal::physics::least::MONOTONE_NOISE_M,
             "{w:?}"
         );
     }
@@ -366,7 +366,7 @@ fn a_harsher_winter_needs_no_less() {
     assert!(v(&mild) <= v(&base) + COARSE_RES && v(&base) <= v(&harsh) + COARSE_RES);
     assert!(v(&harsh) > v(&mild));
     // Only a design winter scales.
-    let series = hibernal::climate::Climate::Sinusoid {
+    let series = hibernal::physics::climate::Climate::Sinusoid {
         mean_c: 0.0,
         amplitude_k: 10.0,
         coldest_day_of_year: 30,

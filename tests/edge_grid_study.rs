@@ -2,8 +2,8 @@
 //! `cargo test --release --test edge_grid_study -- --ignored --nocapture`). The figures are
 //! in DEVELOPERS.md, "The edge scenario".
 
-use hibernal::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::edge2d::{run_edge, AxisSpacing, Inside};
+use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+use hibernal::physics::edge2d::{run_edge, AxisSpacing, Inside};
 
 #[test]
 #[ignore]

@@ -5,11 +5,11 @@
 mod common;
 use common::*;
 
+use hibernal::physics::units::UnitSystem;
 use hibernal::scenario;
 use hibernal::scenario_edge::{
     edge_daily_csv, edge_field_csv, run_edge_scenario, EdgeDoc, EdgeJob, EdgeReport,
 };
-use hibernal::units::UnitSystem;
 use serde_json::{json, Value};
 use std::process::Command;
 
@@ -32,7 +32,7 @@ fn doc(v: &Value) -> EdgeDoc {
     scenario::from_value(v.clone()).unwrap().edge.unwrap()
 }
 
-fn fields(e: &hibernal::error::InputErrors) -> Vec<String> {
+fn fields(e: &hibernal::physics::error::InputErrors) -> Vec<String> {
     e.0.iter().map(|x| x.field.clone()).collect()
 }
 

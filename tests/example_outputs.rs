@@ -176,8 +176,8 @@ fn all_outputs() -> BTreeMap<String, Vec<u8>> {
 
 /// The steady profile CSV (the page's download) of an example, in both unit systems.
 fn library_outputs(name: &str, json: &[u8], outputs: &mut BTreeMap<String, Vec<u8>>) {
+    use hibernal::physics::units::UnitSystem;
     use hibernal::scenario;
-    use hibernal::units::UnitSystem;
     let text = std::str::from_utf8(json).expect("utf-8");
     let s = scenario::parse(text).expect("example parses");
     let c = scenario::compute(&s).expect("example computes");

@@ -3,10 +3,10 @@
 mod common;
 use common::*;
 
-use hibernal::error::Warning;
-use hibernal::materials::ice::*;
-use hibernal::materials::soil::{self, SoilInput, SoilModel, Texture};
-use hibernal::materials::{Board, Branch, ConductivityLaw, MaterialSpec, SnowCorrelation};
+use hibernal::physics::error::Warning;
+use hibernal::physics::materials::ice::*;
+use hibernal::physics::materials::soil::{self, SoilInput, SoilModel, Texture};
+use hibernal::physics::materials::{Board, Branch, ConductivityLaw, MaterialSpec, SnowCorrelation};
 
 #[test]
 fn sturm_quadratic_matches_the_published_check_value() {

@@ -6,11 +6,11 @@
 mod common;
 use common::*;
 
+use hibernal::physics::units::UnitSystem;
 use hibernal::scenario::{self, Scenario};
 use hibernal::scenario_ranges::{
     self, evaluate, run_plan, summary_csv, trials_csv, RangeResult, RangedWhat, RangesPlan,
 };
-use hibernal::units::UnitSystem;
 use serde_json::{json, Value};
 
 fn doc(v: Value) -> Scenario {
@@ -183,7 +183,7 @@ fn the_band_across_regressions_holds_every_single_regression_result() {
         assert_eq!(sp.members.len() + sp.skipped.len(), 9);
         // Each regression set by hand in the document (not through the study's own
         // setter) and the result computed by the ordinary path.
-        for c in hibernal::materials::SnowCorrelation::ALL {
+        for c in hibernal::physics::materials::SnowCorrelation::ALL {
             let mut v = serde_json::to_value(&s).unwrap();
             for l in v["layers"].as_array_mut().unwrap() {
                 if l["material"]["kind"] == "snow" {
@@ -247,7 +247,7 @@ fn a_freezing_index_input_gives_the_winter_that_index() {
     let before = scenario_ranges::climate_freezing_index(&s2.winter.as_ref().unwrap().climate);
     assert_rel(
         before,
-        hibernal::climate::freezing_index_c_days(&t0),
+        hibernal::physics::climate::freezing_index_c_days(&t0),
         1e-12,
         "index of the records",
     );
@@ -264,7 +264,7 @@ fn a_freezing_index_input_gives_the_winter_that_index() {
         assert_abs(b - a, shift, 1e-9, "one shift for every day");
     }
     assert_abs(
-        hibernal::climate::freezing_index_c_days(&t1),
+        hibernal::physics::climate::freezing_index_c_days(&t1),
         0.5 * before,
         1e-6,
         "index after the shift",
@@ -335,7 +335,7 @@ fn inputs_change_the_fields_they_name() {
         .zip(&k_before)
     {
         let ratio = m1.conductivity.k(-5.0) / k0;
-        let expect = if m0.family == hibernal::materials::Family::Soil {
+        let expect = if m0.family == hibernal::physics::materials::Family::Soil {
             1.2
         } else {
             1.0

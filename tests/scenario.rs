@@ -3,7 +3,7 @@
 mod common;
 use common::*;
 
-use hibernal::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use hibernal::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
 use hibernal::scenario::{self, BoardDoc, SnowCorrelationDoc, SoilModelDoc, TextureDoc};
 use std::process::Command;
 
@@ -295,7 +295,7 @@ mod never_panics {
                         let r = scenario::report(&s, &c);
                         prop_assert!(r.r_total_m2k_w.is_finite() && r.r_total_m2k_w > 0.0);
                         prop_assert!(r.heat_flux_w_m2.is_finite());
-                        let _ = hibernal::chart::profile_svg(&c, hibernal::units::UnitSystem::Us, 300, 200);
+                        let _ = hibernal::chart::profile_svg(&c, hibernal::physics::units::UnitSystem::Us, 300, 200);
                     }
                     Err(e) => prop_assert!(!e.0.is_empty()),
                 },
@@ -322,13 +322,13 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
     );
     let l = silt.latent_j_per_m3;
     let nf = 0.7 * 1200.0 * 86_400.0;
-    let stefan = hibernal::analytic::stefan_depth_m(kf, l, nf);
+    let stefan = hibernal::physics::analytic::stefan_depth_m(kf, l, nf);
     assert!(
         w.max_frost_depth_m < stefan,
         "{} < Stefan {stefan}",
         w.max_frost_depth_m
     );
-    let berggren = hibernal::analytic::modified_berggren_depth_m(
+    let berggren = hibernal::physics::analytic::modified_berggren_depth_m(
         0.5 * (kf + ku),
         l,
         0.7,
@@ -377,7 +377,7 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
     assert_eq!(csv.lines().count(), 367);
     // In US units: °F and ft in the header, and each value the SI one converted
     // (°F = 1.8 °C + 32, ft = m / 0.3048: NIST SP 811 B.8).
-    let us = hibernal::scenario_winter::daily_csv_in(w, hibernal::units::UnitSystem::Us);
+    let us = hibernal::scenario_winter::daily_csv_in(w, hibernal::physics::units::UnitSystem::Us);
     let head = us.lines().next().unwrap();
     assert!(
         head.contains("air temperature [°F]") && head.contains("frost depth [ft]"),
@@ -509,7 +509,7 @@ fn yard() -> serde_json::Value {
 
 fn winter_of(
     v: serde_json::Value,
-) -> Result<hibernal::scenario_winter::WinterReport, hibernal::error::InputErrors> {
+) -> Result<hibernal::scenario_winter::WinterReport, hibernal::physics::error::InputErrors> {
     let s = scenario::from_value(v)?;
     scenario::compute_with_winter(&s).map(|c| c.winter.unwrap())
 }
@@ -759,7 +759,7 @@ fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
     // solution, and the band across snow regressions), units in the header.
     let s = scenario::parse(scenario::example("snow-block-wall").unwrap().json).unwrap();
     let c = scenario::compute(&s).unwrap();
-    let text = scenario::profile_csv(&c, hibernal::units::UnitSystem::Si);
+    let text = scenario::profile_csv(&c, hibernal::physics::units::UnitSystem::Si);
     let lines: Vec<&str> = text.trim().lines().collect();
     assert!(
         lines[0].starts_with("depth [m],temperature [°C],lowest"),
@@ -777,6 +777,6 @@ fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
         last[2] <= last[1] + 1e-3 && last[1] <= last[3] + 1e-3,
         "the line inside its band"
     );
-    let us = scenario::profile_csv(&c, hibernal::units::UnitSystem::Us);
+    let us = scenario::profile_csv(&c, hibernal::physics::units::UnitSystem::Us);
     assert!(us.starts_with("depth [ft],temperature [°F]"));
 }

@@ -1,12 +1,12 @@
 //! Snow shelters against closed forms, published values and conservation. Each check names
 //! its source. The shelters are invented examples.
 
-use hibernal::error::InputErrorKind;
-use hibernal::materials::snow::SnowCorrelation;
-use hibernal::shelter::model::{outside_film_w_m2k, Part, Sink};
-use hibernal::shelter::night::NightSettings;
-use hibernal::shelter::*;
-use hibernal::transient::grid::GridSpec;
+use hibernal::physics::error::InputErrorKind;
+use hibernal::physics::materials::snow::SnowCorrelation;
+use hibernal::physics::shelter::model::{outside_film_w_m2k, Part, Sink};
+use hibernal::physics::shelter::night::NightSettings;
+use hibernal::physics::shelter::*;
+use hibernal::physics::transient::grid::GridSpec;
 use std::f64::consts::PI;
 
 /// An invented dome: 1 m inner radius, 40 cm walls of 300 kg/m³ snow, snow floor, cold
@@ -110,11 +110,11 @@ fn thin_walls_tend_to_the_plane_wall() {
         // The model refuses walls under 2 cm: use the geometry itself below that.
         let (model, _) = Model::build(&shelter, &one_sleeper()).unwrap();
         let geometry = match model.zones[0].geometry {
-            hibernal::shelter::model::Geometry::Sphere {
+            hibernal::physics::shelter::model::Geometry::Sphere {
                 solid_angle_sr,
                 inner_radius_m,
                 ..
-            } => hibernal::shelter::model::Geometry::Sphere {
+            } => hibernal::physics::shelter::model::Geometry::Sphere {
                 solid_angle_sr,
                 inner_radius_m,
                 outer_radius_m: inner_radius_m + t,

@@ -3,9 +3,9 @@
 mod common;
 use common::*;
 
+use hibernal::physics::units::UnitSystem;
 use hibernal::scenario;
 use hibernal::scenario_shelter::{self, night_csv, sweeps_csv};
-use hibernal::units::UnitSystem;
 use serde_json::{json, Value};
 use std::process::Command;
 
@@ -15,12 +15,12 @@ fn value(id: &str) -> Value {
     serde_json::from_str(scenario::example(id).unwrap().json).unwrap()
 }
 
-fn run(v: Value) -> Result<scenario_shelter::ShelterReport, hibernal::error::InputErrors> {
+fn run(v: Value) -> Result<scenario_shelter::ShelterReport, hibernal::physics::error::InputErrors> {
     let s = scenario::from_value(v)?;
     scenario::compute_all(&s).map(|c| c.shelter.expect("a shelter report"))
 }
 
-fn fields(e: &hibernal::error::InputErrors) -> Vec<String> {
+fn fields(e: &hibernal::physics::error::InputErrors) -> Vec<String> {
     e.0.iter().map(|x| x.field.clone()).collect()
 }
 
@@ -34,7 +34,7 @@ fn the_shelter_examples_round_trip_and_agree_with_the_core() {
         let doc = s.shelter.as_ref().unwrap();
         let r = scenario_shelter::run_shelter(doc).unwrap();
         // The report is the core's answer, unchanged.
-        let core = hibernal::shelter::steady(&doc.shelter(), &doc.conditions()).unwrap();
+        let core = hibernal::physics::shelter::steady(&doc.shelter(), &doc.conditions()).unwrap();
         assert_eq!(r.interior_c, core.interior_c);
         assert!(r.interior_c > r.outside_c, "{id}: warmer inside");
         // First law: what is given off inside leaves by the paths listed.
@@ -51,7 +51,10 @@ fn the_shelter_examples_round_trip_and_agree_with_the_core() {
             (doc.night.duration_h * 6.0) as usize + 1
         );
         assert!(r.night.energy_imbalance_relative < 1e-9);
-        assert_eq!(r.cautions.len(), hibernal::shelter::cautions().len());
+        assert_eq!(
+            r.cautions.len(),
+            hibernal::physics::shelter::cautions().len()
+        );
         for id in [
             "carbon-monoxide",
             "vent-open",

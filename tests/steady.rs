@@ -3,9 +3,11 @@
 mod common;
 use common::*;
 
-use hibernal::materials::{Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use hibernal::stack::{Boundary, Layer, Stack, MAX_LAYERS};
-use hibernal::steady::{self, LayerState};
+use hibernal::physics::materials::{
+    Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture,
+};
+use hibernal::physics::stack::{Boundary, Layer, Stack, MAX_LAYERS};
+use hibernal::physics::steady::{self, LayerState};
 use proptest::prelude::*;
 
 fn custom(k: f64) -> MaterialSpec {
@@ -89,7 +91,7 @@ fn a_soil_layer_splits_at_its_0c_plane_self_consistently() {
         conductivity_factor: 1.0,
     };
     let mut w = Vec::new();
-    let p = hibernal::materials::soil::soil_properties(&soil, "m", &mut w).unwrap();
+    let p = hibernal::physics::materials::soil::soil_properties(&soil, "m", &mut w).unwrap();
     let (kf, ku) = (p.k_frozen_w_per_m_k, p.k_unfrozen_w_per_m_k);
     assert!(
         (kf - ku).abs() > 0.2,
@@ -128,7 +130,7 @@ fn ice_with_temperature_dependent_k_matches_direct_integration() {
     let n = 2000;
     let (a, b) = (-40.0f64, 0.0f64);
     let h = (b - a) / n as f64;
-    let k = hibernal::materials::ice::ice_conductivity_w_per_m_k;
+    let k = hibernal::physics::materials::ice::ice_conductivity_w_per_m_k;
     let mut s = k(a) + k(b);
     for i in 1..n {
         s += k(a + i as f64 * h) * if i % 2 == 1 { 4.0 } else { 2.0 };
@@ -153,7 +155,7 @@ fn water_under_cold_air_freezes_to_a_steady_ice_cover() {
     };
     let r = steady::solve(&stack).unwrap();
     let x = r.zero_planes[0].depth_m;
-    let phi_ice = -hibernal::materials::ice::ice_kirchhoff_w_per_m(-10.0);
+    let phi_ice = -hibernal::physics::materials::ice::ice_kirchhoff_w_per_m(-10.0);
     let q = -r.heat_flux_w_per_m2;
     assert_rel(q, phi_ice / x, 1e-9, "flux through the ice");
     assert_rel(q, 0.556 * 4.0 / (2.0 - x), 1e-9, "flux through the water");
@@ -298,7 +300,8 @@ fn arb_material() -> impl Strategy<Value = MaterialSpec> {
         Just(MaterialSpec::Air),
         (1300.0f64..1900.0, 0.1f64..0.9, 0usize..4, 0usize..3).prop_map(|(rho, s, t, m)| {
             let texture = Texture::ALL[t];
-            let wsat = hibernal::materials::soil::saturation_water_content_pct(texture, rho);
+            let wsat =
+                hibernal::physics::materials::soil::saturation_water_content_pct(texture, rho);
             MaterialSpec::Soil(SoilInput {
                 texture,
                 model: SoilModel::ALL[m],

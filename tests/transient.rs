@@ -3,12 +3,12 @@
 mod common;
 use common::*;
 
-use hibernal::materials::{Branch, ConductivityLaw, Family, Material};
-use hibernal::stack::{Boundary, Layer, Stack};
-use hibernal::steady;
-use hibernal::transient::grid::GridSpec;
-use hibernal::transient::phase::UnfrozenWater;
-use hibernal::transient::{cells_for, BottomCondition, Solver, TopCondition};
+use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
+use hibernal::physics::stack::{Boundary, Layer, Stack};
+use hibernal::physics::steady;
+use hibernal::physics::transient::grid::GridSpec;
+use hibernal::physics::transient::phase::UnfrozenWater;
+use hibernal::physics::transient::{cells_for, BottomCondition, Solver, TopCondition};
 use std::f64::consts::PI;
 
 const DAY: f64 = 86_400.0;
@@ -164,14 +164,15 @@ fn periodic_surface_temperature_damps_and_lags_as_the_closed_form() {
 fn held_conditions_lead_to_the_steady_solution() {
     // The exact steady solver (Kirchhoff transform) is the long-time limit of the transient
     // one under held conditions: the 0 °C plane must agree within a cell.
-    let soil = hibernal::materials::MaterialSpec::Soil(hibernal::materials::SoilInput {
-        texture: hibernal::materials::Texture::Silt,
-        model: hibernal::materials::SoilModel::Kersten1949,
-        dry_density_kg_m3: 1600.0,
-        water_content_pct: 20.0,
-        quartz_fraction: 0.3,
-        conductivity_factor: 1.0,
-    });
+    let soil =
+        hibernal::physics::materials::MaterialSpec::Soil(hibernal::physics::materials::SoilInput {
+            texture: hibernal::physics::materials::Texture::Silt,
+            model: hibernal::physics::materials::SoilModel::Kersten1949,
+            dry_density_kg_m3: 1600.0,
+            water_content_pct: 20.0,
+            quartz_fraction: 0.3,
+            conductivity_factor: 1.0,
+        });
     let stack = Stack {
         layers: vec![Layer {
             name: String::new(),
@@ -243,7 +244,7 @@ fn freezing_over_a_range_spreads_the_front_and_still_conserves_energy() {
     assert!(rel < 1e-9, "relative imbalance {rel:e}");
 }
 
-use hibernal::analytic::{self, NeumannProblem};
+use hibernal::physics::analytic::{self, NeumannProblem};
 
 /// Freeze a column from a held surface and return the front depth after `days`.
 fn freeze_from_surface(
@@ -385,8 +386,9 @@ fn a_design_winter_drives_a_run_whose_air_freezing_index_is_the_one_asked_for() 
     // The design winter is built so its freezing season integrates to the index asked for
     // (climate module); a run under it must measure the same air freezing index (range of the
     // cumulative degree-day curve, TM 5-852-6) to the resolution of hourly steps.
-    use hibernal::climate::Climate;
-    use hibernal::transient::run::{run, Initial, RunSpec, TopModel};
+    use hibernal::physics::climate::Climate;
+    use hibernal::physics::transient::run::run;
+    use hibernal::physics::transient::setup::{Initial, RunSpec, TopModel};
     let climate = Climate::DesignWinter {
         freezing_index_c_days: 1200.0,
         season_days: 150.0,
@@ -429,7 +431,7 @@ fn a_design_winter_drives_a_run_whose_air_freezing_index_is_the_one_asked_for() 
     );
     // Stefan's law with the frozen properties is an upper bound on the frost depth
     // (it ignores the sensible heat and the warm ground below).
-    let stefan = hibernal::analytic::stefan_depth_m(1.8, 1.0e8, 1200.0 * DAY);
+    let stefan = hibernal::physics::analytic::stefan_depth_m(1.8, 1.0e8, 1200.0 * DAY);
     assert!(
         r.max_frost_depth_m > 0.3 * stefan && r.max_frost_depth_m < stefan,
         "frost {} m, Stefan {} m",
@@ -443,8 +445,9 @@ fn a_design_winter_drives_a_run_whose_air_freezing_index_is_the_one_asked_for() 
 fn a_run_advanced_in_slices_gives_the_same_results_as_one_call() {
     // The page advances a run a slice at a time; slicing must not change a single number
     // (the same steps are taken in the same order). Spin-up is sliced too.
-    use hibernal::climate::Climate;
-    use hibernal::transient::run::{run, Initial, Run, RunSpec, TopModel};
+    use hibernal::physics::climate::Climate;
+    use hibernal::physics::transient::run::{run, Run};
+    use hibernal::physics::transient::setup::{Initial, RunSpec, TopModel};
     let climate = Climate::Sinusoid {
         mean_c: 1.0,
         amplitude_k: 14.0,
@@ -500,9 +503,9 @@ fn a_run_advanced_in_slices_gives_the_same_results_as_one_call() {
 
 // ------------------------------------------------------------------------- snow cells
 
-use hibernal::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use hibernal::transient::run::{Forcing, Initial, RunSpec, TopModel};
-use hibernal::transient::SnowLayer;
+use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use hibernal::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
+use hibernal::physics::transient::SnowLayer;
 
 fn silt() -> Material {
     MaterialSpec::Soil(SoilInput {
@@ -704,7 +707,7 @@ fn a_snowpack_at_0c_under_warm_air_melts_by_the_film_flux_and_shields_the_ground
 
 /// Snow that is constant in depth and density while the air freezes.
 struct SnowWhileFreezing {
-    air: hibernal::transient::run::SinusoidalYear,
+    air: hibernal::physics::transient::setup::SinusoidalYear,
     depth_m: f64,
     density: f64,
 }
@@ -725,7 +728,7 @@ fn a_snowy_year_closes_its_energy_balance_with_the_snow_mass_term() {
     // peak 0.4 m on day 45, 120 → 320 kg/m³), stored change = face fluxes + energy brought
     // and taken by snow mass, to 1e-9 of the energy that crossed; and without the snow term
     // it would not close (so the test can fail).
-    use hibernal::climate::{Climate, SnowSeason};
+    use hibernal::physics::climate::{Climate, SnowSeason};
     let climate = Climate::Sinusoid {
         mean_c: 1.0,
         amplitude_k: 14.0,
@@ -765,7 +768,7 @@ fn a_snowy_year_closes_its_energy_balance_with_the_snow_mass_term() {
         duration_s: YEAR,
         profile_every_s: DAY,
     };
-    let r = hibernal::transient::run::run(&spec, &climate).unwrap();
+    let r = hibernal::physics::transient::run::run(&spec, &climate).unwrap();
     assert!(
         r.max_snow_cells == 8,
         "the snow grew to {} cells",
@@ -863,8 +866,8 @@ fn frost_under_snow_is_shallower_than_bare_and_within_stefan_with_the_snow_resis
     // winter on silt at +2 °C: sinusoidal air (mean −2 °C, amplitude 18 K, coldest on day
     // 120 of the run, which starts in autumn); 0.3 m of snow at 250 kg/m³ whenever the air
     // freezes (so R = 1/h + d/k holds through the whole freezing season); film 20 W/m²K.
-    use hibernal::analytic::stefan_depth_with_resistance_m;
-    use hibernal::transient::run::SinusoidalYear;
+    use hibernal::physics::analytic::stefan_depth_with_resistance_m;
+    use hibernal::physics::transient::setup::SinusoidalYear;
     let air = SinusoidalYear {
         mean_c: -2.0,
         amplitude_k: 18.0,
@@ -894,11 +897,11 @@ fn frost_under_snow_is_shallower_than_bare_and_within_stefan_with_the_snow_resis
         depth_m: 0.3,
         density: 250.0,
     };
-    let under_snow = hibernal::transient::run::run(&spec, &snowy).unwrap();
-    let bare = hibernal::transient::run::run(&spec, &air).unwrap();
+    let under_snow = hibernal::physics::transient::run::run(&spec, &snowy).unwrap();
+    let bare = hibernal::physics::transient::run::run(&spec, &air).unwrap();
     let m = silt();
     let (kf, l) = (m.conductivity.frozen.k(-1.0), m.latent_j_per_m3);
-    let f = hibernal::climate::sinusoid_freezing_index_c_days(-2.0, 18.0) * DAY;
+    let f = hibernal::physics::climate::sinusoid_freezing_index_c_days(-2.0, 18.0) * DAY;
     let r_snow = 0.3 / SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(250.0);
     let bound_snow = stefan_depth_with_resistance_m(kf, l, f, 1.0 / 20.0 + r_snow);
     let bound_bare = stefan_depth_with_resistance_m(kf, l, f, 1.0 / 20.0);
@@ -928,8 +931,8 @@ fn frost_under_snow_is_shallower_than_bare_and_within_stefan_with_the_snow_resis
 
 // -------------------------------------------------------------------- periodic start
 
-use hibernal::climate::{AnnualWave, Climate};
-use hibernal::transient::periodic::{n_factor_wave, PeriodicProfile};
+use hibernal::physics::climate::{AnnualWave, Climate};
+use hibernal::physics::transient::periodic::{n_factor_wave, PeriodicProfile};
 
 fn inert_spec(top: TopModel, bottom: BottomCondition, initial: Initial) -> RunSpec {
     // k 1.2 W/m/K, C 2.0e6 J/m³K: a = 6e-7 m²/s, annual damping depth d = 2.46 m; 30 m is
@@ -1000,7 +1003,7 @@ fn the_periodic_start_is_the_closed_form_temperature_wave() {
                 &format!("start at {z} m, q = {q}"),
             );
         }
-        let r = hibernal::transient::run::run(
+        let r = hibernal::physics::transient::run::run(
             &RunSpec {
                 duration_s: DAY,
                 ..spec.clone()
@@ -1041,7 +1044,8 @@ fn a_run_from_the_periodic_start_is_already_periodic() {
         snow_correlation: SnowCorrelation::Sturm1997Quadratic,
     };
     let change = |top: TopModel, bottom: BottomCondition, initial: Initial| {
-        let r = hibernal::transient::run::run(&inert_spec(top, bottom, initial), &climate).unwrap();
+        let r = hibernal::physics::transient::run::run(&inert_spec(top, bottom, initial), &climate)
+            .unwrap();
         let (first, last) = (&r.profiles[0].1, &r.profiles.last().unwrap().1);
         assert_abs(r.profiles.last().unwrap().0, YEAR, 1.0, "a year later");
         first
@@ -1132,8 +1136,8 @@ fn spin_up_from_the_periodic_start_needs_fewer_years_than_from_uniform() {
         duration_s: YEAR,
         profile_every_s: DAY,
     };
-    let a = hibernal::transient::run::run(&spec(Some(wave)), &climate).unwrap();
-    let b = hibernal::transient::run::run(&spec(None), &climate).unwrap();
+    let a = hibernal::physics::transient::run::run(&spec(Some(wave)), &climate).unwrap();
+    let b = hibernal::physics::transient::run::run(&spec(None), &climate).unwrap();
     println!(
         "spin-up years: from periodic {}, from uniform {}",
         a.spin_up_years, b.spin_up_years
@@ -1157,7 +1161,7 @@ fn a_snow_cell_stores_heat_as_its_ice() {
     // with the c_ice fit of materials::ice (c = 152.5 + 7.122 T_K, checked against IAPWS
     // R10-06 in tests/materials.rs), exact at the 2 K band edges and within ρ c₁ B²/8 between;
     // the latent heat ρ L_f (L_f = 333.4 kJ/kg, IAPWS) at 0 °C; T(H) inverts H(T).
-    use hibernal::transient::phase::{Phase, SNOW_CAPACITY_BAND_K};
+    use hibernal::physics::transient::phase::{Phase, SNOW_CAPACITY_BAND_K};
     let rho = 280.0;
     let p = Phase::Snow {
         density_kg_m3: rho,
@@ -1207,7 +1211,7 @@ fn an_erratic_snow_record_runs_to_the_end_and_conserves_energy() {
     // that comes and goes from one day to the next, depths up to 0.8 m and densities from 60
     // to 480 kg/m³. The run must finish (step halving where needed) and close its energy
     // balance with the snow-mass term to 1e-9.
-    use hibernal::climate::{DailySeries, DayRecord};
+    use hibernal::physics::climate::{DailySeries, DayRecord};
     let mut seed: u64 = 12345;
     let mut next = move || {
         seed = seed
@@ -1250,7 +1254,7 @@ fn an_erratic_snow_record_runs_to_the_end_and_conserves_energy() {
         duration_s: climate.duration_s(),
         profile_every_s: DAY,
     };
-    let r = hibernal::transient::run::run(&spec, &climate).unwrap();
+    let r = hibernal::physics::transient::run::run(&spec, &climate).unwrap();
     let rel = (r.energy_imbalance_j_m2 / r.energy_throughput_j_m2).abs();
     println!(
         "erratic record: imbalance {rel:e}, {:.2} iterations/step, {} splits",
@@ -1272,9 +1276,9 @@ fn the_state_kept_between_steps_changes_no_number() {
     // soils, a snow cover that comes, deepens, settles and goes, so snow cells are remapped
     // and their count changes) stepped with the kept state and with it cleared before every
     // step gives bit-for-bit the same column. Invariant of this tool; no outside source.
-    use hibernal::transient::reference::reference_year;
-    use hibernal::transient::run::Forcing;
-    use hibernal::transient::SnowLayer;
+    use hibernal::physics::transient::reference::reference_year;
+    use hibernal::physics::transient::setup::Forcing;
+    use hibernal::physics::transient::SnowLayer;
     let (spec, forcing) = reference_year();
     let cells = cells_for(
         &spec.thicknesses_m,
@@ -1328,8 +1332,8 @@ fn states_on_one_constant_k_stretch_have_the_same_conductivity() {
     // any two states with the same tag have bit-for-bit the same conductivity, for inert,
     // freezing and snow cells; a partly frozen state or a temperature-dependent branch has
     // no tag. Invariant of this tool; no outside source.
-    use hibernal::materials::Branch;
-    use hibernal::transient::phase::Phase;
+    use hibernal::physics::materials::Branch;
+    use hibernal::physics::transient::phase::Phase;
     let law = ConductivityLaw {
         frozen: Branch::Constant(2.1),
         unfrozen: Branch::Constant(1.4),

@@ -6,14 +6,14 @@
 mod common;
 use common::*;
 
-use hibernal::error::InputErrorKind;
-use hibernal::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use hibernal::stack::{Boundary, Layer, Stack};
-use hibernal::steady;
-use hibernal::uncertainty::{
+use hibernal::physics::error::InputErrorKind;
+use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use hibernal::physics::ranges::{
     monte_carlo, one_at_a_time, percentile_sorted, sample_at, Distribution, MonteCarloError,
     MonteCarloJob, Pcg32, SensitivityError, UncertainInput, MAX_RUNS,
 };
+use hibernal::physics::stack::{Boundary, Layer, Stack};
+use hibernal::physics::steady;
 
 fn uniform(id: &str, low: f64, high: f64) -> UncertainInput {
     UncertainInput {
@@ -238,7 +238,7 @@ fn same_seed_same_result_different_seed_different_samples() {
     // AS241), not bisection. The uniforms are integer work and must agree to the bit; the
     // same bits are expected on wasm32 (integer arithmetic and libm only).
     let mut u = Vec::new();
-    hibernal::uncertainty::sample_uniforms(42, 0, 3, &mut u);
+    hibernal::physics::ranges::sample_uniforms(42, 0, 3, &mut u);
     let bits: Vec<u64> = u.iter().map(|v| v.to_bits()).collect();
     assert_eq!(
         bits,

@@ -3,7 +3,7 @@
 mod common;
 use common::*;
 
-use hibernal::units::{quantity, UnitSystem, QUANTITIES};
+use hibernal::physics::units::{quantity, UnitSystem, QUANTITIES};
 
 #[test]
 fn r_value_and_conductivity_conversions() {

@@ -369,14 +369,14 @@ fn the_seeded_sampler_gives_the_same_bits_in_wasm_as_natively() {
     // The pins of tests/uncertainty.rs (O'Neill's pcg32 demo vector; the first sample's
     // uniforms, checked there against an independent Python implementation): a Monte Carlo
     // seeded in the browser repeats the one run natively.
-    let mut g = hibernal::uncertainty::Pcg32::new(42, 54);
+    let mut g = hibernal::physics::ranges::Pcg32::new(42, 54);
     let got: Vec<u32> = (0..6).map(|_| g.next_u32()).collect();
     assert_eq!(
         got,
         [0xa15c02b7, 0x7b47f409, 0xba1d3330, 0x83d2f293, 0xbfa4784b, 0xcbed606e]
     );
     let mut u = Vec::new();
-    hibernal::uncertainty::sample_uniforms(42, 0, 3, &mut u);
+    hibernal::physics::ranges::sample_uniforms(42, 0, 3, &mut u);
     let bits: Vec<u64> = u.iter().map(|v| v.to_bits()).collect();
     assert_eq!(
         bits,

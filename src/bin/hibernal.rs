@@ -17,8 +17,8 @@ mod cli {
     use std::process::ExitCode;
 
     use clap::{Parser, Subcommand};
+    use hibernal::physics::units::UnitSystem;
     use hibernal::scenario;
-    use hibernal::units::UnitSystem;
 
     #[derive(Parser)]
     #[command(

@@ -42,8 +42,8 @@ pub fn assert_abs(a: f64, b: f64, tol: f64, what: &str) {
 
 /// The published soil example of the model reference (Lunardini 1981, after Jumikis 1966):
 /// surface −10 °C over ground at +2 °C; front about 3.6 cm/h^½, ≈ 1.36 m after 60 days.
-pub fn lunardini_soil() -> hibernal::analytic::NeumannProblem {
-    hibernal::analytic::NeumannProblem {
+pub fn lunardini_soil() -> hibernal::physics::analytic::NeumannProblem {
+    hibernal::physics::analytic::NeumannProblem {
         surface_c: -10.0,
         initial_c: 2.0,
         freezing_c: 0.0,

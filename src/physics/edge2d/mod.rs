@@ -41,14 +41,14 @@
 
 pub mod axis;
 pub mod demo;
-pub mod design;
+pub mod least;
 pub mod plane;
 pub mod run;
 
-use crate::error::{check, InputErrorKind, InputErrors};
-use crate::materials::{ConductivityLaw, Material, SnowCorrelation};
-use crate::transient::phase::{Phase, UnfrozenWater};
-use crate::transient::BottomCondition;
+use crate::physics::error::{check, InputErrorKind, InputErrors};
+use crate::physics::materials::{ConductivityLaw, Material, SnowCorrelation};
+use crate::physics::transient::phase::{Phase, UnfrozenWater};
+use crate::physics::transient::BottomCondition;
 pub use axis::AxisSpacing;
 pub use plane::{Plane, PlaneError, PlaneTolerances, PlaneWork, TopFace};
 pub use run::{run_edge, EdgeError, EdgeField, EdgeRecord, EdgeResult, EdgeRun};
@@ -554,7 +554,7 @@ impl EdgeSection {
         let z_faces = axis::faces(&zr, &zf, &self.grid);
         let (nx, nz) = (x_faces.len() - 1, z_faces.len() - 1);
         if nx * nz > MAX_CELLS {
-            return Err(InputErrors(vec![crate::error::InputError::new(
+            return Err(InputErrors(vec![crate::physics::error::InputError::new(
                 format!("{prefix}.grid.fine_m"),
                 InputErrorKind::Count {
                     count: nx * nz,

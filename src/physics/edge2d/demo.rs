@@ -6,14 +6,14 @@ use super::{
     AxisSpacing, Board, EdgeSection, FoundationWall, Inside, Outside, Slab, SoilBand,
     StartTemperature, WallBoard, Wing,
 };
-use crate::climate::Climate;
-use crate::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use crate::transient::BottomCondition;
+use crate::physics::climate::Climate;
+use crate::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use crate::physics::transient::BottomCondition;
 
 const DAY: f64 = 86_400.0;
 
 /// Volumetric heat capacity of an extruded polystyrene board, J/m³/K (32 kg/m³ × 1500 J/kg/K,
-/// the class values of [`crate::materials::Board::density_and_specific_heat`]).
+/// the class values of [`crate::physics::materials::Board::density_and_specific_heat`]).
 pub const XPS_HEAT_CAPACITY_J_M3_K: f64 = 32.0 * 1500.0;
 
 /// A 50 mm XPS board (k 0.029 W/m/K, the class's nominal value).

@@ -15,7 +15,7 @@
 //!   CO₂, and the band over all nine snow conductivity regressions;
 //! - [`mod@night`]: the first hours after people enter, finite volumes through every zone with a
 //!   lumped air node, backward Euler, the melt limit held in every step;
-//! - [`design`]: least wall thickness for a target interior temperature, and sweeps;
+//! - [`least`]: least wall thickness for a target interior temperature, and sweeps;
 //! - [`mod@cautions`]: the safety notes that must always be shown, with their sources.
 //!
 //! Valid for a dry snow shelter in still cold weather: outside air at or below 0 °C, snow
@@ -24,16 +24,16 @@
 //! Cryosphere 15:2739), no solar gain, no rain. The geometry is idealised (see each shape).
 
 pub mod cautions;
-pub mod design;
+pub mod least;
 pub mod model;
 pub mod night;
 pub mod steady;
 
-use crate::error::InputErrors;
-use crate::materials::snow::SnowCorrelation;
+use crate::physics::error::InputErrors;
+use crate::physics::materials::snow::SnowCorrelation;
 
 pub use cautions::{cautions, Caution};
-pub use design::{
+pub use least::{
     least_thickness, sweep_outside_temperature, sweep_people, sweep_wall_thickness,
     NotReachableReason, SweepPoint, ThicknessAnswer,
 };

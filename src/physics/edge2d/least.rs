@@ -2,14 +2,14 @@
 //! depth for which frost stays at or above the footing's base through the winter, each trial
 //! a whole 2D run of the section ([`super::EdgeRun`]).
 //!
-//! The search is the 1D one ([`crate::design::Searcher`]: Illinois regula falsi on a
+//! The search is the 1D one ([`crate::physics::least::Searcher`]: Illinois regula falsi on a
 //! bracket with a bisection safeguard), fed with 2D runs: a trial's excess is the frost below
 //! the footing's base ([`super::EdgeResult::max_frost_below_base_m`]), and the limit holds
 //! when it is zero or less. The family is taken as monotone (more insulation, a wider wing
 //! or a deeper base never lets frost reach further below the base: added resistance between
 //! the cold surface and the ground under the footing, or a base moved below the ground that
 //! freezes; a physical expectation, not a theorem of the discrete model), and the search
-//! says so when its runs contradict it beyond [`crate::design::MONOTONE_NOISE_M`] (the same
+//! says so when its runs contradict it beyond [`crate::physics::least::MONOTONE_NOISE_M`] (the same
 //! read-off allowance as the 1D search).
 //!
 //! Each trial re-lays the grid (a board face or the base is a cell face), and frost is read
@@ -27,10 +27,10 @@
 //! foundations must follow the governing standard, local codes and a licensed engineer.
 
 use super::{EdgeError, EdgeResult, EdgeRun, EdgeSection};
-use crate::climate::Climate;
-use crate::design::{DesignAnswer, Search, Searcher, Trial};
-use crate::error::{InputError, InputErrorKind, InputErrors};
-use crate::transient::run::Progress;
+use crate::physics::climate::Climate;
+use crate::physics::error::{InputError, InputErrorKind, InputErrors};
+use crate::physics::least::{DesignAnswer, Search, Searcher, Trial};
+use crate::physics::transient::run::Progress;
 
 /// A wing narrower than this runs without the wing, m (the section's smallest wing width).
 pub const MIN_WING_WIDTH_M: f64 = 0.05;

@@ -2,7 +2,7 @@
 //!
 //! Method. The flux q (W/m², positive from the top face towards the bottom face) is the same
 //! at every depth. Inside a homogeneous layer the Kirchhoff transform Φ(T) = ∫₀ᵀ k dθ is
-//! linear in depth (see [`crate::materials::law`]), so given q and the temperature at the top
+//! linear in depth (see [`crate::physics::materials::law`]), so given q and the temperature at the top
 //! of a layer, the temperature at its bottom follows exactly: Φ(T_b) = Φ(T_t) − q d. Films
 //! give T_surface = T_air − q/h. Marching from the top face yields the temperature the bottom
 //! face would have; that is strictly decreasing in q, so q is found by a bracketed bisection
@@ -17,9 +17,9 @@
 //! Valid for conduction only: no convection inside layers, no radiation across air gaps, no
 //! moisture or vapour transport, and water freezing at exactly 0 °C.
 
-use crate::error::{InputErrors, Warning};
-use crate::materials::{Family, Material, SnowCorrelation};
-use crate::stack::{Boundary, ResolvedStack, Stack};
+use crate::physics::error::{InputErrors, Warning};
+use crate::physics::materials::{Family, Material, SnowCorrelation};
+use crate::physics::stack::{Boundary, ResolvedStack, Stack};
 
 /// State of one layer at steady state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -341,8 +341,8 @@ impl SteadyResult {
         let mut z = vec![0.0];
         for (l, m) in self.layers.iter().zip(&self.stack.materials) {
             let law = &m.conductivity;
-            let straight = matches!(law.frozen, crate::materials::Branch::Constant(_))
-                && matches!(law.unfrozen, crate::materials::Branch::Constant(_));
+            let straight = matches!(law.frozen, crate::physics::materials::Branch::Constant(_))
+                && matches!(law.unfrozen, crate::physics::materials::Branch::Constant(_));
             let n = if straight { 1 } else { per_curved_layer.max(1) };
             let d = l.bottom_depth_m - l.top_depth_m;
             z.extend((1..=n).map(|k| l.top_depth_m + d * k as f64 / n as f64));

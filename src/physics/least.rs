@@ -16,8 +16,9 @@
 //! grid's faces (cells are re-laid for each run); the tolerance should be above that noise
 //! (millimetres for centimetre cells).
 
-use crate::transient::run::{run, Forcing, RunSpec};
-use crate::transient::TransientError;
+use crate::physics::transient::run::run;
+use crate::physics::transient::setup::{Forcing, RunSpec};
+use crate::physics::transient::TransientError;
 
 /// How far outside its bracket a trial's excess may fall before the family is declared
 /// not monotone, m: the read-off noise of the frost depth when cells are re-laid (a setting

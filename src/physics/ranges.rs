@@ -1,7 +1,7 @@
 //! Ranges, not single numbers: uncertain inputs, a seeded sampler, Monte Carlo over any
 //! trial, and one-at-a-time sensitivity.
 //!
-//! Core only: no serde, no browser, no plotting; a trial is any `FnMut(&[f64]) -> Result<f64, E>`.
+//! Core only: a trial is any `FnMut(&[f64]) -> Result<f64, E>`.
 //!
 //! **Sampling.** Plain (simple random) Monte Carlo; Latin hypercube sampling is not done in
 //! this increment. Each input is drawn by the inverse of its distribution function from one
@@ -24,7 +24,7 @@
 //! values kept by index, so a result merged from several workers is bit-identical to a
 //! single-thread run.
 
-use crate::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
 use std::fmt;
 
 /// Most Monte Carlo runs one request may ask for.

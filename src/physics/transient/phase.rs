@@ -15,8 +15,8 @@
 //! Conductivity while partly frozen is the geometric mean k_f^(1−θ) k_u^θ weighted by the
 //! liquid share θ (the weighting of Johansen 1975's saturated conductivity; common practice).
 
-use crate::materials::ice;
-use crate::materials::{Branch, ConductivityLaw, Material};
+use crate::physics::materials::ice;
+use crate::physics::materials::{Branch, ConductivityLaw, Material};
 
 /// Width of the temperature bands over which a snow cell's heat capacity is held constant,
 /// K. See [`Phase::Snow`].
@@ -390,7 +390,7 @@ impl Phase {
         let constant = |law: &ConductivityLaw, frozen: bool| {
             matches!(
                 if frozen { law.frozen } else { law.unfrozen },
-                crate::materials::Branch::Constant(_)
+                crate::physics::materials::Branch::Constant(_)
             )
         };
         match self {

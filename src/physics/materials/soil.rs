@@ -6,7 +6,7 @@
 //! All water is taken to freeze at 0 °C (no unfrozen water); fine soils in fact freeze over a
 //! range of temperature, which the transient models treat.
 
-use crate::error::{check, InputErrorKind, InputErrors, Warning};
+use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};
 
 /// Density of water used in the saturation balance, kg/m³ (common practice).
 const WATER_DENSITY: f64 = 1000.0;
@@ -253,7 +253,7 @@ pub fn soil_properties(
         SoilModel::CoteKonrad2005 => cote_konrad(input, n, sr),
     };
     if kf.is_nan() || ku.is_nan() || kf <= 0.0 || ku <= 0.0 || !kf.is_finite() || !ku.is_finite() {
-        return Err(InputErrors::from(crate::error::InputError::new(
+        return Err(InputErrors::from(crate::physics::error::InputError::new(
             f_w,
             InputErrorKind::NotCovered(format!(
                 "{} gives no positive conductivity at this water content",
@@ -312,7 +312,7 @@ fn kersten(
         });
     }
     if w <= 0.0 {
-        return Err(InputErrors::from(crate::error::InputError::new(
+        return Err(InputErrors::from(crate::physics::error::InputError::new(
             f_w,
             InputErrorKind::NotCovered(
                 "Kersten 1949 needs a water content above 0 %; choose Johansen 1975 for dry soil"

@@ -13,7 +13,7 @@
 
 use chrono::{Datelike, NaiveDate};
 
-use crate::error::{check, InputError, InputErrorKind, InputErrors, Warning};
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
 
 /// Seconds in a day.
 pub const SECONDS_PER_DAY: f64 = 86_400.0;
@@ -22,7 +22,7 @@ pub const DAYS_PER_YEAR: f64 = 365.0;
 /// Longest daily series accepted: 200 years of days.
 pub const MAX_SERIES_DAYS: usize = 200 * 366;
 /// Daily mean air temperatures accepted, °C (beyond any climate on Earth).
-pub const AIR_TEMPERATURE_RANGE_C: (f64, f64) = crate::stack::TEMPERATURE_RANGE_C;
+pub const AIR_TEMPERATURE_RANGE_C: (f64, f64) = crate::physics::stack::TEMPERATURE_RANGE_C;
 /// Snow depths accepted, m (deeper than any seasonal snowpack on the ground).
 pub const SNOW_DEPTH_RANGE_M: (f64, f64) = (0.0, 20.0);
 /// Snow densities accepted, kg/m³: fresh powder can be below 50; nothing porous is denser

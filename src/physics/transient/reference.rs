@@ -4,9 +4,9 @@
 //! amplitude 16 K, coldest on day 30), snow building to 30 cm in midwinter.
 
 use super::grid::GridSpec;
-use super::run::{Forcing, Initial, RunSpec, SinusoidalYear, TopModel};
+use super::setup::{Forcing, Initial, RunSpec, SinusoidalYear, TopModel};
 use super::BottomCondition;
-use crate::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use crate::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
 
 /// Sinusoidal air and a snow cover from day 300 to day 100 of the next year, peaking at
 /// 0.3 m, density 250 kg/m³.

@@ -5,7 +5,7 @@
 //!   sink ([`RadialWall`]): radial in a sphere sector (face areas Ω r², cell volumes
 //!   Ω (r₂³ − r₁³)/3, conductance between two radii Ω k/(1/r₁ − 1/r₂), the exact steady
 //!   spherical resistance, so the columns reach the steady shell formula exactly) or straight
-//!   in a plane wall. Faces come from the project's grid ([`crate::transient::grid`]): fine
+//!   in a plane wall. Faces come from the project's grid ([`crate::physics::transient::grid`]): fine
 //!   at the inner surface, growing outwards. Deep snow and ground (infinite outer radius in
 //!   the steady model) are cut at 10 √(a t_end) beyond the surface, at least 0.5 m, and held
 //!   there at their temperature: at the end of the night the heat has not reached that far
@@ -32,9 +32,9 @@
 use super::model::{Geometry, Model, Sink};
 use super::steady;
 use super::{Conditions, Shelter, ShelterError, NIGHT_FIELD};
-use crate::error::{check, InputErrors, Warning};
-use crate::materials::ice::{AIR_SPECIFIC_HEAT_J_PER_KG_K, LATENT_HEAT_FUSION_J_PER_KG};
-use crate::transient::grid::{faces, GridSpec};
+use crate::physics::error::{check, InputErrors, Warning};
+use crate::physics::materials::ice::{AIR_SPECIFIC_HEAT_J_PER_KG_K, LATENT_HEAT_FUSION_J_PER_KG};
+use crate::physics::transient::grid::{faces, GridSpec};
 
 /// Most cell-steps (cells of all columns × time steps) a night may take: a few seconds of
 /// work natively (a limit of this tool).
@@ -336,7 +336,7 @@ impl NightSettings {
         if self.grid.max_cell_m < self.grid.surface_cell_m {
             errs.push(
                 f("grid.max_cell_m"),
-                crate::error::InputErrorKind::NotCovered(
+                crate::physics::error::InputErrorKind::NotCovered(
                     "the largest cell must not be smaller than the first".into(),
                 ),
             );
@@ -354,7 +354,7 @@ impl NightSettings {
             if steps > 2.0e6 {
                 errs.push(
                     f("step_s"),
-                    crate::error::InputErrorKind::NotCovered(format!(
+                    crate::physics::error::InputErrorKind::NotCovered(format!(
                         "{steps:.0} steps: at most 2 000 000 are run"
                     )),
                 );
@@ -509,7 +509,7 @@ fn run(
         let mut e = InputErrors::default();
         e.push(
             format!("{NIGHT_FIELD}.grid.surface_cell_m"),
-            crate::error::InputErrorKind::NotCovered(format!(
+            crate::physics::error::InputErrorKind::NotCovered(format!(
                 "{cells} cells over {steps_wanted:.0} steps is more work than the {MAX_CELL_STEPS:.0e} cell-steps a night may take: use coarser cells or longer steps"
             )),
         );

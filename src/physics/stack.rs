@@ -5,8 +5,8 @@
 //! bottom is deep soil; for a snow wall, the top face is the outside and the bottom the
 //! inside.
 
-use crate::error::{check, InputErrorKind, InputErrors, Warning};
-use crate::materials::{Material, MaterialSpec};
+use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};
+use crate::physics::materials::{Material, MaterialSpec};
 
 /// Most layers a stack may have.
 pub const MAX_LAYERS: usize = 64;

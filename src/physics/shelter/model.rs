@@ -61,11 +61,13 @@
 use super::{
     Conditions, Entrance, Floor, Shape, Shelter, ShelterError, CONDITIONS_FIELD, SHELTER_FIELD,
 };
-use crate::error::{check, InputErrorKind, InputErrors, Warning};
-use crate::materials::ice::{
+use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};
+use crate::physics::materials::ice::{
     ice_specific_heat_j_per_kg_k, AIR_SPECIFIC_HEAT_J_PER_KG_K, KELVIN_OFFSET,
 };
-use crate::materials::snow::{SnowCorrelation, MAX_SNOW_DENSITY_KG_M3, MIN_SNOW_DENSITY_KG_M3};
+use crate::physics::materials::snow::{
+    SnowCorrelation, MAX_SNOW_DENSITY_KG_M3, MIN_SNOW_DENSITY_KG_M3,
+};
 use std::f64::consts::PI;
 
 /// 1 met, W per m² of body surface (ASHRAE Fundamentals, read in a reprint).

@@ -10,7 +10,7 @@
 
 use super::steady::{self, SteadyResult};
 use super::{Conditions, Shelter, ShelterError, SHELTER_FIELD};
-use crate::error::{InputErrorKind, InputErrors};
+use crate::physics::error::{InputErrorKind, InputErrors};
 
 /// Thinnest and thickest walls the search considers, m.
 pub const SEARCH_THICKNESS_M: (f64, f64) = (0.05, 3.0);

@@ -3,7 +3,7 @@
 //!
 //! Target cell size at x: h(x) = min(h_max, h₀ + (r − 1) d(x)), d the distance to the
 //! nearest focus point: the continuous form of cells that grow by a ratio r from one to the
-//! next (as the column grid, [`crate::transient::grid`]). Each interval between two
+//! next (as the column grid, [`crate::physics::transient::grid`]). Each interval between two
 //! consecutive required faces gets n = ⌈∫ dx/h⌉ cells (at least one, so a thin board gets a
 //! cell of its own), placed so that each spans an equal share of that integral (the
 //! integral by the midpoint rule on pieces a quarter of the finest cell long, its inverse by linear interpolation: a

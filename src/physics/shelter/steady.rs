@@ -26,9 +26,9 @@
 
 use super::model::{Model, Part};
 use super::{Conditions, Shelter, ShelterError};
-use crate::error::Warning;
-use crate::materials::ice::LATENT_HEAT_FUSION_J_PER_KG;
-use crate::materials::snow::SnowCorrelation;
+use crate::physics::error::Warning;
+use crate::physics::materials::ice::LATENT_HEAT_FUSION_J_PER_KG;
+use crate::physics::materials::snow::SnowCorrelation;
 
 /// Outdoor CO₂, ppm (from memory, see the module documentation).
 pub const OUTDOOR_CO2_PPM: f64 = 420.0;

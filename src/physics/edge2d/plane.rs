@@ -1,7 +1,7 @@
 //! The plane (2D) enthalpy solver on a rectangular grid of cells, per metre of length
 //! perpendicular to the plane.
 //!
-//! Method: the physics of the column solver ([`crate::transient`]) cell by cell, in two
+//! Method: the physics of the column solver ([`crate::physics::transient`]) cell by cell, in two
 //! dimensions.
 //! - Cells (i, j), i along x (columns), j along z (rows, downwards), stored row-major
 //!   (index j·nx + i). The unknown of each cell is its volumetric enthalpy H (J/m³), with
@@ -48,8 +48,8 @@
 #![allow(clippy::needless_range_loop)]
 
 use super::axis;
-use crate::transient::phase::Phase;
-use crate::transient::BottomCondition;
+use crate::physics::transient::phase::Phase;
+use crate::physics::transient::BottomCondition;
 
 /// Where T(H) has a kink (the edges of the melting interval of a cell that changes phase at
 /// one temperature; the top of the freezing range of an unfrozen-water curve), a Newton

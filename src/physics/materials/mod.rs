@@ -15,7 +15,7 @@ pub use law::{Branch, ConductivityLaw};
 pub use snow::SnowCorrelation;
 pub use soil::{SoilInput, SoilModel, SoilProperties, Texture};
 
-use crate::error::{check, InputError, InputErrorKind, InputErrors, Warning};
+use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
 
 /// Generic insulation boards. Nominal conductivities are typical published values for the
 /// product class (common practice, no single source; individual products differ, so the

@@ -4,8 +4,9 @@
 use super::{
     EdgeSection, Inside, Layout, Outside, PlaneError, Region, TopFace, TOP_INSIDE, TOP_OUTSIDE,
 };
-use crate::error::InputErrors;
-use crate::transient::run::{Forcing, Progress};
+use crate::physics::error::InputErrors;
+use crate::physics::transient::run::Progress;
+use crate::physics::transient::setup::Forcing;
 
 /// Why a run could not start or go on.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]

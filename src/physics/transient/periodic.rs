@@ -4,7 +4,7 @@
 //!
 //! Source: the temperature waves of a semi-infinite solid under a periodic surface
 //! temperature (Carslaw & Jaeger 1959 §2.6; the annual wave in frozen ground as in
-//! Lunardini 1981, Heat Transfer in Cold Climates), [`crate::analytic::PeriodicSurface`] in
+//! Lunardini 1981, Heat Transfer in Cold Climates), [`crate::physics::analytic::PeriodicSurface`] in
 //! this crate, plus the steady mean profile under the deep boundary:
 //!
 //! T(z, t) = T̄(z) − A_s e^{−Z(z)} cos(ω (t − t_c) + φ − Z(z)),  Z(z) = ∫₀ᶻ dz′ / d(z′),
@@ -33,12 +33,12 @@
 //!   taken as if the column went on below the bottom (negligible when the column is several
 //!   damping depths deep).
 //! - **Latent heat is ignored**: this is a start point. Under a freezing winter it puts the
-//!   0 °C isotherm too deep; a spin-up from it ([`super::run::Initial::SpinUp`] with a wave)
+//!   0 °C isotherm too deep; a spin-up from it ([`super::setup::Initial::SpinUp`] with a wave)
 //!   refines it.
 
-use super::run::{RunSpec, TopModel};
+use super::setup::{RunSpec, TopModel};
 use super::BottomCondition;
-use crate::climate::{AnnualWave, DAYS_PER_YEAR, SECONDS_PER_DAY};
+use crate::physics::climate::{AnnualWave, DAYS_PER_YEAR, SECONDS_PER_DAY};
 
 /// One layer as the periodic profile sees it.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -76,7 +76,7 @@ pub struct PeriodicProfile {
 /// M ≤ −A, 0 if M ≥ A), min(T, 0) has mean (M θ₀ − A sin θ₀)/π and cosine coefficient
 /// (2 M sin θ₀ − A (θ₀ + sin θ₀ cos θ₀))/π; n(T)·T = n_t T + (n_f − n_t) min(T, 0). The
 /// mean of min(T, 0) is −1/365 of the sinusoid's freezing index
-/// ([`crate::climate::sinusoid_freezing_index_c_days`]). The wave keeps its phase (the
+/// ([`crate::physics::climate::sinusoid_freezing_index_c_days`]). The wave keeps its phase (the
 /// surface is coldest when the air is).
 pub fn n_factor_wave(mean_c: f64, amplitude_k: f64, freezing: f64, thawing: f64) -> (f64, f64) {
     let (m, a) = (mean_c, amplitude_k.max(0.0));
