@@ -10,9 +10,7 @@
 
 pub mod physics;
 
-pub mod chart;
-pub mod chart_field;
-pub mod chart_ranges;
+pub mod charts;
 pub mod climate_csv;
 pub mod climate_import;
 pub mod scenario;

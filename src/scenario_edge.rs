@@ -7,7 +7,6 @@
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
-use crate::chart_field::{Outline, OutlineKind};
 use crate::physics::analytic;
 use crate::physics::climate::Climate;
 use crate::physics::edge2d::{
@@ -799,25 +798,6 @@ impl EdgeReport {
                 .partial_cmp(&(b.time_s / DAY - day).abs())
                 .unwrap_or(std::cmp::Ordering::Equal)
         })
-    }
-
-    /// The outlines for [`crate::chart_field::draw_field_map`].
-    pub fn chart_outlines(&self) -> Vec<Outline> {
-        self.outlines
-            .iter()
-            .map(|o| Outline {
-                x0_m: o.x0_m,
-                x1_m: o.x1_m,
-                z0_m: o.z0_m,
-                z1_m: o.z1_m,
-                kind: match o.part {
-                    "wall-board" | "wing" => OutlineKind::Insulation,
-                    "slab" | "wall" => OutlineKind::Concrete,
-                    _ => OutlineKind::Other,
-                },
-                label: o.part.replace('-', " "),
-            })
-            .collect()
     }
 }
 

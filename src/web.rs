@@ -363,7 +363,7 @@ type CanvasArea =
 fn draw_on<R>(
     canvas: web_sys::HtmlCanvasElement,
     report: Result<&R, &str>,
-    f: impl FnOnce(&CanvasArea, &R) -> Result<(), crate::chart::ChartError>,
+    f: impl FnOnce(&CanvasArea, &R) -> Result<(), crate::charts::frame::ChartError>,
 ) -> JsValue {
     let outcome = |message: Option<String>| {
         to_js(&DrawOutcome {
@@ -402,7 +402,7 @@ pub fn draw_profile(
             .join("; ")
     });
     draw_on(canvas, c.as_ref().map_err(String::as_str), |root, c| {
-        crate::chart::draw_profile(root, c, sys, pixel_ratio)
+        crate::charts::profile::draw_profile(root, c, sys, pixel_ratio)
     })
 }
 
@@ -735,7 +735,7 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_frost_depth(root, w, units(unit_system), pixel_ratio)
+            crate::charts::winter::draw_frost_depth(root, w, units(unit_system), pixel_ratio)
         })
     }
 
@@ -749,7 +749,13 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_winter_profile(root, w, day, units(unit_system), pixel_ratio)
+            crate::charts::winter::draw_winter_profile(
+                root,
+                w,
+                day,
+                units(unit_system),
+                pixel_ratio,
+            )
         })
     }
 
@@ -761,7 +767,7 @@ impl WinterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, w| {
-            crate::chart::draw_ground_series(root, w, units(unit_system), pixel_ratio)
+            crate::charts::winter::draw_ground_series(root, w, units(unit_system), pixel_ratio)
         })
     }
 }
@@ -773,7 +779,7 @@ impl WinterRun {
         f: impl FnOnce(
             &CanvasArea,
             &crate::scenario_winter::WinterReport,
-        ) -> Result<(), crate::chart::ChartError>,
+        ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
             canvas,
@@ -946,7 +952,7 @@ impl EdgeRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| {
-            crate::chart::draw_edge_field(root, r, day, units(unit_system), pixel_ratio)
+            crate::charts::edge::draw_edge_field(root, r, day, units(unit_system), pixel_ratio)
         })
     }
 
@@ -959,7 +965,7 @@ impl EdgeRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| {
-            crate::chart::draw_edge_series(root, r, units(unit_system), pixel_ratio)
+            crate::charts::edge::draw_edge_series(root, r, units(unit_system), pixel_ratio)
         })
     }
 }
@@ -971,7 +977,7 @@ impl EdgeRun {
         f: impl FnOnce(
             &CanvasArea,
             &crate::scenario_edge::EdgeReport,
-        ) -> Result<(), crate::chart::ChartError>,
+        ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
             canvas,
@@ -1096,7 +1102,7 @@ impl ShelterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| {
-            crate::chart::draw_shelter_night(root, r, units(unit_system), pixel_ratio)
+            crate::charts::shelter::draw_shelter_night(root, r, units(unit_system), pixel_ratio)
         })
     }
 
@@ -1109,14 +1115,14 @@ impl ShelterRun {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| match r.sweeps.get(which as usize) {
-            Some(s) => crate::chart::draw_shelter_sweep(
+            Some(s) => crate::charts::shelter::draw_shelter_sweep(
                 root,
                 s,
                 r.least_wall.target_c,
                 units(unit_system),
                 pixel_ratio,
             ),
-            None => Err(crate::chart::ChartError(format!(
+            None => Err(crate::charts::frame::ChartError(format!(
                 "there is no series {which}"
             ))),
         })
@@ -1130,7 +1136,7 @@ impl ShelterRun {
         f: impl FnOnce(
             &CanvasArea,
             &crate::scenario_shelter::ShelterReport,
-        ) -> Result<(), crate::chart::ChartError>,
+        ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
             canvas,
@@ -1352,7 +1358,13 @@ impl RangesStudy {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| {
-            crate::chart_ranges::draw_report_spread(root, r, index, units(unit_system), pixel_ratio)
+            crate::charts::ranges::draw_report_spread(
+                root,
+                r,
+                index,
+                units(unit_system),
+                pixel_ratio,
+            )
         })
     }
 
@@ -1365,7 +1377,7 @@ impl RangesStudy {
         pixel_ratio: f64,
     ) -> JsValue {
         self.draw(canvas, |root, r| {
-            crate::chart_ranges::draw_report_sensitivity(
+            crate::charts::ranges::draw_report_sensitivity(
                 root,
                 r,
                 index,
@@ -1397,7 +1409,7 @@ impl RangesStudy {
         f: impl FnOnce(
             &CanvasArea,
             &crate::scenario_ranges::RangesReport,
-        ) -> Result<(), crate::chart::ChartError>,
+        ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
             canvas,

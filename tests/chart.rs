@@ -8,7 +8,7 @@ use common::*;
 use std::process::Command;
 use std::sync::OnceLock;
 
-use hibernal::chart::{
+use hibernal::charts::winter::{
     draw_ground_series, draw_winter_profile, ground_series_svg, winter_profile_svg,
 };
 use hibernal::physics::units::{quantity, UnitSystem};
@@ -612,7 +612,7 @@ fn a_field_map_draws_every_cell_and_finds_the_0c_line_where_it_is() {
     // lies at z = 0.5 m exactly (marching squares with linear interpolation along edges is
     // exact for a linear field), across the whole width. The SVG holds one rectangle per
     // cell, the caption, the outlines; US units label the colour bar in °F (NIST SP 811).
-    use hibernal::chart_field::{field_map_svg, zero_line, FieldMap, Outline, OutlineKind};
+    use hibernal::charts::field::{field_map_svg, zero_line, FieldMap, Outline, OutlineKind};
     use hibernal::physics::units::UnitSystem;
     let x: Vec<f64> = [0.0, 0.1, 0.3, 0.6, 1.0, 1.5, 2.2, 3.0].to_vec();
     let z: Vec<f64> = (0..=12).map(|k| (k as f64 * 0.1).powf(1.2)).collect();

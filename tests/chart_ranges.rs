@@ -11,7 +11,7 @@
 mod common;
 use common::*;
 
-use hibernal::chart_ranges::{
+use hibernal::charts::ranges::{
     draw_sensitivity, draw_spread, histogram, pack_labels, sensitivity_svg, spread_svg, Histogram,
     SensitivityChart, SpreadChart, LARGEST_DRAWN, MAX_BINS, MIN_BINS,
 };

@@ -320,9 +320,9 @@ fn csv_files_name_their_units_and_convert() {
 fn charts_render_and_never_fail() {
     let r = run(&quick("heated-workshop-edge", 14.0));
     for sys in [UnitSystem::Si, UnitSystem::Us] {
-        let field = hibernal::chart::edge_field_svg(&r, 7.0, sys, 800, 500).unwrap();
+        let field = hibernal::charts::edge::edge_field_svg(&r, 7.0, sys, 800, 500).unwrap();
         assert!(field.contains("day 7"), "the day in the caption");
-        let series = hibernal::chart::edge_series_svg(&r, sys, 800, 500).unwrap();
+        let series = hibernal::charts::edge::edge_series_svg(&r, sys, 800, 500).unwrap();
         assert!(series.contains("Footing&apos;s base") || series.contains("Footing's base"));
         assert!(series.contains("1D column"));
     }
@@ -331,12 +331,12 @@ fn charts_render_and_never_fail() {
     empty.daily.clear();
     empty.fields.clear();
     assert!(
-        hibernal::chart::edge_field_svg(&empty, f64::NAN, UnitSystem::Si, 400, 300)
+        hibernal::charts::edge::edge_field_svg(&empty, f64::NAN, UnitSystem::Si, 400, 300)
             .unwrap()
             .contains("no field")
     );
     assert!(
-        hibernal::chart::edge_series_svg(&empty, UnitSystem::Si, 400, 300)
+        hibernal::charts::edge::edge_series_svg(&empty, UnitSystem::Si, 400, 300)
             .unwrap()
             .contains("No day")
     );
@@ -346,7 +346,7 @@ fn charts_render_and_never_fail() {
         d.slab_heat_w_m = f64::INFINITY;
     }
     nan.base_depth_m = f64::NAN;
-    assert!(hibernal::chart::edge_series_svg(&nan, UnitSystem::Us, 400, 300).is_ok());
+    assert!(hibernal::charts::edge::edge_series_svg(&nan, UnitSystem::Us, 400, 300).is_ok());
 }
 
 fn cli() -> Command {
@@ -548,8 +548,8 @@ mod never_panics {
                     let r = job.finish();
                     prop_assert_eq!(r.cautions.len(), 4);
                     prop_assert!(r.daily.iter().all(|d| d.frost_below_base_m.is_finite()));
-                    let _ = hibernal::chart::edge_field_svg(&r, 3.0, UnitSystem::Us, 300, 200);
-                    let _ = hibernal::chart::edge_series_svg(&r, UnitSystem::Si, 300, 200);
+                    let _ = hibernal::charts::edge::edge_field_svg(&r, 3.0, UnitSystem::Us, 300, 200);
+                    let _ = hibernal::charts::edge::edge_series_svg(&r, UnitSystem::Si, 300, 200);
                     let _ = edge_field_csv(&r, 3.0, UnitSystem::Us);
                 }
                 Err(e) => {

@@ -295,7 +295,7 @@ mod never_panics {
                         let r = scenario::report(&s, &c);
                         prop_assert!(r.r_total_m2k_w.is_finite() && r.r_total_m2k_w > 0.0);
                         prop_assert!(r.heat_flux_w_m2.is_finite());
-                        let _ = hibernal::chart::profile_svg(&c, hibernal::physics::units::UnitSystem::Us, 300, 200);
+                        let _ = hibernal::charts::profile::profile_svg(&c, hibernal::physics::units::UnitSystem::Us, 300, 200);
                     }
                     Err(e) => prop_assert!(!e.0.is_empty()),
                 },

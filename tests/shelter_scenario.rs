@@ -325,7 +325,7 @@ fn csv_files_name_their_units_and_convert() {
 #[test]
 fn the_charts_carry_their_axes_series_and_limits() {
     let r = run(value("training-dome-four")).unwrap();
-    let night = hibernal::chart::shelter_night_svg(&r, UnitSystem::Si, 900, 520).unwrap();
+    let night = hibernal::charts::shelter::shelter_night_svg(&r, UnitSystem::Si, 900, 520).unwrap();
     for want in [
         "The first night inside",
         "Hours since people went in",
@@ -337,9 +337,10 @@ fn the_charts_carry_their_axes_series_and_limits() {
     ] {
         assert!(night.contains(want), "night chart has {want:?}");
     }
-    let us = hibernal::chart::shelter_night_svg(&r, UnitSystem::Us, 900, 520).unwrap();
+    let us = hibernal::charts::shelter::shelter_night_svg(&r, UnitSystem::Us, 900, 520).unwrap();
     assert!(us.contains("Temperature (°F)") && us.contains("32 °F: snow melts"));
-    let sweeps = hibernal::chart::shelter_sweeps_svg(&r, UnitSystem::Us, 1500, 480).unwrap();
+    let sweeps =
+        hibernal::charts::shelter::shelter_sweeps_svg(&r, UnitSystem::Us, 1500, 480).unwrap();
     for want in [
         "By wall thickness",
         "Wall thickness (in)",
@@ -361,11 +362,13 @@ fn the_charts_carry_their_axes_series_and_limits() {
         s.points.clear();
     }
     assert!(
-        hibernal::chart::shelter_night_svg(&empty, UnitSystem::Si, 400, 300)
+        hibernal::charts::shelter::shelter_night_svg(&empty, UnitSystem::Si, 400, 300)
             .unwrap()
             .contains("No night was run")
     );
-    assert!(hibernal::chart::shelter_sweeps_svg(&empty, UnitSystem::Si, 900, 300).is_ok());
+    assert!(
+        hibernal::charts::shelter::shelter_sweeps_svg(&empty, UnitSystem::Si, 900, 300).is_ok()
+    );
 }
 
 fn cli() -> Command {
@@ -533,8 +536,8 @@ mod never_panics {
                 Ok(r) => {
                     prop_assert!(r.interior_c.is_finite());
                     prop_assert!(!r.cautions.is_empty());
-                    let _ = hibernal::chart::shelter_night_svg(&r, UnitSystem::Us, 300, 200);
-                    let _ = hibernal::chart::shelter_sweeps_svg(&r, UnitSystem::Si, 600, 200);
+                    let _ = hibernal::charts::shelter::shelter_night_svg(&r, UnitSystem::Us, 300, 200);
+                    let _ = hibernal::charts::shelter::shelter_sweeps_svg(&r, UnitSystem::Si, 600, 200);
                 }
                 Err(e) => {
                     prop_assert!(!e.0.is_empty());

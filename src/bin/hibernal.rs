@@ -262,7 +262,7 @@ mod cli {
                             }
                         },
                     };
-                    use hibernal::chart_ranges::{report_sensitivity_svg, report_spread_svg};
+                    use hibernal::charts::ranges::{report_sensitivity_svg, report_spread_svg};
                     use hibernal::scenario_ranges::{summary_csv, trials_csv};
                     let text = match option {
                         "--ranges-csv" => trials_csv(r, sys),
@@ -288,7 +288,7 @@ mod cli {
                     let Some(w) = &computed.winter else {
                         return fail("--winter-svg needs a scenario with a winter section");
                     };
-                    let chart = match hibernal::chart::frost_depth_svg(w, sys, 900, 520) {
+                    let chart = match hibernal::charts::winter::frost_depth_svg(w, sys, 900, 520) {
                         Ok(s) => s,
                         Err(e) => return fail(e),
                     };
@@ -314,10 +314,11 @@ mod cli {
                     if !day.is_finite() {
                         return fail(format!("--profile-day must be a number of days, not {day}"));
                     }
-                    let chart = match hibernal::chart::winter_profile_svg(w, day, sys, 760, 720) {
-                        Ok(s) => s,
-                        Err(e) => return fail(e),
-                    };
+                    let chart =
+                        match hibernal::charts::winter::winter_profile_svg(w, day, sys, 760, 720) {
+                            Ok(s) => s,
+                            Err(e) => return fail(e),
+                        };
                     if let Err(e) = std::fs::write(&out, chart) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
@@ -326,7 +327,8 @@ mod cli {
                     let Some(w) = &computed.winter else {
                         return fail("--series-svg needs a scenario with a winter section");
                     };
-                    let chart = match hibernal::chart::ground_series_svg(w, sys, 960, 520) {
+                    let chart = match hibernal::charts::winter::ground_series_svg(w, sys, 960, 520)
+                    {
                         Ok(s) => s,
                         Err(e) => return fail(e),
                     };
@@ -357,8 +359,12 @@ mod cli {
                     };
                     use hibernal::scenario_shelter::{night_csv, sweeps_csv};
                     let text = match option {
-                        "--night-svg" => hibernal::chart::shelter_night_svg(r, sys, 900, 520),
-                        "--sweeps-svg" => hibernal::chart::shelter_sweeps_svg(r, sys, 1500, 480),
+                        "--night-svg" => {
+                            hibernal::charts::shelter::shelter_night_svg(r, sys, 900, 520)
+                        }
+                        "--sweeps-svg" => {
+                            hibernal::charts::shelter::shelter_sweeps_svg(r, sys, 1500, 480)
+                        }
                         "--night-csv" => Ok(night_csv(r, sys)),
                         _ => Ok(sweeps_csv(r, sys)),
                     };
@@ -389,8 +395,12 @@ mod cli {
                     use hibernal::scenario_edge::{edge_daily_csv, edge_field_csv};
                     let day = edge_day.unwrap_or(r.max_frost_below_base_day);
                     let text = match option {
-                        "--edge-svg" => hibernal::chart::edge_field_svg(r, day, sys, 1000, 640),
-                        "--edge-series-svg" => hibernal::chart::edge_series_svg(r, sys, 960, 520),
+                        "--edge-svg" => {
+                            hibernal::charts::edge::edge_field_svg(r, day, sys, 1000, 640)
+                        }
+                        "--edge-series-svg" => {
+                            hibernal::charts::edge::edge_series_svg(r, sys, 960, 520)
+                        }
                         "--edge-csv" => Ok(edge_daily_csv(r, sys)),
                         _ => Ok(edge_field_csv(r, day, sys)),
                     };
@@ -403,10 +413,11 @@ mod cli {
                     }
                 }
                 if let Some(out) = svg {
-                    let chart = match hibernal::chart::profile_svg(&computed, sys, 900, 640) {
-                        Ok(s) => s,
-                        Err(e) => return fail(e),
-                    };
+                    let chart =
+                        match hibernal::charts::profile::profile_svg(&computed, sys, 900, 640) {
+                            Ok(s) => s,
+                            Err(e) => return fail(e),
+                        };
                     if let Err(e) = std::fs::write(&out, chart) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }

@@ -1,12 +1,12 @@
 //! A cross-section's temperature field as a colour map, with the 0 °C line and the outlines
 //! of what is built in it (slab, footing, boards), written once against plotters' generic
-//! backend like the rest of [`crate::chart`]. The field is plain data ([`FieldMap`]), so any
+//! backend like the other charts. The field is plain data ([`FieldMap`]), so any
 //! 2D solver can hand it over.
 
 use plotters::coord::Shift;
 use plotters::prelude::*;
 
-use crate::chart::{chart_scale, err, svg_document, ChartError};
+use super::frame::{chart_scale, err, svg_document, ChartError};
 use crate::physics::units::{quantity, UnitSystem};
 
 /// What an outline is, for its stroke and fill.

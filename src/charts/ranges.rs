@@ -2,7 +2,7 @@
 //! histogram with its percentiles, the base case and the spread across the snow
 //! conductivity regressions) and one-at-a-time sensitivity (bars of the answer with each
 //! input at its low and its high end). Written once against plotters' generic
-//! [`DrawingBackend`], like [`crate::chart`]. The inputs are plain data
+//! [`DrawingBackend`], like the other charts. The inputs are plain data
 //! ([`SpreadChart`], [`SensitivityChart`]) and know nothing of the scenario document: all
 //! values are SI and `quantity` names the unit they are shown in ([`crate::physics::units`]).
 //!
@@ -13,7 +13,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
-use crate::chart::{
+use super::frame::{
     chart_scale, err, padded_range, svg_document, tick, tick_decimals, ChartError, BAND, INK,
 };
 use crate::physics::ranges::percentile_sorted;
