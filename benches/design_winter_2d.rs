@@ -52,8 +52,8 @@ fn main() {
 }
 
 fn edge_example() {
-    let s = hibernal::scenario::parse(
-        hibernal::scenario::example("heated-workshop-edge")
+    let s = hibernal::document::scenario::parse(
+        hibernal::document::examples::example("heated-workshop-edge")
             .expect("example")
             .json,
     )
@@ -63,7 +63,7 @@ fn edge_example() {
     let mut last = None;
     for _ in 0..3 {
         let t0 = Instant::now();
-        let r = hibernal::scenario_edge::run_edge_scenario(&doc).expect("example runs");
+        let r = hibernal::document::edge::run_edge_scenario(&doc).expect("example runs");
         times.push(t0.elapsed().as_secs_f64());
         last = Some(r);
     }

@@ -11,15 +11,7 @@
 pub mod physics;
 
 pub mod charts;
-pub mod climate_csv;
-pub mod climate_import;
-pub mod scenario;
-pub mod scenario_design;
-pub mod scenario_edge;
-pub mod scenario_edge_design;
-pub mod scenario_ranges;
-pub mod scenario_shelter;
-pub mod scenario_winter;
+pub mod document;
 
 #[cfg(target_arch = "wasm32")]
 pub mod web;

@@ -2,13 +2,18 @@
 //! wasm32 only. Every export takes plain JS values, returns plain JS objects and never panics
 //! on user input; a panic hook shows any bug on the page.
 
+use crate::document::compute;
+use crate::document::examples;
+use crate::document::steady;
+use crate::document::vocabulary;
 use serde::Serialize;
 use wasm_bindgen::prelude::*;
 
+use crate::document::scenario;
+use crate::document::vocabulary::ErrorDoc;
 use crate::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
 use crate::physics::stack::SURFACE_PRESETS;
 use crate::physics::units::{UnitSystem, QUANTITIES};
-use crate::scenario::{self, ErrorDoc};
 
 /// The unit system a page string names (SI for anything else).
 fn units(id: &str) -> UnitSystem {
@@ -129,7 +134,7 @@ struct Catalogue {
     /// What people in a shelter do, with the metabolic rate and its source.
     activities: Vec<ActivityInfo>,
     /// The shelter cautions, always shown, with their sources.
-    cautions: Vec<crate::scenario_shelter::CautionDoc>,
+    cautions: Vec<crate::document::shelter::CautionDoc>,
     units: std::collections::BTreeMap<&'static str, QuantityInfo>,
 }
 
@@ -236,7 +241,7 @@ pub fn catalogue() -> JsValue {
                 source: a.source(),
             })
             .collect(),
-        cautions: crate::scenario_shelter::cautions(),
+        cautions: crate::document::shelter::cautions(),
         units: QUANTITIES
             .iter()
             .map(|q| {
@@ -263,7 +268,7 @@ struct ExampleInfo {
 /// A bundled example read through a JSON value, the path the page's own scenarios take
 /// (`scenario::from_value`): reading text straight into the document would build a second
 /// copy of every deserializer into the module (about 100 KiB) for eight known-good files.
-fn bundled(json: &str) -> Result<scenario::Scenario, scenario::ErrorDoc> {
+fn bundled(json: &str) -> Result<scenario::Scenario, vocabulary::ErrorDoc> {
     let v: serde_json::Value =
         serde_json::from_str(json).map_err(|e| ErrorDoc::plain("", e.to_string()))?;
     scenario::from_value(v).map_err(|e| ErrorDoc::plain("", e.to_string()))
@@ -272,7 +277,7 @@ fn bundled(json: &str) -> Result<scenario::Scenario, scenario::ErrorDoc> {
 /// The bundled examples: `[{id, title, summary}]`.
 #[wasm_bindgen]
 pub fn examples() -> JsValue {
-    let list: Vec<ExampleInfo> = scenario::EXAMPLES
+    let list: Vec<ExampleInfo> = examples::EXAMPLES
         .iter()
         .map(|e| ExampleInfo {
             id: e.id,
@@ -288,7 +293,7 @@ pub fn examples() -> JsValue {
 /// One example as a scenario object, or null if there is none by that id.
 #[wasm_bindgen]
 pub fn example(id: &str) -> JsValue {
-    match scenario::example(id).map(|e| bundled(e.json)) {
+    match examples::example(id).map(|e| bundled(e.json)) {
         Some(Ok(s)) => to_js(&s),
         _ => JsValue::NULL,
     }
@@ -304,7 +309,7 @@ pub fn scenario_schema() -> JsValue {
 struct Outcome<'a> {
     ok: bool,
     #[serde(skip_serializing_if = "Option::is_none")]
-    report: Option<&'a scenario::Report>,
+    report: Option<&'a compute::Report>,
     #[serde(skip_serializing_if = "Option::is_none")]
     errors: Option<Vec<ErrorDoc>>,
 }
@@ -319,10 +324,9 @@ fn read_scenario(v: JsValue) -> Result<scenario::Scenario, Vec<ErrorDoc>> {
     scenario::from_value(value).map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
 }
 
-fn computed(v: JsValue) -> Result<(scenario::Scenario, scenario::Computed), Vec<ErrorDoc>> {
+fn computed(v: JsValue) -> Result<(scenario::Scenario, compute::Computed), Vec<ErrorDoc>> {
     let s = read_scenario(v)?;
-    let c =
-        scenario::compute(&s).map_err(|e| e.0.iter().map(ErrorDoc::from).collect::<Vec<_>>())?;
+    let c = steady::compute(&s).map_err(|e| e.0.iter().map(ErrorDoc::from).collect::<Vec<_>>())?;
     Ok((s, c))
 }
 
@@ -331,7 +335,7 @@ fn computed(v: JsValue) -> Result<(scenario::Scenario, scenario::Computed), Vec<
 pub fn compute(scenario_value: JsValue) -> JsValue {
     match computed(scenario_value) {
         Ok((s, c)) => {
-            let r = scenario::report(&s, &c);
+            let r = compute::report(&s, &c);
             to_js(&Outcome {
                 ok: true,
                 report: Some(&r),
@@ -411,7 +415,7 @@ pub fn draw_profile(
 #[wasm_bindgen]
 pub fn profile_csv(scenario_value: JsValue, unit_system: &str) -> String {
     match computed(scenario_value) {
-        Ok((_, c)) => crate::scenario::profile_csv(&c, units(unit_system)),
+        Ok((_, c)) => crate::document::steady::profile_csv(&c, units(unit_system)),
         Err(_) => String::new(),
     }
 }
@@ -460,9 +464,10 @@ pub fn benchmark_reference_year() -> JsValue {
 /// line.
 #[wasm_bindgen]
 pub fn import_climate_csv(text: &str, options: JsValue) -> JsValue {
-    match serde_wasm_bindgen::from_value::<crate::climate_import::ImportOptions>(options) {
-        Ok(o) => to_js(&crate::climate_import::import_csv(text, &o)),
-        Err(e) => to_js(&crate::climate_import::ImportOutcome {
+    match serde_wasm_bindgen::from_value::<crate::document::climate_import::ImportOptions>(options)
+    {
+        Ok(o) => to_js(&crate::document::climate_import::import_csv(text, &o)),
+        Err(e) => to_js(&crate::document::climate_import::ImportOutcome {
             ok: false,
             problems: Vec::new(),
             more_problems: 0,
@@ -477,7 +482,7 @@ pub fn import_climate_csv(text: &str, options: JsValue) -> JsValue {
 struct SummaryOutcome {
     ok: bool,
     #[serde(skip_serializing_if = "Option::is_none")]
-    summary: Option<crate::climate_import::ImportSummary>,
+    summary: Option<crate::document::climate_import::ImportSummary>,
     #[serde(skip_serializing_if = "Vec::is_empty")]
     errors: Vec<ErrorDoc>,
 }
@@ -486,8 +491,8 @@ struct SummaryOutcome {
 /// each winter's freezing index and the design values: `{ok, summary}` or `{ok, errors}`.
 #[wasm_bindgen]
 pub fn summarise_days(days: JsValue, season_start_month: u32) -> JsValue {
-    let out = match serde_wasm_bindgen::from_value::<Vec<crate::scenario_winter::DayDoc>>(days) {
-        Ok(d) => match crate::climate_import::summarise_days(&d, season_start_month) {
+    let out = match serde_wasm_bindgen::from_value::<Vec<crate::document::weather::DayDoc>>(days) {
+        Ok(d) => match crate::document::climate_import::summarise_days(&d, season_start_month) {
             Ok(s) => SummaryOutcome {
                 ok: true,
                 summary: Some(s),
@@ -578,8 +583,8 @@ fn step_outcome(
 /// [`DesignRun::errors`] and `advance`.
 #[wasm_bindgen]
 pub struct DesignRun {
-    job: Option<crate::scenario_design::DesignJob>,
-    report: Option<crate::scenario_design::LeastThicknessReport>,
+    job: Option<crate::document::winter_least::DesignJob>,
+    report: Option<crate::document::winter::LeastThicknessReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -603,7 +608,7 @@ impl DesignRun {
                 "the scenario has no winter section",
             )]);
         };
-        match crate::scenario_design::DesignJob::new(w, &c.result.stack, &s.layers) {
+        match crate::document::winter_least::DesignJob::new(w, &c.result.stack, &s.layers) {
             Ok(job) => DesignRun {
                 job: Some(job),
                 report: None,
@@ -644,8 +649,8 @@ impl DesignRun {
 /// [`WinterRun::errors`], and a run that fails by `advance`.
 #[wasm_bindgen]
 pub struct WinterRun {
-    job: Option<crate::scenario_winter::WinterJob>,
-    report: Option<crate::scenario_winter::WinterReport>,
+    job: Option<crate::document::winter::WinterJob>,
+    report: Option<crate::document::winter::WinterReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -675,7 +680,7 @@ impl WinterRun {
                 "the scenario has no winter section",
             )]);
         };
-        match crate::scenario_winter::WinterJob::new(w, &c.result.stack, &s.layers) {
+        match crate::document::winter::WinterJob::new(w, &c.result.stack, &s.layers) {
             Ok(job) => WinterRun {
                 job: Some(job),
                 report: None,
@@ -715,7 +720,7 @@ impl WinterRun {
     pub fn csv(&self, unit_system: &str) -> String {
         let sys = units(unit_system);
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_winter::daily_csv_in(r, sys)
+            crate::document::winter::daily_csv_in(r, sys)
         })
     }
 
@@ -723,7 +728,7 @@ impl WinterRun {
     /// chosen units; empty before the end.
     pub fn profiles_csv(&self, unit_system: &str) -> String {
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_winter::profiles_csv(r, units(unit_system))
+            crate::document::winter::profiles_csv(r, units(unit_system))
         })
     }
 
@@ -778,7 +783,7 @@ impl WinterRun {
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
             &CanvasArea,
-            &crate::scenario_winter::WinterReport,
+            &crate::document::winter::WinterReport,
         ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
@@ -793,7 +798,7 @@ impl WinterRun {
 /// that stop it: the scenario unreadable, no edge section, or the section's own.
 fn edge_job<J>(
     scenario_value: JsValue,
-    make: impl FnOnce(&crate::scenario_edge::EdgeDoc) -> Result<J, crate::physics::error::InputErrors>,
+    make: impl FnOnce(&crate::document::edge::EdgeDoc) -> Result<J, crate::physics::error::InputErrors>,
 ) -> Result<J, Vec<ErrorDoc>> {
     let s = read_scenario(scenario_value)?;
     let Some(d) = &s.edge else {
@@ -810,8 +815,8 @@ fn edge_job<J>(
 /// [`DesignRun`]: each trial is a whole winter of the section. The constructor never throws.
 #[wasm_bindgen]
 pub struct EdgeDesignRun {
-    job: Option<crate::scenario_edge_design::EdgeLeastJob>,
-    report: Option<crate::scenario_edge_design::EdgeLeastReport>,
+    job: Option<crate::document::edge_least::EdgeLeastJob>,
+    report: Option<crate::document::edge::EdgeLeastReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -821,7 +826,7 @@ impl EdgeDesignRun {
     #[wasm_bindgen(constructor)]
     pub fn new(scenario_value: JsValue) -> EdgeDesignRun {
         match edge_job(scenario_value, |d| {
-            crate::scenario_edge_design::EdgeLeastJob::new(d)
+            crate::document::edge_least::EdgeLeastJob::new(d)
         }) {
             Ok(job) => EdgeDesignRun {
                 job: Some(job),
@@ -866,8 +871,8 @@ impl EdgeDesignRun {
 /// fails by `advance`.
 #[wasm_bindgen]
 pub struct EdgeRun {
-    job: Option<crate::scenario_edge::EdgeJob>,
-    report: Option<crate::scenario_edge::EdgeReport>,
+    job: Option<crate::document::edge::EdgeJob>,
+    report: Option<crate::document::edge::EdgeReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -876,7 +881,7 @@ impl EdgeRun {
     /// Check the scenario's edge section and set the run up.
     #[wasm_bindgen(constructor)]
     pub fn new(scenario_value: JsValue) -> EdgeRun {
-        match edge_job(scenario_value, crate::scenario_edge::EdgeJob::new) {
+        match edge_job(scenario_value, crate::document::edge::EdgeJob::new) {
             Ok(job) => EdgeRun {
                 job: Some(job),
                 report: None,
@@ -928,7 +933,7 @@ impl EdgeRun {
     pub fn csv(&self, unit_system: &str) -> String {
         let sys = units(unit_system);
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_edge::edge_daily_csv(r, sys)
+            crate::document::edge::edge_daily_csv(r, sys)
         })
     }
 
@@ -938,7 +943,7 @@ impl EdgeRun {
         let sys = units(unit_system);
         let day = if day.is_finite() { day } else { 0.0 };
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_edge::edge_field_csv(r, day, sys)
+            crate::document::edge::edge_field_csv(r, day, sys)
         })
     }
 
@@ -976,7 +981,7 @@ impl EdgeRun {
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
             &CanvasArea,
-            &crate::scenario_edge::EdgeReport,
+            &crate::document::edge::EdgeReport,
         ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
@@ -1005,7 +1010,7 @@ struct EdgeBenchOutcome {
 /// clock. For the benchmark script, not for users.
 #[wasm_bindgen]
 pub fn benchmark_edge_winter() -> JsValue {
-    let doc = scenario::example("heated-workshop-edge")
+    let doc = examples::example("heated-workshop-edge")
         .ok_or_else(|| "no example".to_string())
         .and_then(|e| scenario::parse(e.json).map_err(|e| e.to_string()))
         .and_then(|s| s.edge.ok_or_else(|| "no edge section".to_string()));
@@ -1014,7 +1019,7 @@ pub fn benchmark_edge_winter() -> JsValue {
         Err(e) => return JsValue::from_str(&e),
     };
     let t0 = clock_ms();
-    let r = crate::scenario_edge::run_edge_scenario(&doc);
+    let r = crate::document::edge::run_edge_scenario(&doc);
     let ms = clock_ms() - t0;
     match r {
         Ok(r) => to_js(&EdgeBenchOutcome {
@@ -1037,7 +1042,7 @@ pub fn benchmark_edge_winter() -> JsValue {
 /// by [`ShelterRun::errors`], each error naming its field.
 #[wasm_bindgen]
 pub struct ShelterRun {
-    report: Option<crate::scenario_shelter::ShelterReport>,
+    report: Option<crate::document::shelter::ShelterReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -1060,7 +1065,7 @@ impl ShelterRun {
                 "the scenario has no shelter section",
             )]);
         };
-        match crate::scenario_shelter::run_shelter(doc) {
+        match crate::document::shelter::run_shelter(doc) {
             Ok(r) => ShelterRun {
                 report: Some(r),
                 errors: Vec::new(),
@@ -1083,14 +1088,14 @@ impl ShelterRun {
     /// result.
     pub fn night_csv(&self, unit_system: &str) -> String {
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_shelter::night_csv(r, units(unit_system))
+            crate::document::shelter::night_csv(r, units(unit_system))
         })
     }
 
     /// The three series as CSV text in the chosen units; empty without a result.
     pub fn sweeps_csv(&self, unit_system: &str) -> String {
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_shelter::sweeps_csv(r, units(unit_system))
+            crate::document::shelter::sweeps_csv(r, units(unit_system))
         })
     }
 
@@ -1135,7 +1140,7 @@ impl ShelterRun {
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
             &CanvasArea,
-            &crate::scenario_shelter::ShelterReport,
+            &crate::document::shelter::ShelterReport,
         ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
@@ -1154,8 +1159,8 @@ struct TaskOutcomeDoc {
     errors: Vec<Option<String>>,
 }
 
-impl From<&crate::scenario_ranges::TaskOutcome> for TaskOutcomeDoc {
-    fn from(o: &crate::scenario_ranges::TaskOutcome) -> Self {
+impl From<&crate::document::ranges::plan::TaskOutcome> for TaskOutcomeDoc {
+    fn from(o: &crate::document::ranges::plan::TaskOutcome) -> Self {
         TaskOutcomeDoc {
             values: o.values.iter().map(|v| v.as_ref().ok().copied()).collect(),
             errors: o.values.iter().map(|v| v.as_ref().err().cloned()).collect(),
@@ -1171,11 +1176,11 @@ impl From<&crate::scenario_ranges::TaskOutcome> for TaskOutcomeDoc {
 /// throws.
 #[wasm_bindgen]
 pub struct RangesStudy {
-    plan: Option<crate::scenario_ranges::RangesPlan>,
-    outcomes: Vec<Option<crate::scenario_ranges::TaskOutcome>>,
+    plan: Option<crate::document::ranges::plan::RangesPlan>,
+    outcomes: Vec<Option<crate::document::ranges::plan::TaskOutcome>>,
     recorded: usize,
     next: usize,
-    report: Option<crate::scenario_ranges::RangesReport>,
+    report: Option<crate::document::ranges::report::RangesReport>,
     errors: Vec<ErrorDoc>,
 }
 
@@ -1185,7 +1190,7 @@ impl RangesStudy {
     #[wasm_bindgen(constructor)]
     pub fn new(scenario_value: JsValue) -> RangesStudy {
         let plan = read_scenario(scenario_value).and_then(|s| {
-            crate::scenario_ranges::RangesPlan::new(&s)
+            crate::document::ranges::plan::RangesPlan::new(&s)
                 .map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
         });
         match plan {
@@ -1225,7 +1230,7 @@ impl RangesStudy {
 
     /// What task `k` is: `{kind: "sample"|"base"|"low"|"high"|"regression", input?, regression?}`.
     pub fn task_kind(&self, k: usize) -> JsValue {
-        use crate::scenario_ranges::Task;
+        use crate::document::ranges::plan::Task;
         #[derive(Serialize)]
         struct Kind {
             kind: &'static str,
@@ -1296,7 +1301,7 @@ impl RangesStudy {
                 (_, e) => Err(e.unwrap_or_else(|| "no value".into())),
             })
             .collect();
-        *slot = Some(crate::scenario_ranges::TaskOutcome { values });
+        *slot = Some(crate::document::ranges::plan::TaskOutcome { values });
         self.recorded += 1;
         if self.recorded == self.outcomes.len() {
             self.finish();
@@ -1390,14 +1395,14 @@ impl RangesStudy {
     /// Every Monte Carlo run as CSV in the chosen units (empty before the end).
     pub fn trials_csv(&self, unit_system: &str) -> String {
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_ranges::trials_csv(r, units(unit_system))
+            crate::document::ranges::csv::trials_csv(r, units(unit_system))
         })
     }
 
     /// The summary per result as CSV in the chosen units (empty before the end).
     pub fn summary_csv(&self, unit_system: &str) -> String {
         self.report.as_ref().map_or_else(String::new, |r| {
-            crate::scenario_ranges::summary_csv(r, units(unit_system))
+            crate::document::ranges::csv::summary_csv(r, units(unit_system))
         })
     }
 }
@@ -1408,7 +1413,7 @@ impl RangesStudy {
         canvas: web_sys::HtmlCanvasElement,
         f: impl FnOnce(
             &CanvasArea,
-            &crate::scenario_ranges::RangesReport,
+            &crate::document::ranges::report::RangesReport,
         ) -> Result<(), crate::charts::frame::ChartError>,
     ) -> JsValue {
         draw_on(
@@ -1436,12 +1441,13 @@ pub fn ranges_base_value(scenario_value: JsValue, what: &str, layer: i32) -> JsV
     let Ok(s) = read_scenario(scenario_value) else {
         return JsValue::NULL;
     };
-    let Some(w) = crate::scenario_ranges::RangedWhat::ALL
+    let Some(w) = crate::document::ranges::RangedWhat::ALL
         .into_iter()
         .find(|w| w.id() == what)
     else {
         return JsValue::NULL;
     };
     let layer = usize::try_from(layer).ok();
-    crate::scenario_ranges::base_value(&s, w, layer).map_or(JsValue::NULL, JsValue::from_f64)
+    crate::document::ranges::apply::base_value(&s, w, layer)
+        .map_or(JsValue::NULL, JsValue::from_f64)
 }

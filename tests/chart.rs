@@ -4,6 +4,8 @@
 
 mod common;
 use common::*;
+use hibernal::document::compute;
+use hibernal::document::examples;
 
 use std::process::Command;
 use std::sync::OnceLock;
@@ -11,9 +13,9 @@ use std::sync::OnceLock;
 use hibernal::charts::winter::{
     draw_ground_series, draw_winter_profile, ground_series_svg, winter_profile_svg,
 };
+use hibernal::document::scenario;
+use hibernal::document::winter::{DayProfile, WinterDay, WinterReport};
 use hibernal::physics::units::{quantity, UnitSystem};
-use hibernal::scenario;
-use hibernal::scenario_winter::{DayProfile, WinterDay, WinterReport};
 use plotters::prelude::*;
 use proptest::prelude::*;
 
@@ -22,8 +24,8 @@ fn yard() -> &'static WinterReport {
     static YARD: OnceLock<WinterReport> = OnceLock::new();
     YARD.get_or_init(|| {
         let s =
-            scenario::parse(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
-        scenario::compute_with_winter(&s).unwrap().winter.unwrap()
+            scenario::parse(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
+        compute::compute_with_winter(&s).unwrap().winter.unwrap()
     })
 }
 
@@ -508,7 +510,7 @@ fn cli_writes_the_day_profile_the_series_and_the_profiles_csv() {
     let file = dir.join("yard.json");
     std::fs::write(
         &file,
-        scenario::example("silty-yard-design-winter").unwrap().json,
+        examples::example("silty-yard-design-winter").unwrap().json,
     )
     .unwrap();
     let (profile, series, csv) = (
@@ -594,7 +596,7 @@ fn cli_writes_the_day_profile_the_series_and_the_profiles_csv() {
         "day",
     ]);
     let wall = dir.join("wall.json");
-    std::fs::write(&wall, scenario::example("snow-block-wall").unwrap().json).unwrap();
+    std::fs::write(&wall, examples::example("snow-block-wall").unwrap().json).unwrap();
     for opt in ["--profiles-csv", "--profile-svg", "--series-svg"] {
         let out = cli()
             .arg("run")

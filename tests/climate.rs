@@ -5,7 +5,7 @@ mod common;
 use common::*;
 
 use chrono::NaiveDate;
-use hibernal::climate_csv::{
+use hibernal::document::climate_csv::{
     read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, TemperatureUnit, MAX_CSV_BYTES,
     MAX_REPORTED_PROBLEMS,
 };
@@ -511,7 +511,7 @@ fn n_factors_and_surface_freezing_index() {
 
 // ---------------------------------------------------------------- CSV
 
-fn csv_ok(text: &str, o: &CsvOptions) -> hibernal::climate_csv::CsvImport {
+fn csv_ok(text: &str, o: &CsvOptions) -> hibernal::document::climate_csv::CsvImport {
     read_daily_csv(text, o).unwrap_or_else(|e| panic!("{e}"))
 }
 
@@ -912,7 +912,7 @@ fn a_record_brought_into_a_scenario_carries_its_winters_and_design_values() {
     // with the units its header names. Its design values must be those of the climate
     // module's own design_freezing_index on the same series (the TM 5-852-6 definitions:
     // mean of the three coldest winters, the coldest), and its days the series' days in SI.
-    use hibernal::climate_import::{import_csv, ImportOptions};
+    use hibernal::document::climate_import::{import_csv, ImportOptions};
     let text = include_str!("../scenarios/climate/cold-inland-valley-five-winters.csv");
     let o = ImportOptions {
         temperature: "°C".into(),
@@ -959,13 +959,13 @@ fn a_record_brought_into_a_scenario_carries_its_winters_and_design_values() {
         .unwrap();
     assert_eq!(doc.snow_depth_m, rec.snow_depth_m);
     // The same records summarised again (a scenario opened later) give the same summary.
-    let again = hibernal::climate_import::summarise_days(&out.days, 7).unwrap();
+    let again = hibernal::document::climate_import::summarise_days(&out.days, 7).unwrap();
     assert_eq!(again.winters, s.winters);
 }
 
 #[test]
 fn a_bad_record_is_refused_line_by_line_and_a_bad_unit_by_its_option() {
-    use hibernal::climate_import::{import_csv, ImportOptions};
+    use hibernal::document::climate_import::{import_csv, ImportOptions};
     let o = |t: &str| ImportOptions {
         temperature: t.into(),
         snow_depth: None,

@@ -3,6 +3,9 @@
 
 mod common;
 use common::*;
+use hibernal::document::compute;
+use hibernal::document::examples;
+use hibernal::document::steady;
 
 use hibernal::physics::analytic::stefan_depth_with_resistance_m;
 use hibernal::physics::least::{
@@ -269,9 +272,9 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
     // empty range is refused naming its field, and the CLI's report carries the answer with
     // every run. The answer is checked against runs of its own: the cabin example's board
     // at the answer keeps frost out of the ground below it, a resolution thinner does not.
-    use hibernal::scenario;
+    use hibernal::document::scenario;
     let mut v: serde_json::Value = serde_json::from_str(
-        scenario::example("cabin-porch-slab-snowy-winter")
+        examples::example("cabin-porch-slab-snowy-winter")
             .unwrap()
             .json,
     )
@@ -284,14 +287,14 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
     let s = scenario::from_value(v.clone()).unwrap();
     let text = serde_json::to_string(&s).unwrap();
     assert_eq!(scenario::parse(&text).unwrap(), s, "round trip");
-    let c = scenario::compute_with_winter(&s).unwrap();
+    let c = compute::compute_with_winter(&s).unwrap();
     let d = c.winter.unwrap().least_thickness.unwrap();
     assert_eq!(d.outcome, "found");
     let t = d.thickness_m.unwrap();
     // The board's R at the answer: the steady report's layer R scaled to the thickness
     // found (a board's k is constant, so R is proportional to thickness; the derating the
     // steady part applies is the one the run uses).
-    let steady = scenario::report(&s, &scenario::compute(&s).unwrap());
+    let steady = compute::report(&s, &steady::compute(&s).unwrap());
     let layer = &steady.layers[1];
     let r = d
         .r_value_m2k_w
@@ -314,7 +317,7 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
             .unwrap()
             .remove("least_thickness");
         let s = scenario::from_value(w).unwrap();
-        scenario::compute_with_winter(&s)
+        compute::compute_with_winter(&s)
             .unwrap()
             .winter
             .unwrap()
@@ -331,7 +334,7 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
         "min_m": 0.3, "max_m": 0.2
     });
     let s = scenario::from_value(v).unwrap();
-    let e = scenario::compute_with_winter(&s).unwrap_err();
+    let e = compute::compute_with_winter(&s).unwrap_err();
     let fields: Vec<&str> = e.0.iter().map(|x| x.field.as_str()).collect();
     for f in [
         "winter.least_thickness.layer",

@@ -2,15 +2,17 @@
 //! it (round trip, errors named under `edge.least`, the CLI's report), checked against runs
 //! of its own.
 
-use hibernal::scenario;
-use hibernal::scenario_edge::run_edge_scenario;
+use hibernal::document::compute;
+use hibernal::document::edge::run_edge_scenario;
+use hibernal::document::examples;
+use hibernal::document::scenario;
 use serde_json::{json, Value};
 
 /// The invented unheated store, on coarse cells and a shorter winter so each try is cheap
 /// (the numbers are not the example's; the checks compare runs on the same grid).
 fn quick_store() -> Value {
     let mut v: Value =
-        serde_json::from_str(scenario::example("unheated-storage-edge").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("unheated-storage-edge").unwrap().json).unwrap();
     v["edge"]["grid"] = json!({ "fine_m": 0.05, "growth_ratio": 1.3, "max_cell_m": 0.8 });
     v["edge"]["duration_days"] = json!(150);
     v
@@ -38,7 +40,7 @@ fn the_least_wing_width_holds_and_a_resolution_less_does_not() {
     let s = scenario::from_value(v.clone()).unwrap();
     let text = serde_json::to_string(&s).unwrap();
     assert_eq!(scenario::parse(&text).unwrap(), s, "round trip");
-    let r = scenario::compute_all(&s)
+    let r = compute::compute_all(&s)
         .unwrap()
         .edge
         .unwrap()
@@ -87,14 +89,14 @@ fn a_bad_search_is_refused_naming_its_fields() {
     ] {
         v["edge"]["least"] = least;
         let s = scenario::from_value(v.clone()).unwrap();
-        let e = scenario::compute_all(&s).unwrap_err();
+        let e = compute::compute_all(&s).unwrap_err();
         assert!(e.0.iter().any(|x| x.field == field), "{field}: {e:?}");
     }
     // A wall-board quantity where there is no board names the board.
     v["edge"]["least"] =
         json!({ "quantity": "wall-board-r", "min": 0.2, "max": 4.0, "resolution": 0.1 });
     let s = scenario::from_value(v.clone()).unwrap();
-    let e = scenario::compute_all(&s).unwrap_err();
+    let e = compute::compute_all(&s).unwrap_err();
     assert!(e.0.iter().any(|x| x.field == "edge.wall_board"), "{e:?}");
     // An unknown quantity is refused by the parser, naming the field.
     v["edge"]["least"] =

@@ -4,19 +4,21 @@
 
 mod common;
 use common::*;
+use hibernal::document::compute;
+use hibernal::document::examples;
 
-use hibernal::physics::units::UnitSystem;
-use hibernal::scenario;
-use hibernal::scenario_edge::{
+use hibernal::document::edge::{
     edge_daily_csv, edge_field_csv, run_edge_scenario, EdgeDoc, EdgeJob, EdgeReport,
 };
+use hibernal::document::scenario;
+use hibernal::physics::units::UnitSystem;
 use serde_json::{json, Value};
 use std::process::Command;
 
 const EDGE_EXAMPLES: [&str; 2] = ["heated-workshop-edge", "unheated-storage-edge"];
 
 fn value(id: &str) -> Value {
-    serde_json::from_str(scenario::example(id).unwrap().json).unwrap()
+    serde_json::from_str(examples::example(id).unwrap().json).unwrap()
 }
 
 /// An example made cheap for tests that do not need the default grid: coarse cells and a
@@ -50,11 +52,11 @@ fn run(v: &Value) -> EdgeReport {
 fn the_examples_show_both_outcomes_and_the_far_field_agrees_with_the_column() {
     let mut outcomes = Vec::new();
     for id in EDGE_EXAMPLES {
-        let s = scenario::parse(scenario::example(id).unwrap().json).unwrap();
+        let s = scenario::parse(examples::example(id).unwrap().json).unwrap();
         assert_eq!(s.version, 4, "{id}");
         let text = serde_json::to_string(&s).unwrap();
         assert_eq!(scenario::parse(&text).unwrap(), s, "{id} round-trips");
-        let c = scenario::compute_all(&s).unwrap();
+        let c = compute::compute_all(&s).unwrap();
         let r = c.edge.clone().expect("an edge report");
         assert!(
             r.column_frost_depth_m > 0.8,
@@ -75,7 +77,7 @@ fn the_examples_show_both_outcomes_and_the_far_field_agrees_with_the_column() {
         assert_eq!(r.frost_below_base, r.max_frost_below_base_m > 0.0);
         assert!(r.warnings.is_empty(), "{id}: {:?}", r.warnings);
         outcomes.push(r.frost_below_base);
-        let rep = serde_json::to_value(scenario::report(&s, &c)).unwrap();
+        let rep = serde_json::to_value(compute::report(&s, &c)).unwrap();
         assert!(rep["edge"]["hand_methods"].is_array());
         assert!(
             rep["edge"].get("fields").is_none(),
@@ -92,11 +94,11 @@ fn older_versions_load_and_an_edge_needs_version_4() {
         "silty-yard-design-winter",
         "training-dome-four",
     ] {
-        let s = scenario::parse(scenario::example(id).unwrap().json).unwrap();
+        let s = scenario::parse(examples::example(id).unwrap().json).unwrap();
         assert!(s.version < 4 && s.edge.is_none(), "{id}");
-        let c = scenario::compute_all(&s).unwrap();
+        let c = compute::compute_all(&s).unwrap();
         assert!(c.edge.is_none());
-        let rep = serde_json::to_value(scenario::report(&s, &c)).unwrap();
+        let rep = serde_json::to_value(compute::report(&s, &c)).unwrap();
         assert!(rep.get("edge").is_none(), "no edge key in {id}");
         assert!(!serde_json::to_string(&s).unwrap().contains("\"edge\""));
     }

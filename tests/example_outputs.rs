@@ -13,6 +13,7 @@
 //! and the CLI does not write) and the import of the bundled climate records are digested
 //! through the library.
 
+use hibernal::document::steady;
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 use std::process::Command;
@@ -176,15 +177,15 @@ fn all_outputs() -> BTreeMap<String, Vec<u8>> {
 
 /// The steady profile CSV (the page's download) of an example, in both unit systems.
 fn library_outputs(name: &str, json: &[u8], outputs: &mut BTreeMap<String, Vec<u8>>) {
+    use hibernal::document::scenario;
     use hibernal::physics::units::UnitSystem;
-    use hibernal::scenario;
     let text = std::str::from_utf8(json).expect("utf-8");
     let s = scenario::parse(text).expect("example parses");
-    let c = scenario::compute(&s).expect("example computes");
+    let c = steady::compute(&s).expect("example computes");
     for (units, sys) in [("si", UnitSystem::Si), ("us", UnitSystem::Us)] {
         outputs.insert(
             format!("{name}/{units}/steady-profile.csv"),
-            scenario::profile_csv(&c, sys).into_bytes(),
+            steady::profile_csv(&c, sys).into_bytes(),
         );
     }
 }
@@ -192,7 +193,7 @@ fn library_outputs(name: &str, json: &[u8], outputs: &mut BTreeMap<String, Vec<u
 /// The bundled climate records imported as the page imports them (units as their headers
 /// say), the outcome as JSON.
 fn climate_imports(outputs: &mut BTreeMap<String, Vec<u8>>) {
-    use hibernal::climate_import::{import_csv, ImportOptions};
+    use hibernal::document::climate_import::{import_csv, ImportOptions};
     let cases = [
         (
             "cold-inland-valley-five-winters",

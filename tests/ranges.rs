@@ -5,12 +5,17 @@
 
 mod common;
 use common::*;
+use hibernal::document::examples;
+use hibernal::document::ranges::apply;
+use hibernal::document::ranges::plan;
+use hibernal::document::steady;
 
+use hibernal::document::ranges::csv::{summary_csv, trials_csv};
+use hibernal::document::ranges::plan::{evaluate, run_plan, RangesPlan};
+use hibernal::document::ranges::{RangeResult, RangedWhat};
+use hibernal::document::scenario;
+use hibernal::document::scenario::Scenario;
 use hibernal::physics::units::UnitSystem;
-use hibernal::scenario::{self, Scenario};
-use hibernal::scenario_ranges::{
-    self, evaluate, run_plan, summary_csv, trials_csv, RangeResult, RangedWhat, RangesPlan,
-};
 use serde_json::{json, Value};
 
 fn doc(v: Value) -> Scenario {
@@ -148,9 +153,9 @@ fn the_same_seed_gives_the_same_percentiles_on_any_number_of_threads() {
 /// A snow layer over foam over soil, and a shelter: both with snow from a regression.
 fn snowy() -> Scenario {
     let mut v: Value =
-        serde_json::from_str(scenario::example("snow-over-foam-on-silt").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("snow-over-foam-on-silt").unwrap().json).unwrap();
     let shelter: Value =
-        serde_json::from_str(scenario::example("training-dome-four").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("training-dome-four").unwrap().json).unwrap();
     v["version"] = json!(5);
     v["shelter"] = shelter["shelter"].clone();
     v["ranges"] = json!({
@@ -163,7 +168,7 @@ fn snowy() -> Scenario {
 #[test]
 fn the_band_across_regressions_holds_every_single_regression_result() {
     let s = snowy();
-    let r = scenario_ranges::run_ranges(&s, 2).unwrap();
+    let r = plan::run_ranges(&s, 2).unwrap();
     let ids: Vec<&str> = r.results.iter().map(|x| x.id).collect();
     assert_eq!(ids, ["r-value", "shelter-interior", "shelter-melt"]);
     for (res, kind) in r.results.iter().zip([
@@ -218,13 +223,13 @@ fn a_freezing_index_input_gives_the_winter_that_index() {
     // the study sets the index, the run must report it back (to 0.5 %: the run samples the
     // air hourly, the study integrates the sine wave by days).
     let mut s =
-        doc(serde_json::from_str(scenario::example("silt-yard-how-sure").unwrap().json).unwrap());
+        doc(serde_json::from_str(examples::example("silt-yard-how-sure").unwrap().json).unwrap());
     for target in [600.0, 1300.0] {
-        let n = scenario_ranges::apply(&mut s, RangedWhat::FreezingIndex, None, target).unwrap();
+        let n = apply::apply(&mut s, RangedWhat::FreezingIndex, None, target).unwrap();
         assert_eq!(n, 1);
         let w = s.winter.as_ref().unwrap();
-        let c = scenario::compute(&s).unwrap();
-        let rep = hibernal::scenario_winter::run_winter(w, &c.result.stack, &s.layers).unwrap();
+        let c = steady::compute(&s).unwrap();
+        let rep = hibernal::document::winter::run_winter(w, &c.result.stack, &s.layers).unwrap();
         assert_rel(
             rep.air_freezing_index_c_days,
             target,
@@ -244,15 +249,15 @@ fn a_freezing_index_input_gives_the_winter_that_index() {
         })).collect::<Vec<_>>()
     });
     let mut s2 = doc(v);
-    let before = scenario_ranges::climate_freezing_index(&s2.winter.as_ref().unwrap().climate);
+    let before = apply::climate_freezing_index(&s2.winter.as_ref().unwrap().climate);
     assert_rel(
         before,
         hibernal::physics::climate::freezing_index_c_days(&t0),
         1e-12,
         "index of the records",
     );
-    scenario_ranges::apply(&mut s2, RangedWhat::FreezingIndex, None, 0.5 * before).unwrap();
-    let hibernal::scenario_winter::ClimateDoc::Daily { days } =
+    apply::apply(&mut s2, RangedWhat::FreezingIndex, None, 0.5 * before).unwrap();
+    let hibernal::document::weather::ClimateDoc::Daily { days } =
         &s2.winter.as_ref().unwrap().climate
     else {
         panic!("still daily records")
@@ -299,17 +304,17 @@ fn inputs_change_the_fields_they_name() {
     let mut s = snowy();
     // Two snow-free layers and one snow layer in this stack; the shelter has snow too.
     assert_eq!(
-        scenario_ranges::apply(&mut s, RangedWhat::SnowDensity, None, 333.0).unwrap(),
+        apply::apply(&mut s, RangedWhat::SnowDensity, None, 333.0).unwrap(),
         2
     );
     assert_eq!(s.shelter.as_ref().unwrap().snow_density_kg_m3, 333.0);
     assert_eq!(
-        scenario_ranges::base_value(&s, RangedWhat::SnowDensity, None),
+        apply::base_value(&s, RangedWhat::SnowDensity, None),
         Some(333.0)
     );
-    let n = scenario_ranges::apply(&mut s, RangedWhat::InsulationDerating, None, 15.0).unwrap();
+    let n = apply::apply(&mut s, RangedWhat::InsulationDerating, None, 15.0).unwrap();
     assert_eq!(n, 1);
-    let c = scenario::compute(&s).unwrap();
+    let c = steady::compute(&s).unwrap();
     assert!(c
         .result
         .stack
@@ -324,8 +329,8 @@ fn inputs_change_the_fields_they_name() {
         .iter()
         .map(|m| m.conductivity.k(-5.0))
         .collect();
-    scenario_ranges::apply(&mut s, RangedWhat::SoilConductivityFactor, None, 1.2).unwrap();
-    let c2 = scenario::compute(&s).unwrap();
+    apply::apply(&mut s, RangedWhat::SoilConductivityFactor, None, 1.2).unwrap();
+    let c2 = steady::compute(&s).unwrap();
     for ((m0, m1), k0) in c
         .result
         .stack
@@ -424,7 +429,7 @@ fn bad_ranges_are_refused_naming_the_field() {
     let mut v = base.clone();
     v["ranges"]["inputs"][0]["high"] = json!(95);
     assert_eq!(errors_of(v.clone()), Vec::<String>::new());
-    let r = scenario_ranges::run_ranges(&scenario::from_value(v).unwrap(), 1).unwrap();
+    let r = plan::run_ranges(&scenario::from_value(v).unwrap(), 1).unwrap();
     let res = &r.results[0];
     assert!(res.runs_failed > 0 && res.runs_ok > 0);
     assert_eq!(res.runs_ok + res.runs_failed, 100);
@@ -433,7 +438,7 @@ fn bad_ranges_are_refused_naming_the_field() {
 
 #[test]
 fn the_csv_files_carry_the_seed_and_the_percentiles() {
-    let r = scenario_ranges::run_ranges(&two_boards(50, 99), 1).unwrap();
+    let r = plan::run_ranges(&two_boards(50, 99), 1).unwrap();
     let t = trials_csv(&r, UnitSystem::Si);
     let lines: Vec<&str> = t.lines().collect();
     assert_eq!(lines.len(), 51);
@@ -458,9 +463,9 @@ fn the_example_study_runs_and_reads_sensibly() {
     // The bundled example, fewer runs: the frost depth's spread across the snow regressions
     // holds its base case, and its inputs all move the answer.
     let mut s =
-        doc(serde_json::from_str(scenario::example("silt-yard-how-sure").unwrap().json).unwrap());
+        doc(serde_json::from_str(examples::example("silt-yard-how-sure").unwrap().json).unwrap());
     s.ranges.as_mut().unwrap().runs = 8;
-    let r = scenario_ranges::run_ranges(&s, 2).unwrap();
+    let r = plan::run_ranges(&s, 2).unwrap();
     let frost = r.results.iter().find(|x| x.id == "frost-depth").unwrap();
     let base = frost.base.unwrap();
     let sp = frost.spread.as_ref().unwrap();
@@ -492,7 +497,7 @@ fn runs_past_a_limit_are_counted_from_the_runs_themselves() {
     // from one shelter run, and the count of runs whose inner surface melts is that of the
     // runs' own values.
     let mut v: Value =
-        serde_json::from_str(scenario::example("training-dome-four").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("training-dome-four").unwrap().json).unwrap();
     v["version"] = json!(5);
     v["ranges"] = json!({
         "runs": 60, "seed": 21, "results": ["shelter-interior", "shelter-melt"],
@@ -500,7 +505,7 @@ fn runs_past_a_limit_are_counted_from_the_runs_themselves() {
     });
     v["shelter"]["conditions"]["stove_w"] = json!(50.0);
     let s = doc(v);
-    let r = scenario_ranges::run_ranges(&s, 2).unwrap();
+    let r = plan::run_ranges(&s, 2).unwrap();
     let melt = r.results.iter().find(|x| x.id == "shelter-melt").unwrap();
     let interior = r
         .results
@@ -533,8 +538,8 @@ fn runs_past_a_limit_are_counted_from_the_runs_themselves() {
     // Each run's two values are those of an ordinary run of its scenario.
     let plan = RangesPlan::new(&s).unwrap();
     for i in [0, 17, 59] {
-        let one = plan.scenario_for(scenario_ranges::Task::Sample(i)).unwrap();
-        let rep = hibernal::scenario_shelter::run_shelter(one.shelter.as_ref().unwrap()).unwrap();
+        let one = plan.scenario_for(plan::Task::Sample(i)).unwrap();
+        let rep = hibernal::document::shelter::run_shelter(one.shelter.as_ref().unwrap()).unwrap();
         assert_eq!(
             r.trials[i].values,
             vec![Some(rep.interior_c), Some(rep.melt_kg_per_h)]

@@ -2,37 +2,41 @@
 
 mod common;
 use common::*;
+use hibernal::document::compute;
+use hibernal::document::examples;
+use hibernal::document::steady;
 
+use hibernal::document::scenario;
+use hibernal::document::vocabulary::{BoardDoc, SnowCorrelationDoc, SoilModelDoc, TextureDoc};
 use hibernal::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
-use hibernal::scenario::{self, BoardDoc, SnowCorrelationDoc, SoilModelDoc, TextureDoc};
 use std::process::Command;
 
 #[test]
 fn every_example_parses_computes_and_round_trips() {
-    for e in &scenario::EXAMPLES {
+    for e in &examples::EXAMPLES {
         let s = scenario::parse(e.json).unwrap_or_else(|err| panic!("{}: {err}", e.id));
         assert!(
             !s.title.is_empty() && !s.notes.is_empty(),
             "{} documents itself",
             e.id
         );
-        let c = scenario::compute(&s).unwrap_or_else(|err| panic!("{}: {err}", e.id));
+        let c = steady::compute(&s).unwrap_or_else(|err| panic!("{}: {err}", e.id));
         let text = serde_json::to_string(&s).unwrap();
         assert_eq!(scenario::parse(&text).unwrap(), s, "{} round-trips", e.id);
-        let r = scenario::report(&s, &c);
+        let r = compute::report(&s, &c);
         assert!(r.r_total_m2k_w > 0.0 && r.u_w_m2k > 0.0);
         assert_eq!(r.layers.len(), s.layers.len());
         assert!(r.warnings.is_empty(), "{}: {:?}", e.id, r.warnings);
     }
-    assert_eq!(scenario::EXAMPLES[0].id, "snow-over-foam-on-silt");
+    assert_eq!(examples::EXAMPLES[0].id, "snow-over-foam-on-silt");
 }
 
 #[test]
 fn the_snow_wall_example_equals_the_series_formula() {
     // Plane wall with films (Incropera & DeWitt §3.1): R = 1/h_o + d/k + 1/h_i, k by
     // Sturm et al. 1997 quadratic at 350 kg/m³.
-    let s = scenario::parse(scenario::example("snow-block-wall").unwrap().json).unwrap();
-    let r = scenario::report(&s, &scenario::compute(&s).unwrap());
+    let s = scenario::parse(examples::example("snow-block-wall").unwrap().json).unwrap();
+    let r = compute::report(&s, &steady::compute(&s).unwrap());
     let k = 0.138 - 1.01 * 0.35 + 3.233 * 0.35 * 0.35;
     assert_rel(
         r.r_total_m2k_w,
@@ -72,12 +76,12 @@ fn document_ids_match_the_core_ids() {
 }
 
 fn example_value() -> serde_json::Value {
-    serde_json::from_str(scenario::EXAMPLES[0].json).unwrap()
+    serde_json::from_str(examples::EXAMPLES[0].json).unwrap()
 }
 
 fn first_error(v: serde_json::Value) -> (String, String) {
     let e = scenario::from_value(v)
-        .and_then(|s| scenario::compute(&s).map(|_| s))
+        .and_then(|s| steady::compute(&s).map(|_| s))
         .unwrap_err();
     (e.0[0].field.clone(), e.0[0].kind.to_string())
 }
@@ -184,7 +188,7 @@ fn cli_runs_an_example_and_writes_the_chart() {
 
     let list = cli().arg("example").output().unwrap();
     let list = String::from_utf8(list.stdout).unwrap();
-    assert_eq!(list.lines().count(), scenario::EXAMPLES.len());
+    assert_eq!(list.lines().count(), examples::EXAMPLES.len());
     let schema = cli().arg("schema").output().unwrap();
     assert!(serde_json::from_slice::<serde_json::Value>(&schema.stdout).is_ok());
 }
@@ -271,11 +275,11 @@ mod never_panics {
         /// repeated, is either computed or refused with errors naming fields: never a panic.
         #[test]
         fn mutated_examples_never_panic(
-            which in 0usize..scenario::EXAMPLES.len(),
+            which in 0usize..examples::EXAMPLES.len(),
             picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
             repeat in 1usize..30,
         ) {
-            let mut v: Value = serde_json::from_str(scenario::EXAMPLES[which].json).unwrap();
+            let mut v: Value = serde_json::from_str(examples::EXAMPLES[which].json).unwrap();
             let mut paths = Vec::new();
             numeric_paths(&v, &mut Vec::new(), &mut paths);
             for (idx, leaf) in picks {
@@ -290,9 +294,9 @@ mod never_panics {
             }
             let text = v.to_string();
             match scenario::parse(&text) {
-                Ok(s) => match scenario::compute(&s) {
+                Ok(s) => match steady::compute(&s) {
                     Ok(c) => {
-                        let r = scenario::report(&s, &c);
+                        let r = compute::report(&s, &c);
                         prop_assert!(r.r_total_m2k_w.is_finite() && r.r_total_m2k_w > 0.0);
                         prop_assert!(r.heat_flux_w_m2.is_finite());
                         let _ = hibernal::charts::profile::profile_svg(&c, hibernal::physics::units::UnitSystem::Us, 300, 200);
@@ -311,9 +315,9 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
     // US Army TM 5-852-6 / UFC 3-130-04 on the same silt: Stefan's law (an upper bound: it
     // ignores sensible heat) and the modified Berggren method (λ from the Neumann-type
     // equation, frozen/unfrozen means; within 10 %, the method's own approximations).
-    let s = scenario::parse(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+    let s = scenario::parse(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
     assert_eq!(s.version, 2);
-    let c = scenario::compute_with_winter(&s).unwrap();
+    let c = compute::compute_with_winter(&s).unwrap();
     let w = c.winter.as_ref().expect("a winter report");
     let silt = &c.result.stack.materials[0];
     let (kf, ku) = (
@@ -370,14 +374,14 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
     assert_eq!(row("transient"), w.max_frost_depth_m);
     assert_eq!(w.daily.len(), 366, "day 0 and the end of each day");
     // The report carries it; CSV export has a header with units and a row per day.
-    let r = scenario::report(&s, &c);
+    let r = compute::report(&s, &c);
     assert!(r.winter.is_some());
-    let csv = hibernal::scenario_winter::daily_csv(w);
+    let csv = hibernal::document::winter::daily_csv(w);
     assert!(csv.starts_with("day,air temperature [°C]"));
     assert_eq!(csv.lines().count(), 367);
     // In US units: °F and ft in the header, and each value the SI one converted
     // (°F = 1.8 °C + 32, ft = m / 0.3048: NIST SP 811 B.8).
-    let us = hibernal::scenario_winter::daily_csv_in(w, hibernal::physics::units::UnitSystem::Us);
+    let us = hibernal::document::winter::daily_csv_in(w, hibernal::physics::units::UnitSystem::Us);
     let head = us.lines().next().unwrap();
     assert!(
         head.contains("air temperature [°F]") && head.contains("frost depth [ft]"),
@@ -409,7 +413,7 @@ fn version_1_documents_load_and_a_winter_needs_version_2() {
         "version 1 still loads"
     );
     let yard: serde_json::Value =
-        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
     v["winter"] = yard["winter"].clone();
     let e = scenario::from_value(v.clone()).unwrap_err();
     assert_eq!(e.0[0].field, "winter");
@@ -417,7 +421,7 @@ fn version_1_documents_load_and_a_winter_needs_version_2() {
     v["winter"]["grid"] =
         serde_json::json!({"surface_cell_m": 0.0001, "growth_ratio": 1.0, "max_cell_m": 0.0001});
     let s = scenario::from_value(v).unwrap();
-    let e = scenario::compute_with_winter(&s).unwrap_err();
+    let e = compute::compute_with_winter(&s).unwrap_err();
     assert!(
         e.0.iter().any(|x| x.field == "winter.grid.surface_cell_m"),
         "{e}"
@@ -462,7 +466,7 @@ fn cli_writes_the_winter_series_as_csv() {
     assert!(svg.contains("(ft)"), "the chart follows --units us");
     // A scenario without a winter cannot export one.
     let wall = dir.join("wall.json");
-    std::fs::write(&wall, scenario::example("snow-block-wall").unwrap().json).unwrap();
+    std::fs::write(&wall, examples::example("snow-block-wall").unwrap().json).unwrap();
     let out = cli()
         .args([
             "run",
@@ -482,10 +486,10 @@ fn a_soil_can_freeze_over_a_range_in_the_winter_run() {
     // so the same winter releases less latent heat near the surface and the run differs
     // from freezing at 0 °C; energy stays conserved.
     let base: serde_json::Value =
-        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
     let run = |v: serde_json::Value| {
         let s = scenario::from_value(v).unwrap();
-        scenario::compute_with_winter(&s).map(|c| c.winter.unwrap())
+        compute::compute_with_winter(&s).map(|c| c.winter.unwrap())
     };
     let sharp = run(base.clone()).unwrap();
     let mut v = base.clone();
@@ -504,14 +508,14 @@ fn a_soil_can_freeze_over_a_range_in_the_winter_run() {
 }
 
 fn yard() -> serde_json::Value {
-    serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap()
+    serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap()
 }
 
 fn winter_of(
     v: serde_json::Value,
-) -> Result<hibernal::scenario_winter::WinterReport, hibernal::physics::error::InputErrors> {
+) -> Result<hibernal::document::winter::WinterReport, hibernal::physics::error::InputErrors> {
     let s = scenario::from_value(v)?;
-    scenario::compute_with_winter(&s).map(|c| c.winter.unwrap())
+    compute::compute_with_winter(&s).map(|c| c.winter.unwrap())
 }
 
 #[test]
@@ -519,7 +523,7 @@ fn older_files_and_every_example_still_parse_and_write_no_new_keys() {
     // The snow season and the periodic start are optional additions to format version 2:
     // every bundled example (all written before them) and a version 1 file still load, and
     // a document that uses neither writes back without the new keys.
-    for e in &scenario::EXAMPLES {
+    for e in &examples::EXAMPLES {
         let s = scenario::parse(e.json).unwrap_or_else(|err| panic!("{}: {err}", e.id));
         if e.id == "cabin-porch-slab-snowy-winter" || e.id == "silt-yard-how-sure" {
             // Written with a snow season: it must keep it.
@@ -645,7 +649,7 @@ fn bad_snow_seasons_are_refused_naming_the_field() {
 
 fn cabin() -> serde_json::Value {
     serde_json::from_str(
-        scenario::example("cabin-porch-slab-snowy-winter")
+        examples::example("cabin-porch-slab-snowy-winter")
             .unwrap()
             .json,
     )
@@ -737,18 +741,18 @@ fn a_winter_grid_finer_than_the_cell_cap_is_refused_with_the_cap_named() {
     // Hard cap on the column's cells (scenario_winter::MAX_CELLS): a grid allowed cell by
     // cell but too fine in total is refused naming the grid, the count and the cap.
     let mut v: serde_json::Value =
-        serde_json::from_str(scenario::example("silty-yard-design-winter").unwrap().json).unwrap();
+        serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
     v["winter"]["grid"] =
         serde_json::json!({"surface_cell_m": 0.002, "growth_ratio": 1.0, "max_cell_m": 0.002});
     let s = scenario::from_value(v).unwrap();
-    let e = scenario::compute_with_winter(&s).unwrap_err();
+    let e = compute::compute_with_winter(&s).unwrap_err();
     let x =
         e.0.iter()
             .find(|x| x.field == "winter.grid")
             .expect("the grid is named");
     let text = x.to_string();
     assert!(
-        text.contains(&hibernal::scenario_winter::MAX_CELLS.to_string()),
+        text.contains(&hibernal::document::winter::MAX_CELLS.to_string()),
         "{text}"
     );
 }
@@ -757,9 +761,9 @@ fn a_winter_grid_finer_than_the_cell_cap_is_refused_with_the_cap_named() {
 fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
     // The snow wall example: a row per chart point (depth, temperature at it from the exact
     // solution, and the band across snow regressions), units in the header.
-    let s = scenario::parse(scenario::example("snow-block-wall").unwrap().json).unwrap();
-    let c = scenario::compute(&s).unwrap();
-    let text = scenario::profile_csv(&c, hibernal::physics::units::UnitSystem::Si);
+    let s = scenario::parse(examples::example("snow-block-wall").unwrap().json).unwrap();
+    let c = steady::compute(&s).unwrap();
+    let text = steady::profile_csv(&c, hibernal::physics::units::UnitSystem::Si);
     let lines: Vec<&str> = text.trim().lines().collect();
     assert!(
         lines[0].starts_with("depth [m],temperature [°C],lowest"),
@@ -777,6 +781,6 @@ fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
         last[2] <= last[1] + 1e-3 && last[1] <= last[3] + 1e-3,
         "the line inside its band"
     );
-    let us = scenario::profile_csv(&c, hibernal::physics::units::UnitSystem::Us);
+    let us = steady::profile_csv(&c, hibernal::physics::units::UnitSystem::Us);
     assert!(us.starts_with("depth [ft],temperature [°F]"));
 }

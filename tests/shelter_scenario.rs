@@ -2,22 +2,25 @@
 
 mod common;
 use common::*;
+use hibernal::document::compute;
+use hibernal::document::examples;
+use hibernal::document::shelter;
 
+use hibernal::document::scenario;
+use hibernal::document::shelter::{night_csv, sweeps_csv};
 use hibernal::physics::units::UnitSystem;
-use hibernal::scenario;
-use hibernal::scenario_shelter::{self, night_csv, sweeps_csv};
 use serde_json::{json, Value};
 use std::process::Command;
 
 const SHELTER_EXAMPLES: [&str; 2] = ["training-dome-four", "drift-cave-two"];
 
 fn value(id: &str) -> Value {
-    serde_json::from_str(scenario::example(id).unwrap().json).unwrap()
+    serde_json::from_str(examples::example(id).unwrap().json).unwrap()
 }
 
-fn run(v: Value) -> Result<scenario_shelter::ShelterReport, hibernal::physics::error::InputErrors> {
+fn run(v: Value) -> Result<shelter::ShelterReport, hibernal::physics::error::InputErrors> {
     let s = scenario::from_value(v)?;
-    scenario::compute_all(&s).map(|c| c.shelter.expect("a shelter report"))
+    compute::compute_all(&s).map(|c| c.shelter.expect("a shelter report"))
 }
 
 fn fields(e: &hibernal::physics::error::InputErrors) -> Vec<String> {
@@ -27,12 +30,12 @@ fn fields(e: &hibernal::physics::error::InputErrors) -> Vec<String> {
 #[test]
 fn the_shelter_examples_round_trip_and_agree_with_the_core() {
     for id in SHELTER_EXAMPLES {
-        let s = scenario::parse(scenario::example(id).unwrap().json).unwrap();
+        let s = scenario::parse(examples::example(id).unwrap().json).unwrap();
         assert_eq!(s.version, 3, "{id}");
         let text = serde_json::to_string(&s).unwrap();
         assert_eq!(scenario::parse(&text).unwrap(), s, "{id} round-trips");
         let doc = s.shelter.as_ref().unwrap();
-        let r = scenario_shelter::run_shelter(doc).unwrap();
+        let r = shelter::run_shelter(doc).unwrap();
         // The report is the core's answer, unchanged.
         let core = hibernal::physics::shelter::steady(&doc.shelter(), &doc.conditions()).unwrap();
         assert_eq!(r.interior_c, core.interior_c);
@@ -72,11 +75,11 @@ fn the_shelter_examples_round_trip_and_agree_with_the_core() {
 fn older_versions_load_and_a_shelter_needs_version_3() {
     // Version 1 and 2 files (no shelter) still load and compute as before.
     for id in ["snow-block-wall", "silty-yard-design-winter"] {
-        let s = scenario::parse(scenario::example(id).unwrap().json).unwrap();
+        let s = scenario::parse(examples::example(id).unwrap().json).unwrap();
         assert!(s.version < 3 && s.shelter.is_none());
-        let c = scenario::compute_all(&s).unwrap();
+        let c = compute::compute_all(&s).unwrap();
         assert!(c.shelter.is_none());
-        let report = serde_json::to_value(scenario::report(&s, &c)).unwrap();
+        let report = serde_json::to_value(compute::report(&s, &c)).unwrap();
         assert!(report.get("shelter").is_none(), "no shelter key in {id}");
         assert!(!serde_json::to_string(&s).unwrap().contains("shelter"));
     }
@@ -110,7 +113,7 @@ fn a_minimal_shelter_takes_its_defaults() {
     // A trench starts from the snowpack's temperature, the air from the outside air.
     let n = doc.night_settings();
     assert_eq!((n.snow_start_c, n.air_start_c), (-6.0, -12.0));
-    let r = scenario_shelter::run_shelter(doc).unwrap();
+    let r = shelter::run_shelter(doc).unwrap();
     assert!(r.door_flow_m3_s > 0.0, "a level doorway exchanges air");
     assert_eq!(r.least_wall.field, "shelter.shape.roof_thickness_m");
 }
@@ -553,7 +556,7 @@ fn a_winter_and_a_shelter_run_side_by_side() {
     let mut v = value("training-dome-four");
     v["winter"] = value("silty-yard-design-winter")["winter"].clone();
     let s = scenario::from_value(v).unwrap();
-    let c = scenario::compute_all(&s).unwrap();
+    let c = compute::compute_all(&s).unwrap();
     assert!(c.winter.is_some() && c.shelter.is_some());
     let alone = run(value("training-dome-four")).unwrap();
     assert_eq!(

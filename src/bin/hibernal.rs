@@ -17,8 +17,8 @@ mod cli {
     use std::process::ExitCode;
 
     use clap::{Parser, Subcommand};
+    use hibernal::document::{compute, examples, scenario};
     use hibernal::physics::units::UnitSystem;
-    use hibernal::scenario;
 
     #[derive(Parser)]
     #[command(
@@ -162,18 +162,18 @@ mod cli {
                 Err(e) => fail(e),
             },
             Command::Example { name: None } => {
-                for e in &scenario::EXAMPLES {
+                for e in &examples::EXAMPLES {
                     println!("{:<26} {}", e.id, e.summary);
                 }
                 ExitCode::SUCCESS
             }
-            Command::Example { name: Some(n) } => match scenario::example(&n) {
+            Command::Example { name: Some(n) } => match examples::example(&n) {
                 Some(e) => {
                     print!("{}", e.json);
                     ExitCode::SUCCESS
                 }
                 None => {
-                    let names: Vec<&str> = scenario::EXAMPLES.iter().map(|e| e.id).collect();
+                    let names: Vec<&str> = examples::EXAMPLES.iter().map(|e| e.id).collect();
                     fail(format!(
                         "no example named {n:?}; the examples are: {}",
                         names.join(", ")
@@ -217,21 +217,25 @@ mod cli {
                     Ok(s) => s,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
-                let computed = match scenario::compute_all(&sc) {
+                let computed = match compute::compute_all(&sc) {
                     Ok(c) => c,
                     Err(errs) => return fail(format!("{}:\n{errs}", file.display())),
                 };
-                let mut report = scenario::report(&sc, &computed);
+                let mut report = compute::report(&sc, &computed);
                 if sc.ranges.is_some() {
                     let threads = threads.unwrap_or_else(|| {
                         std::thread::available_parallelism().map_or(1, |n| n.get())
                     });
                     let t0 = std::time::Instant::now();
-                    match hibernal::scenario_ranges::run_ranges(&sc, threads) {
+                    match hibernal::document::ranges::plan::run_ranges(&sc, threads) {
                         Ok(r) => {
                             eprintln!(
                                 "{}",
-                                hibernal::scenario_ranges::summary_text(&r, sys, t0.elapsed())
+                                hibernal::document::ranges::csv::summary_text(
+                                    &r,
+                                    sys,
+                                    t0.elapsed()
+                                )
                             );
                             report.ranges = Some(r);
                         }
@@ -263,7 +267,7 @@ mod cli {
                         },
                     };
                     use hibernal::charts::ranges::{report_sensitivity_svg, report_spread_svg};
-                    use hibernal::scenario_ranges::{summary_csv, trials_csv};
+                    use hibernal::document::ranges::csv::{summary_csv, trials_csv};
                     let text = match option {
                         "--ranges-csv" => trials_csv(r, sys),
                         "--ranges-summary-csv" => summary_csv(r, sys),
@@ -301,7 +305,7 @@ mod cli {
                         return fail("--csv needs a scenario with a winter section");
                     };
                     if let Err(e) =
-                        std::fs::write(&out, hibernal::scenario_winter::daily_csv_in(w, sys))
+                        std::fs::write(&out, hibernal::document::winter::daily_csv_in(w, sys))
                     {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
@@ -341,7 +345,7 @@ mod cli {
                         return fail("--profiles-csv needs a scenario with a winter section");
                     };
                     if let Err(e) =
-                        std::fs::write(&out, hibernal::scenario_winter::profiles_csv(w, sys))
+                        std::fs::write(&out, hibernal::document::winter::profiles_csv(w, sys))
                     {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }
@@ -357,7 +361,7 @@ mod cli {
                     let Some(r) = &computed.shelter else {
                         return fail(format!("{option} needs a scenario with a shelter section"));
                     };
-                    use hibernal::scenario_shelter::{night_csv, sweeps_csv};
+                    use hibernal::document::shelter::{night_csv, sweeps_csv};
                     let text = match option {
                         "--night-svg" => {
                             hibernal::charts::shelter::shelter_night_svg(r, sys, 900, 520)
@@ -392,7 +396,7 @@ mod cli {
                     let Some(r) = &computed.edge else {
                         return fail(format!("{option} needs a scenario with an edge section"));
                     };
-                    use hibernal::scenario_edge::{edge_daily_csv, edge_field_csv};
+                    use hibernal::document::edge::{edge_daily_csv, edge_field_csv};
                     let day = edge_day.unwrap_or(r.max_frost_below_base_day);
                     let text = match option {
                         "--edge-svg" => {

@@ -7,8 +7,8 @@ use super::frame::{
     chart_scale, day_label, draw_legend, err, finite_runs, line, padded_range, svg_document, tick,
     tick_decimals, ChartError, FLUX_LINE, INK, PROFILE, ZERO,
 };
+use crate::document::edge::EdgeReport;
 use crate::physics::units::{quantity, UnitSystem};
-use crate::scenario_edge::EdgeReport;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
@@ -113,7 +113,7 @@ pub fn draw_edge_series<DB: DrawingBackend>(
     let px = |v: f64| (v * scale).round() as u32;
     let zq = quantity("depth").ok_or_else(|| ChartError("no depth unit".into()))?;
     let z = |si: f64| zq.show(sys, si);
-    let q = |si: f64| crate::scenario_edge::linear_heat_shown(sys, si);
+    let q = |si: f64| crate::document::edge::linear_heat_shown(sys, si);
     let font = |size: f64| ("sans-serif", size * scale).into_font().color(&INK);
     root.fill(&WHITE).map_err(err)?;
     let base = if r.base_depth_m.is_finite() {
@@ -182,7 +182,7 @@ pub fn draw_edge_series<DB: DrawingBackend>(
         .configure_secondary_axes()
         .y_desc(format!(
             "Slab heat loss ({})",
-            crate::scenario_edge::linear_heat_symbol(sys)
+            crate::document::edge::linear_heat_symbol(sys)
         ))
         .y_label_formatter(&|v| tick(*v, q_decimals))
         .label_style(font(12.0))
@@ -204,7 +204,7 @@ pub fn draw_edge_series<DB: DrawingBackend>(
                 BASE_LINE.stroke_width(px(1.0)),
             )
         });
-    type Pick = fn(&crate::scenario_edge::EdgeDay, f64) -> f64;
+    type Pick = fn(&crate::document::edge::EdgeDay, f64) -> f64;
     let lines: [(&str, RGBColor, f64, Pick); 3] = [
         ("Under the footing (2D)", ZERO, 2.0, |d, _| {
             d.frost_below_base_m

@@ -3,9 +3,9 @@
 use super::frame::{
     chart_scale, draw_legend, err, svg_document, ChartError, BAND, INK, PROFILE, ZERO,
 };
+use crate::document::compute::Computed;
 use crate::physics::materials::Family;
 use crate::physics::units::{quantity, UnitSystem};
-use crate::scenario::Computed;
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};

@@ -753,7 +753,7 @@ pub fn sensitivity_svg(
 /// draws the axes and a note).
 pub fn draw_report_spread<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
-    r: &crate::scenario_ranges::RangesReport,
+    r: &crate::document::ranges::report::RangesReport,
     index: usize,
     sys: UnitSystem,
     scale: f64,
@@ -805,7 +805,7 @@ fn end_label(q: &str, sys: UnitSystem, si: f64) -> String {
 /// Draw result `index`'s one-at-a-time swings as a [`SensitivityChart`].
 pub fn draw_report_sensitivity<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
-    r: &crate::scenario_ranges::RangesReport,
+    r: &crate::document::ranges::report::RangesReport,
     index: usize,
     sys: UnitSystem,
     scale: f64,
@@ -840,7 +840,7 @@ pub fn draw_report_sensitivity<DB: DrawingBackend>(
 
 /// [`draw_report_spread`] as an SVG document.
 pub fn report_spread_svg(
-    r: &crate::scenario_ranges::RangesReport,
+    r: &crate::document::ranges::report::RangesReport,
     index: usize,
     sys: UnitSystem,
     width: u32,
@@ -853,7 +853,7 @@ pub fn report_spread_svg(
 
 /// [`draw_report_sensitivity`] as an SVG document.
 pub fn report_sensitivity_svg(
-    r: &crate::scenario_ranges::RangesReport,
+    r: &crate::document::ranges::report::RangesReport,
     index: usize,
     sys: UnitSystem,
     width: u32,

@@ -5,8 +5,8 @@ use super::frame::{
     chart_scale, draw_legend, err, finite_runs, line, padded_range, reference_line, svg_document,
     tick, tick_decimals, ChartError, AIR_LINE, FLUX_LINE, INK, PROFILE, ZERO,
 };
+use crate::document::shelter::{SeriesDoc, ShelterReport};
 use crate::physics::units::{quantity, UnitSystem};
-use crate::scenario_shelter::{SeriesDoc, ShelterReport};
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
@@ -89,7 +89,7 @@ pub fn draw_shelter_night<DB: DrawingBackend>(
         ("steady state", true),
         scale,
     )?;
-    type Pick = fn(&crate::scenario_shelter::NightPointDoc) -> f64;
+    type Pick = fn(&crate::document::shelter::NightPointDoc) -> f64;
     let lines: [(&str, RGBColor, f64, Pick); 3] = [
         ("Air inside", PROFILE, 2.5, |p| p.interior_c),
         ("Inner surface of the main wall", SURFACE_LINE, 1.8, |p| {

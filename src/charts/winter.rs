@@ -6,8 +6,8 @@ use super::frame::{
     chart_scale, day_label, depth_decimals, draw_legend, err, finite_runs, line, padded_range,
     svg_document, tick, tick_decimals, ChartError, AIR_LINE, BAND, FLUX_LINE, INK, PROFILE, ZERO,
 };
+use crate::document::winter::{WinterDay, WinterReport};
 use crate::physics::units::{quantity, UnitSystem};
-use crate::scenario_winter::{WinterDay, WinterReport};
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
@@ -17,7 +17,7 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 /// [`draw_profile`].
 pub fn draw_frost_depth<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
-    w: &crate::scenario_winter::WinterReport,
+    w: &crate::document::winter::WinterReport,
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
@@ -78,7 +78,7 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
         });
     // Each front is drawn only over the spells when it exists (frost: frozen ground below
     // the surface; thaw: ground thawed from the surface above frozen ground).
-    let spells = |depth: &dyn Fn(&crate::scenario_winter::WinterDay) -> f64| {
+    let spells = |depth: &dyn Fn(&crate::document::winter::WinterDay) -> f64| {
         let mut out: Vec<Vec<(f64, f64)>> = Vec::new();
         let mut current: Vec<(f64, f64)> = Vec::new();
         for d in &w.daily {
@@ -152,7 +152,7 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
 
 /// The frost-depth chart of a winter run as an SVG document.
 pub fn frost_depth_svg(
-    w: &crate::scenario_winter::WinterReport,
+    w: &crate::document::winter::WinterReport,
     sys: UnitSystem,
     width: u32,
     height: u32,

@@ -3,14 +3,13 @@
 //! see before running it: the span, the freezing index of each winter, and the design values
 //! of a multi-year record (mean of the three coldest winters, the coldest).
 
-use serde::{Deserialize, Serialize};
-
-use crate::climate_csv::{
+use crate::document::climate_csv::{
     read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, LineProblem, TemperatureUnit,
 };
+use crate::document::vocabulary::ErrorDoc;
+use crate::document::weather::DayDoc;
 use crate::physics::climate::{design_freezing_index, DailySeries, DesignOptions};
-use crate::scenario::ErrorDoc;
-use crate::scenario_winter::DayDoc;
+use serde::{Deserialize, Serialize};
 
 /// How the user asked for the file to be read (unit names as the CSV reader accepts them:
 /// `°C`/`°F`, `m`/`cm`/`in`/`ft`, `kg/m³`/`lb/ft³`).

@@ -9,16 +9,16 @@
 //! `shelter.` (`shelter.shape.inner_radius_m`, `shelter.conditions.people`,
 //! `shelter.night.duration_h`), so errors land beside their inputs on the page.
 
-use schemars::JsonSchema;
-use serde::{Deserialize, Serialize};
-
+use crate::document::vocabulary::{ErrorDoc, SnowCorrelationDoc};
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
+use crate::physics::shelter;
 use crate::physics::shelter::{
-    self, Activity, Conditions, Entrance, ExposedFace, Floor, NightSettings, NotReachableReason,
-    Shape, Shelter, ShelterError, SweepPoint, ThicknessAnswer,
+    Activity, Conditions, Entrance, ExposedFace, Floor, NightSettings, NotReachableReason, Shape,
+    Shelter, ShelterError, SweepPoint, ThicknessAnswer,
 };
 use crate::physics::units::{quantity, UnitSystem};
-use crate::scenario::{ErrorDoc, SnowCorrelationDoc};
+use schemars::JsonSchema;
+use serde::{Deserialize, Serialize};
 
 /// Field path of the shape (the core names the shape's own fields under `shelter.`; the
 /// document nests them under `shelter.shape.`, see [`shape_path`]).
@@ -62,6 +62,7 @@ pub struct ShelterDoc {
 fn default_inside_film() -> f64 {
     7.0
 }
+
 fn default_lining() -> f64 {
     0.2
 }
@@ -183,6 +184,7 @@ pub struct ConditionsDoc {
 fn default_body_area() -> f64 {
     1.8
 }
+
 fn default_share() -> f64 {
     1.0
 }
@@ -211,6 +213,7 @@ pub struct NightDoc {
 fn default_hours() -> f64 {
     12.0
 }
+
 fn default_night_step() -> f64 {
     60.0
 }
@@ -270,12 +273,15 @@ pub struct SweepsDoc {
 fn default_thickness_range() -> [f64; 2] {
     [0.1, 1.0]
 }
+
 fn default_people_range() -> [u32; 2] {
     [0, 8]
 }
+
 fn default_outside_range() -> [f64; 2] {
     [-40.0, 0.0]
 }
+
 fn default_points() -> u32 {
     31
 }
@@ -533,8 +539,6 @@ impl ShelterDoc {
         }
     }
 }
-
-// ---------------------------------------------------------------- report
 
 /// One piece of the inner surface in the steady state.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -1119,8 +1123,6 @@ fn snow_zones(sh: &Shelter, co: &Conditions) -> Vec<bool> {
         .map(|(m, _)| m.zones.iter().map(|z| z.melts).collect())
         .unwrap_or_default()
 }
-
-// ---------------------------------------------------------------- CSV
 
 fn header(name: &str, q: &str, sys: UnitSystem) -> String {
     let sym = quantity(q).map_or("", |q| q.unit(sys).symbol);

@@ -4,11 +4,12 @@
 //! Edge module (serde). The section stands on its own, like the shelter: it reads neither
 //! `layers` nor `top` nor `bottom`.
 
-use schemars::JsonSchema;
-use serde::{Deserialize, Serialize};
-
+use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
+use crate::document::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
+use crate::document::winter::{HandMethodRow, InitialDoc, WinterDoc, WinterJob, WinterReport};
 use crate::physics::analytic;
 use crate::physics::climate::Climate;
+use crate::physics::edge2d::least::{EdgeDesignReport, EdgeQuantity, EdgeTrial};
 use crate::physics::edge2d::{
     AxisSpacing, Board, EdgeError, EdgeField, EdgeRun, EdgeSection, FoundationWall, Inside,
     Outside, Region, Slab, SoilBand, StartTemperature, WallBoard, Wing,
@@ -18,18 +19,18 @@ use crate::physics::materials::{Material, MaterialSpec};
 use crate::physics::stack::{Boundary, Layer, Stack};
 use crate::physics::transient::run::Progress;
 use crate::physics::transient::setup::Forcing;
-use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc};
-use crate::scenario_winter::{
-    ClimateDoc, DeepDoc, HandMethodRow, InitialDoc, SurfaceDoc, WinterDoc, WinterJob, WinterReport,
-};
+use schemars::JsonSchema;
+use serde::{Deserialize, Serialize};
 
 const DAY: f64 = 86_400.0;
 
 /// Longest edge run, days (a few winters; a setting of this tool).
 pub const MAX_EDGE_DAYS: f64 = 3.0 * 365.0;
+
 /// Most time steps an edge run may take (a setting of this tool: a few years of daily steps,
 /// or a winter of hourly ones).
 pub const MAX_EDGE_STEPS: f64 = 6000.0;
+
 /// Most soil bands.
 pub const MAX_SOIL_BANDS: usize = 20;
 
@@ -81,9 +82,9 @@ pub struct EdgeDoc {
     #[serde(default = "default_field_every")]
     pub field_every_days: f64,
     /// A search for the least wing width, board R-value or footing depth that keeps frost at
-    /// or above the footing base ([`crate::scenario_edge_design`]).
+    /// or above the footing base ([`crate::document::edge_least`]).
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub least: Option<crate::scenario_edge_design::EdgeLeastDoc>,
+    pub least: Option<crate::document::edge::EdgeLeastDoc>,
 }
 
 fn default_step() -> f64 {
@@ -648,7 +649,9 @@ impl EdgeJob {
     }
 
     /// The edge job of a scenario, if it has an edge section.
-    pub fn of_scenario(s: &crate::scenario::Scenario) -> Option<Result<EdgeJob, InputErrors>> {
+    pub fn of_scenario(
+        s: &crate::document::scenario::Scenario,
+    ) -> Option<Result<EdgeJob, InputErrors>> {
         s.edge.as_ref().map(EdgeJob::new)
     }
 
@@ -786,7 +789,7 @@ pub struct EdgeReport {
     /// The search of `edge.least`, when asked for (the CLI runs it; the page runs it on
     /// request through its own job).
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub least: Option<crate::scenario_edge_design::EdgeLeastReport>,
+    pub least: Option<crate::document::edge::EdgeLeastReport>,
 }
 
 impl EdgeReport {
@@ -1152,5 +1155,107 @@ pub fn region_name(r: Region) -> &'static str {
         Region::Wall => "wall",
         Region::WallBoard => "wall-board",
         Region::Wing => "wing",
+    }
+}
+
+/// What the search varies.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize, JsonSchema)]
+#[serde(rename_all = "kebab-case")]
+pub enum EdgeQuantityDoc {
+    /// The wing board's width out from the wall, m.
+    WingWidth,
+    /// The wing board's R-value, m²K/W.
+    WingR,
+    /// The R-value of the board against the wall, m²K/W.
+    WallBoardR,
+    /// The footing base's depth below grade, m.
+    FootingDepth,
+}
+
+impl From<EdgeQuantityDoc> for EdgeQuantity {
+    fn from(q: EdgeQuantityDoc) -> Self {
+        match q {
+            EdgeQuantityDoc::WingWidth => EdgeQuantity::WingWidth,
+            EdgeQuantityDoc::WingR => EdgeQuantity::WingR,
+            EdgeQuantityDoc::WallBoardR => EdgeQuantity::WallBoardR,
+            EdgeQuantityDoc::FootingDepth => EdgeQuantity::FootingDepth,
+        }
+    }
+}
+
+/// `edge.least`.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct EdgeLeastDoc {
+    pub quantity: EdgeQuantityDoc,
+    /// The least value to try (the quantity's SI unit).
+    pub min: f64,
+    /// The most to try.
+    pub max: f64,
+    /// The answer is found to within this.
+    pub resolution: f64,
+}
+
+/// One run of the search, as reported.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct EdgeTrialDoc {
+    pub value: f64,
+    /// Deepest frost below the footing base in that run, m (≤ 0: frost stays above it).
+    pub frost_below_base_m: f64,
+}
+
+impl From<&EdgeTrial> for EdgeTrialDoc {
+    fn from(t: &EdgeTrial) -> Self {
+        EdgeTrialDoc {
+            value: t.value,
+            frost_below_base_m: t.frost_below_base_m,
+        }
+    }
+}
+
+/// The search's report (SI; values in the quantity's unit).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct EdgeLeastReport {
+    /// `wing-width`, `wing-r`, `wall-board-r` or `footing-depth`.
+    pub quantity: &'static str,
+    /// `m` or `m²K/W`.
+    pub unit: &'static str,
+    /// `found`, `smallest-suffices`, `not-reachable`, `not-monotone` or `run-limit`.
+    pub outcome: &'static str,
+    /// The least value that holds (found, run-limit) or the smallest of the range
+    /// (smallest-suffices); absent otherwise.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value: Option<f64>,
+    /// Frost below the base at `value` (or in the last run), m.
+    pub frost_below_base_m: f64,
+    /// The sensitivity d(frost below base)/d(value) near the answer (m per unit; negative:
+    /// more lifts the frost), from the failing side; absent with fewer than two failing runs.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub slope: Option<f64>,
+    /// How far frost below base drops across the last bracket, m: the read-off jumps when
+    /// the last frozen cell under the footing thaws.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub jump_m: Option<f64>,
+    /// The last bracket: the largest failing and the smallest holding value.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub bracket: Option<[f64; 2]>,
+    pub resolution: f64,
+    pub trials: Vec<EdgeTrialDoc>,
+}
+
+impl From<&EdgeDesignReport> for EdgeLeastReport {
+    fn from(r: &EdgeDesignReport) -> Self {
+        EdgeLeastReport {
+            quantity: r.quantity.id(),
+            unit: r.quantity.unit(),
+            outcome: r.outcome.id(),
+            value: r.value,
+            frost_below_base_m: r.frost_below_base_m,
+            slope: r.slope,
+            jump_m: r.jump_m,
+            bracket: r.bracket.map(|(a, b)| [a, b]),
+            resolution: r.resolution,
+            trials: r.trials.iter().map(EdgeTrialDoc::from).collect(),
+        }
     }
 }

@@ -2,173 +2,17 @@
 //! limit frost must stay above, and the range to search; the search run a slice at a time
 //! (`DesignJob`) and its report. The search itself is [`crate::physics::least`].
 
-use schemars::JsonSchema;
-use serde::{Deserialize, Serialize};
-
+use super::winter::{LeastThicknessReport, TrialDoc, MAX_RUNS};
+use crate::document::vocabulary::LayerDoc;
+use crate::document::winter::WinterDoc;
 use crate::physics::climate::Climate;
-use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::error::{InputError, InputErrorKind, InputErrors};
 use crate::physics::least::{
-    limit_depth_m, with_layer_thickness, DesignAnswer, FrostLimit, Search, Searcher, Trial,
+    limit_depth_m, with_layer_thickness, DesignAnswer, FrostLimit, Searcher, Trial,
 };
 use crate::physics::stack::ResolvedStack;
-use crate::physics::transient::run::{self};
+use crate::physics::transient::run;
 use crate::physics::transient::setup::RunSpec;
-use crate::scenario::LayerDoc;
-use crate::scenario_winter::WinterDoc;
-
-/// Find the least thickness of one layer that keeps frost above a limit through the
-/// winter.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(deny_unknown_fields)]
-pub struct LeastThicknessDoc {
-    /// Index of the layer whose thickness is searched (0 = the top layer).
-    pub layer: usize,
-    pub keep_frost_above: FrostLimitDoc,
-    /// The range searched, m.
-    pub min_m: f64,
-    pub max_m: f64,
-    /// The answer's resolution, m (default 2 mm).
-    #[serde(default = "default_resolution")]
-    pub resolution_m: f64,
-}
-
-fn default_resolution() -> f64 {
-    0.002
-}
-
-/// Where frost must stay above.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
-pub enum FrostLimitDoc {
-    /// A depth below the top face, m (a pipe, a footing base).
-    Depth { depth_m: f64 },
-    /// The bottom face of a layer: what lies below it must not freeze.
-    LayerBottom { layer: usize },
-}
-
-/// At most this many runs in one search.
-pub const MAX_RUNS: usize = 16;
-
-impl LeastThicknessDoc {
-    fn check(&self, layers: usize, errs: &mut InputErrors) -> Option<(FrostLimit, Search)> {
-        let f = "winter.least_thickness";
-        let mut ok = true;
-        if self.layer >= layers {
-            errs.push(
-                format!("{f}.layer"),
-                InputErrorKind::Count {
-                    count: self.layer + 1,
-                    min: 1,
-                    max: layers,
-                },
-            );
-            ok = false;
-        }
-        ok &= check::within(errs, &format!("{f}.min_m"), self.min_m, 0.0, 10.0, "m");
-        ok &= check::within(errs, &format!("{f}.max_m"), self.max_m, 0.001, 10.0, "m");
-        ok &= check::within(
-            errs,
-            &format!("{f}.resolution_m"),
-            self.resolution_m,
-            1e-4,
-            0.5,
-            "m",
-        );
-        if ok && self.max_m <= self.min_m + self.resolution_m {
-            errs.push(
-                format!("{f}.max_m"),
-                InputErrorKind::NotCovered(
-                    "the largest thickness must exceed the smallest by more than the resolution"
-                        .into(),
-                ),
-            );
-            ok = false;
-        }
-        let limit = match self.keep_frost_above {
-            FrostLimitDoc::Depth { depth_m } => {
-                ok &= check::within(
-                    errs,
-                    &format!("{f}.keep_frost_above.depth_m"),
-                    depth_m,
-                    0.001,
-                    100.0,
-                    "m",
-                );
-                FrostLimit::Depth(depth_m)
-            }
-            FrostLimitDoc::LayerBottom { layer } => {
-                if layer >= layers {
-                    errs.push(
-                        format!("{f}.keep_frost_above.layer"),
-                        InputErrorKind::Count {
-                            count: layer + 1,
-                            min: 1,
-                            max: layers,
-                        },
-                    );
-                    ok = false;
-                }
-                FrostLimit::BottomOfLayer(layer)
-            }
-        };
-        ok.then_some((
-            limit,
-            Search {
-                lo: self.min_m,
-                hi: self.max_m,
-                tolerance: self.resolution_m,
-                max_runs: MAX_RUNS,
-            },
-        ))
-    }
-}
-
-/// One run of the search, as reported.
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct TrialDoc {
-    pub thickness_m: f64,
-    pub frost_depth_m: f64,
-    pub limit_m: f64,
-}
-
-impl From<&Trial> for TrialDoc {
-    fn from(t: &Trial) -> Self {
-        TrialDoc {
-            thickness_m: t.value,
-            frost_depth_m: t.frost_depth_m,
-            limit_m: t.limit_m,
-        }
-    }
-}
-
-/// The search's report (SI).
-#[derive(Debug, Clone, PartialEq, Serialize)]
-pub struct LeastThicknessReport {
-    /// `found`, `smallest-suffices`, `not-reachable` or `not-monotone`.
-    pub outcome: &'static str,
-    pub layer: usize,
-    pub layer_name: String,
-    /// The least thickness found (for `found`), the smallest of the range (for
-    /// `smallest-suffices`); absent otherwise.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub thickness_m: Option<f64>,
-    /// The deepest frost and the limit with that thickness (or with the range's end), m.
-    pub frost_depth_m: f64,
-    pub limit_m: f64,
-    /// d(frost − limit)/d(thickness) near the answer (m per m; negative: more of the layer
-    /// lifts the frost); absent where frost jumps across the answer (with the answer's
-    /// thickness the ground below does not freeze at all).
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub slope: Option<f64>,
-    pub resolution_m: f64,
-    /// For an insulation board: the R-value of the thickness found (or of the smallest of
-    /// the range), m²K/W, at the board's conductivity as the run used it (moisture
-    /// derating included), R = thickness / k.
-    #[serde(skip_serializing_if = "Option::is_none")]
-    pub r_value_m2k_w: Option<f64>,
-    /// Every run, in the order run.
-    pub trials: Vec<TrialDoc>,
-}
 
 /// A search under way, advanced a slice at a time; each trial is a whole winter run.
 #[derive(Debug, Clone)]

@@ -1,23 +1,28 @@
 //! The winter section of the scenario document (format version 2): what drives a transient
 //! run of the same stack, and the report of that run. Edge module (serde).
 
-use schemars::JsonSchema;
-use serde::{Deserialize, Serialize};
-
+use super::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
+use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
 use crate::physics::analytic;
 use crate::physics::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::least::{FrostLimit, Search, Trial};
 use crate::physics::materials::Material;
 use crate::physics::stack::ResolvedStack;
 use crate::physics::transient::grid::GridSpec;
 use crate::physics::transient::phase::UnfrozenWater;
-use crate::physics::transient::run::{self, RunResult};
+use crate::physics::transient::run::RunResult;
 use crate::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
-use crate::physics::transient::BottomCondition;
-use crate::scenario::{ErrorDoc, LayerDoc, MaterialDoc, SnowCorrelationDoc};
+use crate::physics::transient::{run, BottomCondition};
+use schemars::JsonSchema;
+use serde::{Deserialize, Serialize};
+
+/// At most this many runs in one search.
+pub const MAX_RUNS: usize = 16;
 
 /// Most cells a winter run may use.
 pub const MAX_CELLS: usize = 2000;
+
 /// Longest run, days.
 pub const MAX_RUN_DAYS: f64 = 30.0 * 365.0;
 
@@ -39,99 +44,11 @@ pub struct WinterDoc {
     pub duration_days: Option<f64>,
     /// Also find the least thickness of one layer that keeps frost above a limit.
     #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub least_thickness: Option<crate::scenario_design::LeastThicknessDoc>,
+    pub least_thickness: Option<crate::document::winter::LeastThicknessDoc>,
 }
 
 fn default_step() -> f64 {
     3600.0
-}
-
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
-pub enum ClimateDoc {
-    /// A sinusoidal year of air temperature.
-    Sinusoid {
-        mean_c: f64,
-        amplitude_k: f64,
-        coldest_day_of_year: u32,
-        /// Snow on the ground over a season, if any.
-        #[serde(default, skip_serializing_if = "Option::is_none")]
-        snow: Option<SnowSeasonDoc>,
-    },
-    /// A design winter built from a freezing index and a season length.
-    DesignWinter {
-        freezing_index_c_days: f64,
-        season_days: f64,
-        mean_annual_c: f64,
-        /// Snow on the ground over a season, if any.
-        #[serde(default, skip_serializing_if = "Option::is_none")]
-        snow: Option<SnowSeasonDoc>,
-    },
-    /// Daily records (dates consecutive, YYYY-MM-DD).
-    Daily { days: Vec<DayDoc> },
-}
-
-/// A snow season (days of the run, 0-based; see [`SnowSeason`]): depth rising linearly
-/// from 0 at `start_day` to `peak_depth_m` at `peak_day` and falling to 0 at `end_day`;
-/// density rising linearly from fresh to settled between start and end. A season may run
-/// across the year end (`end_day` beyond 365, or `start_day` after `end_day`); it repeats
-/// every 365 days.
-#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(deny_unknown_fields)]
-pub struct SnowSeasonDoc {
-    pub start_day: f64,
-    pub peak_day: f64,
-    pub end_day: f64,
-    pub peak_depth_m: f64,
-    pub fresh_density_kg_m3: f64,
-    pub settled_density_kg_m3: f64,
-}
-
-impl From<SnowSeasonDoc> for SnowSeason {
-    fn from(d: SnowSeasonDoc) -> Self {
-        SnowSeason {
-            start_day: d.start_day,
-            peak_day: d.peak_day,
-            end_day: d.end_day,
-            peak_depth_m: d.peak_depth_m,
-            fresh_density_kg_m3: d.fresh_density_kg_m3,
-            settled_density_kg_m3: d.settled_density_kg_m3,
-        }
-    }
-}
-
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(deny_unknown_fields)]
-pub struct DayDoc {
-    pub date: String,
-    pub mean_air_c: f64,
-    #[serde(default)]
-    pub snow_depth_m: Option<f64>,
-    #[serde(default)]
-    pub snow_density_kg_m3: Option<f64>,
-}
-
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
-pub enum SurfaceDoc {
-    /// Air through a film; snow on the ground (recorded, or a snow season) lies under the
-    /// film as layers of its own, with conductivity from the chosen regression.
-    Film {
-        film_w_m2k: f64,
-        snow_correlation: SnowCorrelationDoc,
-    },
-    /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
-    /// cover, snow included, so snow in the climate is not used.
-    NFactor { freezing: f64, thawing: f64 },
-}
-
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
-#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
-pub enum DeepDoc {
-    /// Bottom face held at a temperature.
-    Temperature { temperature_c: f64 },
-    /// Heat entering from below (geothermal flux), W/m².
-    Flux { upward_w_m2: f64 },
 }
 
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -475,9 +392,9 @@ pub struct WinterReport {
     /// not settle.
     pub warnings: Vec<ErrorDoc>,
     /// The least-thickness search, when the section asks for one and it was run
-    /// ([`crate::scenario::compute_with_winter`] runs it; the page runs it on request).
+    /// ([`crate::document::compute::compute_with_winter`] runs it; the page runs it on request).
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub least_thickness: Option<crate::scenario_design::LeastThicknessReport>,
+    pub least_thickness: Option<crate::document::winter::LeastThicknessReport>,
     /// The hand methods on the same winter and the same layers, beside this run.
     pub hand_methods: Vec<HandMethodRow>,
     /// The temperature of each cell (centres in `envelope`) at the end of each day; left out
@@ -962,4 +879,159 @@ pub fn profiles_csv(w: &WinterReport, sys: crate::physics::units::UnitSystem) ->
         out.push('\n');
     }
     out
+}
+
+/// Find the least thickness of one layer that keeps frost above a limit through the
+/// winter.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct LeastThicknessDoc {
+    /// Index of the layer whose thickness is searched (0 = the top layer).
+    pub layer: usize,
+    pub keep_frost_above: FrostLimitDoc,
+    /// The range searched, m.
+    pub min_m: f64,
+    pub max_m: f64,
+    /// The answer's resolution, m (default 2 mm).
+    #[serde(default = "default_resolution")]
+    pub resolution_m: f64,
+}
+
+fn default_resolution() -> f64 {
+    0.002
+}
+
+/// Where frost must stay above.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum FrostLimitDoc {
+    /// A depth below the top face, m (a pipe, a footing base).
+    Depth { depth_m: f64 },
+    /// The bottom face of a layer: what lies below it must not freeze.
+    LayerBottom { layer: usize },
+}
+
+impl LeastThicknessDoc {
+    pub(crate) fn check(
+        &self,
+        layers: usize,
+        errs: &mut InputErrors,
+    ) -> Option<(FrostLimit, Search)> {
+        let f = "winter.least_thickness";
+        let mut ok = true;
+        if self.layer >= layers {
+            errs.push(
+                format!("{f}.layer"),
+                InputErrorKind::Count {
+                    count: self.layer + 1,
+                    min: 1,
+                    max: layers,
+                },
+            );
+            ok = false;
+        }
+        ok &= check::within(errs, &format!("{f}.min_m"), self.min_m, 0.0, 10.0, "m");
+        ok &= check::within(errs, &format!("{f}.max_m"), self.max_m, 0.001, 10.0, "m");
+        ok &= check::within(
+            errs,
+            &format!("{f}.resolution_m"),
+            self.resolution_m,
+            1e-4,
+            0.5,
+            "m",
+        );
+        if ok && self.max_m <= self.min_m + self.resolution_m {
+            errs.push(
+                format!("{f}.max_m"),
+                InputErrorKind::NotCovered(
+                    "the largest thickness must exceed the smallest by more than the resolution"
+                        .into(),
+                ),
+            );
+            ok = false;
+        }
+        let limit = match self.keep_frost_above {
+            FrostLimitDoc::Depth { depth_m } => {
+                ok &= check::within(
+                    errs,
+                    &format!("{f}.keep_frost_above.depth_m"),
+                    depth_m,
+                    0.001,
+                    100.0,
+                    "m",
+                );
+                FrostLimit::Depth(depth_m)
+            }
+            FrostLimitDoc::LayerBottom { layer } => {
+                if layer >= layers {
+                    errs.push(
+                        format!("{f}.keep_frost_above.layer"),
+                        InputErrorKind::Count {
+                            count: layer + 1,
+                            min: 1,
+                            max: layers,
+                        },
+                    );
+                    ok = false;
+                }
+                FrostLimit::BottomOfLayer(layer)
+            }
+        };
+        ok.then_some((
+            limit,
+            Search {
+                lo: self.min_m,
+                hi: self.max_m,
+                tolerance: self.resolution_m,
+                max_runs: MAX_RUNS,
+            },
+        ))
+    }
+}
+
+/// One run of the search, as reported.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TrialDoc {
+    pub thickness_m: f64,
+    pub frost_depth_m: f64,
+    pub limit_m: f64,
+}
+
+impl From<&Trial> for TrialDoc {
+    fn from(t: &Trial) -> Self {
+        TrialDoc {
+            thickness_m: t.value,
+            frost_depth_m: t.frost_depth_m,
+            limit_m: t.limit_m,
+        }
+    }
+}
+
+/// The search's report (SI).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LeastThicknessReport {
+    /// `found`, `smallest-suffices`, `not-reachable` or `not-monotone`.
+    pub outcome: &'static str,
+    pub layer: usize,
+    pub layer_name: String,
+    /// The least thickness found (for `found`), the smallest of the range (for
+    /// `smallest-suffices`); absent otherwise.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub thickness_m: Option<f64>,
+    /// The deepest frost and the limit with that thickness (or with the range's end), m.
+    pub frost_depth_m: f64,
+    pub limit_m: f64,
+    /// d(frost − limit)/d(thickness) near the answer (m per m; negative: more of the layer
+    /// lifts the frost); absent where frost jumps across the answer (with the answer's
+    /// thickness the ground below does not freeze at all).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub slope: Option<f64>,
+    pub resolution_m: f64,
+    /// For an insulation board: the R-value of the thickness found (or of the smallest of
+    /// the range), m²K/W, at the board's conductivity as the run used it (moisture
+    /// derating included), R = thickness / k.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub r_value_m2k_w: Option<f64>,
+    /// Every run, in the order run.
+    pub trials: Vec<TrialDoc>,
 }

@@ -37,10 +37,6 @@
 //!
 //! Unit conversions come from [`crate::physics::units`] (NIST SP 811).
 
-use std::fmt;
-
-use chrono::NaiveDate;
-
 use crate::physics::climate::{
     date_step_problem, day_value_problems, DailySeries, DayField, DayRecord, MAX_SERIES_DAYS,
 };
@@ -48,6 +44,8 @@ use crate::physics::error::InputErrorKind;
 use crate::physics::units::{
     CM_PER_M, DEG_F_AT_0_C, DEG_F_PER_K, FT_PER_M, IN_PER_M, LB_FT3_PER_KG_M3,
 };
+use chrono::NaiveDate;
+use std::fmt;
 
 /// Largest input accepted, bytes (200 years of days with every column fits in a quarter of
 /// it).

@@ -1,0 +1,94 @@
+//! `edge.least` (edge module: serde): the search for the least wing width, board R-value or
+//! footing depth that keeps frost at or above the footing base through the edge's winter,
+//! over the 2D solver ([`crate::physics::edge2d::least`]); its sliced job for the page and its
+//! report.
+//!
+//! ```json
+//! "least": { "quantity": "wing-width", "min": 0.0, "max": 2.0, "resolution": 0.02 }
+//! ```
+//! Values in the quantity's SI unit: m for `wing-width` and `footing-depth`, m²K/W for
+//! `wing-r` and `wall-board-r` (the R of the board as the run takes it, moisture derating
+//! included: the board's thickness is varied at its derated conductivity).
+
+use super::edge::EdgeLeastReport;
+use crate::document::edge::EdgeDoc;
+use crate::physics::edge2d::least::{EdgeDesignError, EdgeDesignJob};
+use crate::physics::error::{InputError, InputErrorKind, InputErrors};
+use crate::physics::transient::run::Progress;
+
+/// The core names the search's settings `edge.design.*` and a board's thickness
+/// `….board.thickness_m`; the scenario's fields are `edge.least.*` and `….thickness_m`.
+fn scenario_path(field: &str) -> String {
+    field
+        .replace("edge.design.", "edge.least.")
+        .replace(".board.thickness_m", ".thickness_m")
+}
+
+fn design_error(e: EdgeDesignError) -> InputErrors {
+    match e {
+        EdgeDesignError::Input(errs) => crate::document::edge::moved_by(errs, scenario_path),
+        other => {
+            InputError::new("edge.least", InputErrorKind::NotCovered(other.to_string())).into()
+        }
+    }
+}
+
+/// The search of an edge section under way, advanced a slice at a time (each trial a whole
+/// winter of the section).
+#[derive(Debug, Clone)]
+pub struct EdgeLeastJob {
+    job: EdgeDesignJob,
+}
+
+impl EdgeLeastJob {
+    /// Check the section and the search (every error at once, fields under `edge.`).
+    pub fn new(doc: &EdgeDoc) -> Result<EdgeLeastJob, InputErrors> {
+        let Some(d) = &doc.least else {
+            return Err(InputError::new(
+                "edge.least",
+                InputErrorKind::NotCovered("the edge section asks for no search".into()),
+            )
+            .into());
+        };
+        let (section, climate) = doc.section_and_climate()?;
+        let job = EdgeDesignJob::new(
+            &section,
+            &climate,
+            d.quantity.into(),
+            d.min,
+            d.max,
+            d.resolution,
+            "edge",
+        )
+        .map_err(design_error)?;
+        Ok(EdgeLeastJob { job })
+    }
+
+    /// Advance by at most `max_steps` time steps; the share done and whether it has ended.
+    pub fn advance(&mut self, max_steps: usize) -> Result<Progress, InputErrors> {
+        self.job.advance(max_steps).map_err(design_error)
+    }
+
+    /// The share done and whether the search has ended.
+    pub fn progress(&self) -> Progress {
+        self.job.progress()
+    }
+
+    /// The report, once the search has ended.
+    pub fn report(&self) -> Option<EdgeLeastReport> {
+        self.job.report().as_ref().map(EdgeLeastReport::from)
+    }
+}
+
+/// Run the search of `edge.least` to its end.
+pub fn run_edge_least(doc: &EdgeDoc) -> Result<EdgeLeastReport, InputErrors> {
+    let mut job = EdgeLeastJob::new(doc)?;
+    while !job.advance(usize::MAX)?.finished {}
+    job.report().ok_or_else(|| {
+        InputError::new(
+            "edge.least",
+            InputErrorKind::NotCovered("the search ended without an answer".into()),
+        )
+        .into()
+    })
+}

@@ -1,0 +1,92 @@
+use crate::document::vocabulary::SnowCorrelationDoc;
+use crate::physics::climate::SnowSeason;
+use schemars::JsonSchema;
+use serde::{Deserialize, Serialize};
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum ClimateDoc {
+    /// A sinusoidal year of air temperature.
+    Sinusoid {
+        mean_c: f64,
+        amplitude_k: f64,
+        coldest_day_of_year: u32,
+        /// Snow on the ground over a season, if any.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        snow: Option<SnowSeasonDoc>,
+    },
+    /// A design winter built from a freezing index and a season length.
+    DesignWinter {
+        freezing_index_c_days: f64,
+        season_days: f64,
+        mean_annual_c: f64,
+        /// Snow on the ground over a season, if any.
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        snow: Option<SnowSeasonDoc>,
+    },
+    /// Daily records (dates consecutive, YYYY-MM-DD).
+    Daily { days: Vec<DayDoc> },
+}
+
+/// A snow season (days of the run, 0-based; see [`SnowSeason`]): depth rising linearly
+/// from 0 at `start_day` to `peak_depth_m` at `peak_day` and falling to 0 at `end_day`;
+/// density rising linearly from fresh to settled between start and end. A season may run
+/// across the year end (`end_day` beyond 365, or `start_day` after `end_day`); it repeats
+/// every 365 days.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct SnowSeasonDoc {
+    pub start_day: f64,
+    pub peak_day: f64,
+    pub end_day: f64,
+    pub peak_depth_m: f64,
+    pub fresh_density_kg_m3: f64,
+    pub settled_density_kg_m3: f64,
+}
+
+impl From<SnowSeasonDoc> for SnowSeason {
+    fn from(d: SnowSeasonDoc) -> Self {
+        SnowSeason {
+            start_day: d.start_day,
+            peak_day: d.peak_day,
+            end_day: d.end_day,
+            peak_depth_m: d.peak_depth_m,
+            fresh_density_kg_m3: d.fresh_density_kg_m3,
+            settled_density_kg_m3: d.settled_density_kg_m3,
+        }
+    }
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(deny_unknown_fields)]
+pub struct DayDoc {
+    pub date: String,
+    pub mean_air_c: f64,
+    #[serde(default)]
+    pub snow_depth_m: Option<f64>,
+    #[serde(default)]
+    pub snow_density_kg_m3: Option<f64>,
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum SurfaceDoc {
+    /// Air through a film; snow on the ground (recorded, or a snow season) lies under the
+    /// film as layers of its own, with conductivity from the chosen regression.
+    Film {
+        film_w_m2k: f64,
+        snow_correlation: SnowCorrelationDoc,
+    },
+    /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
+    /// cover, snow included, so snow in the climate is not used.
+    NFactor { freezing: f64, thawing: f64 },
+}
+
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
+#[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
+pub enum DeepDoc {
+    /// Bottom face held at a temperature.
+    Temperature { temperature_c: f64 },
+    /// Heat entering from below (geothermal flux), W/m².
+    Flux { upward_w_m2: f64 },
+}
