@@ -153,6 +153,15 @@ test('words in strings, templates, regular expressions and comments are not stat
   assert.equal(toks.filter((t) => t.type === 'template').length, 4);
 });
 
+test('the page\'s own modules bundle, with the worker as text', () => {
+  const { code, modules } = bundle(join(REPO, 'www/js/main.js'), { root: REPO });
+  assert.equal(modules[modules.length - 1], 'www/js/main.js');
+  assert.ok(modules.includes('www/js/ranges-worker.js?text'));
+  assert.ok(modules.indexOf('www/js/dom.js') < modules.indexOf('www/js/fields.js'));
+  assert.ok(code.includes('wasm_bindgen'));
+  assert.equal(/\bimport\s*[{*(]|\bexport\s+(?:const|function|default|\{)/.test(code.replace(/"(?:[^"\\]|\\.)*"/g, '""')), false, 'no module syntax is left');
+});
+
 test('inline.mjs refuses a module tree it cannot bundle, and says why', () => {
   withTree({
     'main.js': "import { a } from './a.js';\n",

@@ -2,15 +2,15 @@
 // wasm-bindgen glue, the page's script and the WebAssembly module (base64) inlined, so it
 // works opened from file:// with no network at all.
 //
-// The page's script is bundled from its entry module (www/app.js) into one classic script
-// (see "bundling" below), so nothing is loaded as a module at run time.
+// The page's script is written as ES modules under www/js/; this file bundles them into
+// one classic script (see "bundling" below), so nothing is loaded as a module at run time.
 //
 // Usage (from the repository root): node tools/inline.mjs
 // Optional environment overrides (for trying the page against other inputs):
 //   HIBERNAL_GLUE   path of the wasm-bindgen glue   (default target/web/hibernal.js)
 //   HIBERNAL_WASM   path of the wasm module          (default target/web/hibernal_bg.wasm)
 //   HIBERNAL_OUT    path of the page to write        (default dist/hibernal.html)
-//   HIBERNAL_ENTRY  the page's entry module          (default www/app.js)
+//   HIBERNAL_ENTRY  the page's entry module          (default www/js/main.js)
 import { readFileSync, writeFileSync, mkdirSync } from 'node:fs';
 import { dirname, resolve, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -484,7 +484,7 @@ function buildPage() {
   const inputs = {
     html: p('www/index.html'),
     css: p('www/style.css'),
-    entry: p(process.env.HIBERNAL_ENTRY || 'www/app.js'),
+    entry: p(process.env.HIBERNAL_ENTRY || 'www/js/main.js'),
     glue: p(process.env.HIBERNAL_GLUE || 'target/web/hibernal.js'),
     wasm: p(process.env.HIBERNAL_WASM || 'target/web/hibernal_bg.wasm'),
   };
