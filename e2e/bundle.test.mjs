@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import vm from 'node:vm';
 import { REPO } from './helpers.mjs';
-import { bundle, tokenize } from '../tools/inline.mjs';
+import { bundle, tokenize, BundleError } from '../tools/inline.mjs';
 
 // Writes `files` ({ 'a.js': text, ... }) to a fresh folder; body(dir) gets its path.
 function withTree(files, body) {
@@ -42,7 +42,7 @@ function refusal(files) {
     try {
       bundle(join(dir, 'main.js'), { root: dir });
     } catch (e) {
-      assert.equal(e.name, 'Error');
+      assert.ok(e instanceof BundleError, String(e));
       return e.message;
     }
     assert.fail('the bundle was not refused');

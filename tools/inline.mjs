@@ -35,7 +35,9 @@ import vm from 'node:vm';
 // follow later assignments: export a const object and change its properties), a module that
 // does not parse.
 
-export class BundleError extends Error {}
+export class BundleError extends Error {
+  get name() { return 'BundleError'; }
+}
 
 const REGEX_AFTER = new Set(['return', 'typeof', 'instanceof', 'in', 'of', 'new', 'delete', 'void',
   'throw', 'case', 'do', 'else', 'yield', 'await']);
@@ -51,7 +53,8 @@ export function tokenize(src, file = 'input') {
   const tokens = [];
   const open = []; // '{', '(', '[' or '${' (a template's substitution)
   let i = 0;
-  let line = 1;
+  let line = 1; // the line scanning is on
+  let lineAt = 1; // the line the token being read starts on
   let nl = true;
   const fail = (msg) => { throw new BundleError(`${file}:${line}: ${msg}`); };
   const last = () => tokens[tokens.length - 1];
@@ -66,7 +69,6 @@ export function tokenize(src, file = 'input') {
     tokens.push({ type, value, start, end: i, line: lineAt, depth: open.length, nl });
     nl = false;
   };
-  let lineAt = 1;
   const countLines = (from, to) => {
     for (let k = from; k < to; k++) if (src.charCodeAt(k) === 10) line++;
   };
