@@ -1,0 +1,190 @@
+// The weather inputs shared by the winter and the building edge: the climate, the snow
+// season, how the ground surface meets the weather and the deep boundary; and a day of a
+// climate in words. Each editor takes the section object, the path prefix of its fields and
+// `keep`, the section's memory ({ past: sub-sections switched away from, by kind;
+// nPreset: the n-factor preset chosen }).
+import { el, clear } from './dom.js';
+import { core } from './core.js';
+import { badText, field, numField, switchPart } from './fields.js';
+import { firstCorrelation } from './materials.js';
+
+// ---------- the page's own defaults for the weather inputs ----------
+export function defaultSnowSeason(kind) {
+  // Invented defaults: for a calendar year (day 0 = 1 January) snow from mid-November to
+  // mid-April; for a design winter (day 0 = freeze-up) from day 10 to day 160.
+  return kind === 'design-winter'
+    ? { start_day: 10, peak_day: 100, end_day: 160, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 }
+    : { start_day: 320, peak_day: 50, end_day: 105, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 };
+}
+export function defaultClimate(kind) {
+  switch (kind) {
+    case 'design-winter': return { kind, freezing_index_c_days: 1000, season_days: 150, mean_annual_c: 3 };
+    case 'daily': return { kind, days: [] };
+    default: return { kind: 'sinusoid', mean_c: 3, amplitude_k: 14, coldest_day_of_year: 20 };
+  }
+}
+// A surface and a deep boundary of each kind. Film coefficient of open ground in light
+// wind, 20 W/m²K (common practice, no source); geothermal flux 0.06 W/m² (a typical
+// continental value, from memory).
+export const defaultSurface = {
+  film: () => ({ kind: 'film', film_w_m2k: 20, snow_correlation: firstCorrelation() }),
+  'n-factor': () => ({ kind: 'n-factor', freezing: 0.7, thawing: 1.0 }),
+};
+export const defaultBottom = {
+  flux: () => ({ kind: 'flux', upward_w_m2: 0.06 }),
+  temperature: () => ({ kind: 'temperature', temperature_c: 4 }),
+};
+
+// ---------- editors ----------
+// The climate of a section (`sect.climate`, paths under `prefix`): its kind and numbers.
+// `allowDaily`: offer daily records (the winter imports them from a CSV file).
+export function climateEditor(box, sect, prefix, keep, rerender, allowDaily) {
+  const c = sect.climate;
+  clear(box);
+  const kinds = [
+    { value: 'sinusoid', text: 'A year of sine-shaped air temperature' },
+    { value: 'design-winter', text: 'A design winter from a freezing index' },
+  ];
+  if (allowDaily || c.kind === 'daily') kinds.push({ value: 'daily', text: allowDaily ? 'Daily records from a CSV file' : 'Daily records (from the scenario file)' });
+  const P = prefix + 'climate.';
+  const grid = el('div', { class: 'w-fields' });
+  grid.append(field({
+    path: P + 'kind', label: 'Climate from', options: kinds, cls: 'wide',
+    get: () => c.kind,
+    set: (v) => switchPart(sect, 'climate', keep.past, v, defaultClimate),
+    after: rerender(P + 'kind'),
+  }));
+  if (c.kind === 'sinusoid') {
+    grid.append(
+      numField(c, 'mean_c', P + 'mean_c', 'Mean annual air temperature', 'temperature'),
+      numField(c, 'amplitude_k', P + 'amplitude_k', 'Swing either side of the mean', 'temperature_difference'),
+      numField(c, 'coldest_day_of_year', P + 'coldest_day_of_year', 'Coldest day of the year (1 = 1 January)', 'days'),
+    );
+  } else if (c.kind === 'design-winter') {
+    grid.append(
+      numField(c, 'freezing_index_c_days', P + 'freezing_index_c_days', 'Air freezing index', 'degree_days'),
+      numField(c, 'season_days', P + 'season_days', 'Length of the freezing season', 'days'),
+      numField(c, 'mean_annual_c', P + 'mean_annual_c', 'Mean annual air temperature', 'temperature'),
+    );
+  } else if (!allowDaily) {
+    grid.append(el('p', { class: 'hint', text: (c.days ? c.days.length : 0) + ' days of records, as the scenario file gives them.' }));
+  }
+  box.append(grid, el('span', { class: 'field-msg block', 'data-msg-for': P.slice(0, -1) }));
+}
+
+// The snow season of a sine year or a design winter (a daily record carries its own snow).
+export function snowEditor(sb, c, prefix, checkId, keep, rerender, note) {
+  clear(sb);
+  if (c.kind === 'daily') return;
+  const past = keep.past;
+  const P = prefix + 'climate.snow';
+  const on = !!c.snow;
+  const check = el('input', { type: 'checkbox', id: checkId, 'data-field': P, checked: on, title: 'Lay a season of snow on the ground: it comes, deepens, settles and melts as set below' });
+  check.addEventListener('change', () => {
+    if (check.checked) c.snow = (past.snow && past.snow[c.kind]) || defaultSnowSeason(c.kind);
+    else { past.snow = past.snow || {}; past.snow[c.kind] = c.snow; delete c.snow; }
+    rerender(P)();
+  });
+  sb.append(el('label', { class: 'check', for: checkId }, check, ' Snow lies on the ground'));
+  if (on) {
+    const s = c.snow;
+    const dayHint = c.kind === 'design-winter' ? 'days after freeze-up' : 'day of the year, 0 = 1 January';
+    const g = el('div', { class: 'w-fields' });
+    g.append(
+      numField(s, 'start_day', P + '.start_day', 'First snow', 'days', { hint: dayHint }),
+      numField(s, 'peak_day', P + '.peak_day', 'Deepest on', 'days'),
+      numField(s, 'end_day', P + '.end_day', 'Melted by', 'days'),
+      numField(s, 'peak_depth_m', P + '.peak_depth_m', 'Greatest depth', 'thickness'),
+      numField(s, 'fresh_density_kg_m3', P + '.fresh_density_kg_m3', 'Density when fresh', 'density'),
+      numField(s, 'settled_density_kg_m3', P + '.settled_density_kg_m3', 'Density when settled', 'density'),
+    );
+    sb.append(g, el('p', { class: 'hint', text: 'Depth rises in a straight line from the first snow to the deepest day, then falls to nothing; density rises from fresh to settled over the season. ' + note }));
+  }
+  sb.append(el('span', { class: 'field-msg block', 'data-msg-for': P }));
+}
+
+// How the ground surface meets the weather (`sect[key]`): a film (snow on top of it) or
+// n-factors. `keep.nPreset` keeps the preset chosen.
+export function surfaceEditor(su, sect, key, prefix, keep, rerender) {
+  clear(su);
+  const s = sect[key];
+  const P = prefix + key + '.';
+  const sg = el('div', { class: 'w-fields' });
+  sg.append(field({
+    path: P + 'kind', label: 'Top of the ground meets the weather', cls: 'wide',
+    options: [
+      { value: 'film', text: 'Through an air film (snow adds its own layers)' },
+      { value: 'n-factor', text: 'Surface temperature = n-factor × air temperature' },
+    ],
+    get: () => s.kind,
+    set: (v) => switchPart(sect, key, keep.past, v, (k) => defaultSurface[k]()),
+    after: rerender(P + 'kind'),
+  }));
+  su.append(sg);
+  if (s.kind === 'film') {
+    sg.append(
+      numField(s, 'film_w_m2k', P + 'film_w_m2k', 'Film coefficient', 'film'),
+      field({
+        path: P + 'snow_correlation', label: 'Snow conductivity from', cls: 'wide',
+        options: core.CAT.snow_correlations.map((x) => ({ value: x.id, text: x.name, title: x.citation })),
+        get: () => s.snow_correlation, set: (v) => { s.snow_correlation = v; },
+      }),
+    );
+    return;
+  }
+  const presets = core.CAT.n_factor_presets || [];
+  const same = (p) => p && Math.abs(p.freezing - s.freezing) < 1e-9;
+  const chosen = presets.find((p) => p.id === keep.nPreset);
+  const match = same(chosen) ? chosen : presets.find(same);
+  sg.append(
+    field({
+      path: P + 'preset', label: 'Surface (freezing n-factor)', cls: 'wide',
+      options: [{ value: '', text: 'Own value' }].concat(presets.map((p) => ({ value: p.id, text: p.name + ' — ' + p.freezing, title: p.source }))),
+      get: () => (match ? match.id : ''),
+      set: (v) => { const p = presets.find((x) => x.id === v); keep.nPreset = v; if (p) { s.freezing = p.freezing; badText.delete(s); } },
+      after: rerender(P + 'preset'),
+    }),
+    numField(s, 'freezing', P + 'freezing', 'Freezing n-factor', 'fraction'),
+    numField(s, 'thawing', P + 'thawing', 'Thawing n-factor', 'fraction'),
+  );
+  su.append(el('p', { class: 'hint', text: 'Freezing n-factors: ' + ((presets[0] && presets[0].source) || '') + '. With n-factors, snow cover is taken as part of the factor and not simulated.' }));
+}
+
+// The deep boundary (`sect.bottom`): a geothermal flux or a held temperature.
+export function bottomEditor(bo, sect, prefix, keep, rerender) {
+  clear(bo);
+  const b = sect.bottom;
+  const P = prefix + 'bottom.';
+  const bg = el('div', { class: 'w-fields' });
+  bg.append(field({
+    path: P + 'kind', label: 'At the bottom face', cls: 'wide',
+    options: [
+      { value: 'flux', text: 'Heat rising from deep ground (geothermal flux)' },
+      { value: 'temperature', text: 'Held at a fixed temperature' },
+    ],
+    get: () => b.kind,
+    set: (v) => switchPart(sect, 'bottom', keep.past, v, (k) => defaultBottom[k]()),
+    after: rerender(P + 'kind'),
+  }));
+  if (b.kind === 'flux') bg.append(numField(b, 'upward_w_m2', P + 'upward_w_m2', 'Heat flux from below', 'heat_flux'));
+  else bg.append(numField(b, 'temperature_c', P + 'temperature_c', 'Bottom temperature', 'temperature'));
+  bo.append(bg);
+}
+
+// ---------- days in words ----------
+// A day of a run in words: a date for a daily record, the calendar for a sine year, days
+// after freeze-up for a design winter.
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+export function dayWords(day, c) {
+  const n = Math.round(day);
+  if (c.kind === 'daily' && c.days && c.days.length) {
+    const d0 = new Date(c.days[0].date + 'T00:00:00Z');
+    const d = new Date(d0.getTime() + n * 86400000);
+    return d.toISOString().slice(0, 10) + ' (day ' + n + ')';
+  }
+  if (c.kind === 'sinusoid') {
+    const d = new Date(Date.UTC(2001, 0, 1) + (n % 365) * 86400000);
+    return 'day ' + n + ' (about ' + d.getUTCDate() + ' ' + MONTHS[d.getUTCMonth()] + ')';
+  }
+  return 'day ' + n + ' after freeze-up';
+}

@@ -1,0 +1,430 @@
+// The winter section (#winter): scenario.winter (SI, as the core reads it), its inputs,
+// and its run: a WinterRun in the core, started 200 ms after each good steady compute and
+// advanced a slice at a time (see jobs.js); any newer input cancels the run under way. Its
+// report and charts (the day slider redraws only the profile of that day, from the
+// profiles kept in the finished run), the least-thickness search (#w-design) and the
+// import of a daily record from a CSV file.
+import { $, el, clear, focusField, jobChart } from './dom.js';
+import { core } from './core.js';
+import { state, flow, clone, scenarioWithout } from './state.js';
+import { field, numField, fmt, fmtU, fmtUpU, fmtNum, headCell, typedErrors, switchPart, showUnitSymbols } from './fields.js';
+import { describePath, fieldLabel } from './messages.js';
+import { slicedRun, searchBox } from './jobs.js';
+import { download, fileStem } from './downloads.js';
+import { section } from './section.js';
+import { defaultClimate, defaultSurface, defaultBottom, climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
+
+// ---------- the page's own defaults for the winter section ----------
+const defaultInitial = {
+  'spin-up': () => ({ kind: 'spin-up', start_c: 4, max_years: 10 }),
+  uniform: () => ({ kind: 'uniform', temperature_c: 4 }),
+  periodic: () => ({ kind: 'periodic' }),
+};
+function defaultWinter() {
+  return {
+    climate: defaultClimate('sinusoid'),
+    surface: defaultSurface.film(),
+    bottom: defaultBottom.flux(),
+    initial: defaultInitial['spin-up'](),
+    step_s: 3600,
+  };
+}
+// The core's default grid, shown until changed.
+const defaultGrid = () => ({ surface_cell_m: 0.01, growth_ratio: 1.05, max_cell_m: 0.25 });
+// The least-thickness search: the first insulation layer, frost kept above its bottom.
+function defaultDesign() {
+  const L = state.scenario.layers;
+  let i = L.findIndex((l) => l.material && l.material.kind === 'insulation');
+  if (i < 0) i = 0;
+  return { layer: i, keep_frost_above: { kind: 'layer-bottom', layer: i }, min_m: 0, max_m: 0.3, resolution_m: 0.002 };
+}
+
+const WINTER_DEBOUNCE_MS = 200;
+
+const winter = {
+  day: null, // the day the profile chart shows
+  past: {}, // earlier sub-sections by kind, so switching back restores them
+  nPreset: undefined, // the n-factor preset chosen
+  summary: null, // summary of a daily record: { first_date, winters, design, ... }
+  design: null, // the least-thickness search being set up (applied to the scenario when run)
+};
+
+const winterRun = slicedRun({
+  key: 'winter', results: 'winter-results', errors: 'w-errors', bar: 'w-progress', status: 'w-status',
+  busy: 'Running…', what: 'The winter run', delayMs: WINTER_DEBOUNCE_MS, clearFirst: '#winter',
+  make: () => new core.W.WinterRun(scenarioWithout('shelter', 'edge', 'ranges')),
+  describe: describeWinterPath,
+  render: () => { renderWinterReport(); drawWinter(); },
+});
+
+const search = searchBox({
+  id: 'w-design',
+  draft: designDraft,
+  typed: (d) => typedErrors([[d, ''], [d.keep_frost_above, '']]),
+  keep: (d) => { state.scenario.winter.least_thickness = clone(d); },
+  make: () => new core.W.DesignRun(scenarioWithout('ranges')),
+  describe: describeWinterPath,
+  render: renderDesignReport,
+});
+
+function describeWinterPath(path) {
+  if (/^winter\.climate\.days/.test(path || '')) return 'Daily records';
+  if (path === 'winter') return 'Winter run';
+  if (path === 'winter.surface') return 'Surface';
+  if (/^winter\.initial/.test(path || '') && !fieldLabel(path)) return 'Start';
+  return describePath(path);
+}
+
+function winterOwners() {
+  const w = state.scenario.winter;
+  if (!w) return [];
+  const out = [[w.climate, 'winter.climate.'], [w.surface, 'winter.surface.'], [w.bottom, 'winter.bottom.'], [w.initial, 'winter.initial.'], [w, 'winter.']];
+  if (w.climate.snow) out.push([w.climate.snow, 'winter.climate.snow.']);
+  if (w.grid) out.push([w.grid, 'winter.grid.']);
+  return out;
+}
+
+// ---------- inputs ----------
+function renderWinter() {
+  const w = state.scenario.winter;
+  $('winter-off').hidden = !!w;
+  $('winter-on').hidden = !w;
+  if (!w) return;
+  const rerender = (focus) => () => { renderWinter(); focusField(focus); flow.run(); };
+
+  // climate, snow, surface, deep ground (the same inputs as the building edge's)
+  const c = w.climate;
+  climateEditor($('w-climate'), w, 'winter.', winter, rerender, true);
+  $('w-import').hidden = c.kind !== 'daily';
+  renderClimateSummary();
+  snowEditor($('w-snow'), c, 'winter.', 'w-snow-on', winter, rerender, 'The snow is simulated as layers of its own above the ground.');
+  surfaceEditor($('w-surface'), w, 'surface', 'winter.', winter, rerender);
+  bottomEditor($('w-bottom'), w, 'winter.', winter, rerender);
+
+  const ini = $('w-initial');
+  clear(ini);
+  const ig = el('div', { class: 'w-fields' });
+  const initialKinds = [
+    { value: 'spin-up', text: 'Repeat the year until it repeats itself' },
+    { value: 'uniform', text: 'Uniform temperature' },
+  ];
+  if (core.CAT.initial_kinds && core.CAT.initial_kinds.includes('periodic')) initialKinds.push({ value: 'periodic', text: 'Yearly cycle from the mean annual temperature' });
+  ig.append(field({
+    path: 'winter.initial.kind', label: 'The ground starts', cls: 'wide', options: initialKinds,
+    get: () => w.initial.kind,
+    set: (v) => switchPart(w, 'initial', winter.past, v, (k) => defaultInitial[k]()),
+    after: rerender('winter.initial.kind'),
+  }));
+  if (w.initial.kind === 'uniform') ig.append(numField(w.initial, 'temperature_c', 'winter.initial.temperature_c', 'Temperature everywhere', 'temperature'));
+  if (w.initial.kind === 'spin-up') {
+    ig.append(
+      numField(w.initial, 'start_c', 'winter.initial.start_c', 'First guess, everywhere', 'temperature'),
+      numField(w.initial, 'max_years', 'winter.initial.max_years', 'At most this many years', 'fraction'),
+    );
+  }
+  ini.append(ig);
+
+  // run
+  const ru = $('w-run');
+  clear(ru);
+  const rg = el('div', { class: 'w-fields' });
+  rg.append(
+    numField(w, 'step_s', 'winter.step_s', 'Time step', 'step'),
+    numField(w, 'duration_days', 'winter.duration_days', 'Length of the run', 'days', {
+      optional: true, placeholder: () => (c.kind === 'daily' ? 'the whole record' : '365'),
+    }),
+  );
+  ru.append(rg);
+  const grd = w.grid || defaultGrid();
+  const det = el('details', { class: 'grid-opts' }, el('summary', { text: 'Grid' }));
+  const gg = el('div', { class: 'w-fields' });
+  const ensureGrid = () => { if (!w.grid) w.grid = grd; };
+  gg.append(
+    numField(grd, 'surface_cell_m', 'winter.grid.surface_cell_m', 'Cell at the surface', 'thickness', { after: ensureGrid }),
+    numField(grd, 'growth_ratio', 'winter.grid.growth_ratio', 'Growth from cell to cell', 'fraction', { after: ensureGrid }),
+    numField(grd, 'max_cell_m', 'winter.grid.max_cell_m', 'Largest cell', 'thickness', { after: ensureGrid }),
+  );
+  det.append(gg);
+  ru.append(det);
+  renderDesignFields();
+  showUnitSymbols($('winter'));
+}
+
+// ---------- least thickness ----------
+function designDraft() {
+  const w = state.scenario.winter;
+  if (!winter.design) winter.design = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultDesign();
+  const d = winter.design;
+  const n = state.scenario.layers.length;
+  if (d.layer >= n) d.layer = n - 1;
+  if (d.keep_frost_above.kind === 'layer-bottom' && d.keep_frost_above.layer >= n) d.keep_frost_above.layer = n - 1;
+  return d;
+}
+
+function renderDesignFields() {
+  const box = $('w-design-fields');
+  clear(box);
+  const d = designDraft();
+  const layerOptions = state.scenario.layers.map((l, i) => ({ value: String(i), text: (i + 1) + '. ' + (l.name && l.name.trim() ? l.name : 'layer ' + (i + 1)) }));
+  const redraw = () => { renderDesignFields(); search.stale(); };
+  box.append(field({
+    path: 'winter.least_thickness.layer', label: 'Layer to size', cls: 'wide', options: layerOptions,
+    get: () => String(d.layer), set: (v) => { d.layer = Number(v); }, after: redraw,
+  }));
+  box.append(field({
+    path: 'winter.least_thickness.keep_frost_above.kind', label: 'Keep frost above', cls: 'wide',
+    options: [
+      { value: 'layer-bottom', text: 'the bottom of a layer (nothing below it freezes)' },
+      { value: 'depth', text: 'a depth below the top face' },
+    ],
+    get: () => d.keep_frost_above.kind,
+    set: (v) => { d.keep_frost_above = v === 'depth' ? { kind: 'depth', depth_m: 1.0 } : { kind: 'layer-bottom', layer: d.layer }; },
+    after: redraw,
+  }));
+  if (d.keep_frost_above.kind === 'depth') {
+    box.append(numField(d.keep_frost_above, 'depth_m', 'winter.least_thickness.keep_frost_above.depth_m', 'Depth', 'depth', { after: search.stale }));
+  } else {
+    box.append(field({
+      path: 'winter.least_thickness.keep_frost_above.layer', label: 'Bottom of layer', cls: 'wide', options: layerOptions,
+      get: () => String(d.keep_frost_above.layer), set: (v) => { d.keep_frost_above.layer = Number(v); }, after: redraw,
+    }));
+  }
+  box.append(
+    numField(d, 'min_m', 'winter.least_thickness.min_m', 'Thinnest to try', 'thickness', { after: search.stale }),
+    numField(d, 'max_m', 'winter.least_thickness.max_m', 'Thickest to try', 'thickness', { after: search.stale }),
+  );
+}
+
+function renderDesignReport() {
+  const r = search.report;
+  const ans = $('w-design-answer');
+  ans.classList.remove('is-stale');
+  const tb = $('w-design-trials').querySelector('tbody');
+  clear(tb);
+  if (!r) { ans.textContent = ''; $('w-design-trials').hidden = true; return; }
+  const name = r.layer_name && r.layer_name.trim() ? r.layer_name : 'layer ' + (r.layer + 1);
+  const limitWords = 'above ' + fmtU('depth', r.limit_m);
+  let text;
+  if (r.outcome === 'found') {
+    text = 'At least ' + fmtUpU('thickness', r.thickness_m) + ' of ' + name + (r.r_value_m2k_w != null ? ' (R-value ' + fmtUpU('r_value', r.r_value_m2k_w) + ' as derated)' : '') + ' keeps the deepest frost ' + limitWords +
+      (r.frost_depth_m > 0 ? ' (with it, frost reaches ' + fmtU('depth', r.frost_depth_m) + ')' : ' (with it, the ground below does not freeze)') + ', found to within ' + fmtU('thickness', r.resolution_m) + '.';
+    if (r.slope != null && r.slope < 0) {
+      text += ' Near the answer each extra ' + fmtU('thickness', 0.01) + ' lifts the frost by about ' + fmtU('depth', -r.slope * 0.01) + '.';
+    } else if (r.frost_depth_m === 0) {
+      text += ' From this thickness on the ground below does not freeze at all, so the answer is sharp: a little less lets frost in.';
+    }
+  } else if (r.outcome === 'smallest-suffices') {
+    text = 'Even ' + fmtU('thickness', r.thickness_m) + ' of ' + name + ' (the thinnest tried) keeps the frost ' + limitWords + '.';
+  } else if (r.outcome === 'not-reachable') {
+    text = 'Even the thickest tried lets frost reach ' + fmtU('depth', r.frost_depth_m) + ', below the limit (' + fmtU('depth', r.limit_m) + '). Try a thicker range, another layer, or more cover.';
+  } else {
+    text = 'Frost reached deeper with more of this layer between two tries, so no least thickness can be named here; look at the table.';
+  }
+  ans.textContent = text;
+  r.trials.forEach((t, i) => {
+    const ok = t.frost_depth_m <= t.limit_m;
+    tb.append(el('tr', {},
+      el('td', { text: String(i + 1) }),
+      el('td', { text: fmtU('thickness', t.thickness_m) }),
+      el('td', { text: t.frost_depth_m > 0 ? fmtU('depth', t.frost_depth_m) : 'none' }),
+      el('td', { text: fmtU('depth', t.limit_m) }),
+      el('td', { text: ok ? 'yes' : 'no', class: ok ? 'ok' : 'no' })));
+  });
+  $('w-design-trials').hidden = false;
+}
+
+// ---------- a daily record ----------
+function importOptions() {
+  return {
+    temperature: $('imp-temp').value,
+    snow_depth: $('imp-depth').value,
+    snow_density: $('imp-density').value,
+    skip_bad_lines: $('imp-skip').checked,
+    fill_gaps_days: $('imp-fill').checked ? 7 : 0,
+    season_start_month: Number($('imp-month').value),
+  };
+}
+
+function importCsv(ev) {
+  const file = ev.target.files && ev.target.files[0];
+  const list = $('imp-problems');
+  clear(list); list.hidden = true;
+  if (!file) return;
+  const reader = new FileReader();
+  reader.onload = () => {
+    const res = core.W.import_climate_csv(String(reader.result), importOptions());
+    ev.target.value = '';
+    if (!res.ok) {
+      for (const e of res.errors || []) list.append(el('li', { text: e.message }));
+      for (const p of res.problems || []) list.append(el('li', { text: p.message }));
+      if (res.more_problems) list.append(el('li', { text: '… and ' + res.more_problems + ' more' }));
+      list.prepend(el('li', { class: 'lead', text: file.name + ' was not read:' }));
+      list.hidden = false;
+      return;
+    }
+    state.scenario.winter.climate = { kind: 'daily', days: res.days };
+    delete state.scenario.winter.duration_days;
+    winter.summary = Object.assign({ file: file.name }, res.summary);
+    if (res.problems && res.problems.length) {
+      list.append(el('li', { class: 'lead', text: 'Read, leaving out ' + res.summary.skipped_lines + ' bad line(s):' }));
+      for (const p of res.problems) list.append(el('li', { text: p.message }));
+      list.hidden = false;
+    }
+    renderWinter();
+    flow.run();
+  };
+  reader.onerror = () => { list.append(el('li', { text: 'The file could not be read.' })); list.hidden = false; };
+  reader.readAsText(file);
+}
+
+function renderClimateSummary() {
+  const box = $('w-climate-summary');
+  clear(box);
+  const c = state.scenario.winter.climate;
+  if (c.kind !== 'daily') { winter.summary = null; return; }
+  const days = c.days || [];
+  if (!days.length) { box.append(el('p', { class: 'hint', text: 'No records yet: read a CSV file.' })); return; }
+  let s = winter.summary;
+  if (!s || s.first_date !== days[0].date || s.days !== days.length) {
+    const r = core.W.summarise_days(days, Number($('imp-month').value));
+    s = winter.summary = r && r.ok ? r.summary : null;
+    if (!s) { box.append(el('p', { class: 'msg error', text: (r && r.errors && r.errors.map((e) => e.message).join('; ')) || 'The records could not be summarised.' })); return; }
+  }
+  box.append(el('p', { id: 'w-record-span', text: (s.file ? s.file + ': ' : '') + s.days + ' days, ' + s.first_date + ' to ' + s.last_date + (s.has_snow ? ', with snow depths' : ', no snow depths') + (s.filled_days ? '; ' + s.filled_days + ' missing days filled in' : '') + '.' }));
+  const t = el('table', { class: 'data', id: 'w-winters' });
+  t.append(el('caption', { class: 'sr-only', text: 'Freezing index of each winter in the record' }));
+  t.append(el('thead', null, el('tr', null, el('th', { text: 'Winter' }), headCell('Freezing index', 'degree_days'), el('th', { text: 'Complete' }))));
+  const tb = el('tbody');
+  for (const x of s.winters) {
+    tb.append(el('tr', null, el('td', { text: x.start.slice(0, 4) + '–' + x.end.slice(0, 4) }), el('td', { class: 'num', text: fmt('degree_days', x.freezing_index_c_days) }), el('td', { text: x.complete ? 'yes' : 'part (' + x.days_present + ' days)' })));
+  }
+  t.append(tb);
+  box.append(el('div', { class: 'table-wrap' }, t));
+  const d = el('p', { id: 'w-design' });
+  if (s.design) {
+    d.append(el('strong', { text: 'Design freezing index: ' }), 'mean of the three coldest winters ' + fmtU('degree_days', s.design.mean_of_three_coldest_c_days) + '; the coldest winter ' + fmtU('degree_days', s.design.coldest_c_days) + ' (of ' + s.design.complete_winters + ' complete winters).');
+    for (const wmsg of s.design.warnings) d.append(el('span', { class: 'msg warning block', text: ' ' + wmsg }));
+    const useBtn = el('button', { type: 'button', class: 'btn small', id: 'w-use-design', text: 'Build a design winter from the mean of the three coldest' });
+    useBtn.addEventListener('click', () => {
+      const w = state.scenario.winter;
+      (winter.past.climate = winter.past.climate || {}).daily = w.climate;
+      const mean = days.reduce((a, x) => a + x.mean_air_c, 0) / days.length;
+      w.climate = { kind: 'design-winter', freezing_index_c_days: Math.round(s.design.mean_of_three_coldest_c_days), season_days: 150, mean_annual_c: Math.round(mean * 10) / 10 };
+      renderWinter(); flow.run();
+    });
+    box.append(d, useBtn);
+  } else {
+    d.append(el('span', { class: 'hint', text: 'No design values: ' + (s.design_note || 'too few complete winters') + '.' }));
+    box.append(d);
+  }
+}
+
+// ---------- report ----------
+const winterDay = (day) => dayWords(day, state.scenario.winter.climate);
+
+function layerAt(depth, rep) {
+  const f = rep.layer_faces_m;
+  for (let i = 0; i + 1 < f.length; i++) if (depth <= f[i + 1] + 1e-9) return i;
+  return f.length - 2;
+}
+
+function renderWinterReport() {
+  const rep = winterRun.report;
+  if (!rep) return;
+  const mf = rep.max_frost_depth_m;
+  $('w-max-frost').textContent = mf > 0 ? fmtU('depth', mf) : 'None';
+  if (mf > 0) {
+    const i = layerAt(mf, rep);
+    $('w-max-frost-when').textContent = 'On ' + winterDay(rep.max_frost_day) + ', in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ').';
+  } else {
+    $('w-max-frost-when').textContent = 'The ground does not freeze in this run.';
+  }
+  $('w-air-fi').textContent = fmtU('degree_days', rep.air_freezing_index_c_days);
+  $('w-surf-fi').textContent = fmtU('degree_days', rep.surface_freezing_index_c_days);
+  const ratio = rep.air_freezing_index_c_days > 0 ? rep.surface_freezing_index_c_days / rep.air_freezing_index_c_days : null;
+  $('w-air-fi-sub').textContent = 'Range of the cumulative degree-day curve of the air.';
+  $('w-surf-fi-sub').textContent = ratio != null ? 'At the ground surface: ' + fmtNum(ratio, 2) + ' × the air index.' : '';
+  $('w-solver').textContent = rep.cells + ' cells, ' + rep.steps + ' steps, ' + fmtNum(rep.iterations_per_step, 2) + ' passes per step' +
+    (rep.split_steps ? ', ' + rep.split_steps + ' steps split' : '') + (rep.spin_up_years ? ', ' + rep.spin_up_years + ' years to settle' : '') +
+    '; energy balance closes to ' + rep.energy_imbalance_relative.toExponential(1) + ' of the heat through the faces.';
+  const hb = $('w-hand').querySelector('tbody');
+  clear(hb);
+  for (const h of rep.hand_methods || []) {
+    hb.append(el('tr', { 'data-method': h.method },
+      el('th', { scope: 'row', text: h.name }),
+      el('td', { class: 'num', text: h.depth_m != null ? fmtU('depth', h.depth_m) : 'does not apply' }),
+      el('td', { text: h.note })));
+  }
+  $('w-hand').hidden = !hb.firstChild;
+  const wl = $('w-warnings');
+  clear(wl);
+  for (const w of rep.warnings || []) wl.append(el('li', { text: describeWinterPath(w.field) + ': ' + w.message }));
+  wl.hidden = !wl.firstChild;
+  const days = rep.daily.length ? rep.daily[rep.daily.length - 1].day : 0;
+  const slider = $('w-day');
+  slider.max = String(Math.max(0, Math.floor(days)));
+  if (winter.day == null || winter.day > days) winter.day = Math.min(Math.round(rep.max_frost_day), Math.floor(days));
+  slider.value = String(winter.day);
+  $('w-day-out').textContent = winterDay(winter.day);
+  $('w-csv').disabled = false;
+  $('w-profiles-csv').disabled = false;
+}
+
+// ---------- charts ----------
+const winterChart = (id, draw) => jobChart(id, winterRun.job, draw);
+
+function drawDayChart() {
+  const job = winterRun.job;
+  if (!job || typeof job.draw_day_profile !== 'function') return;
+  winterChart('day-chart', (c, dpr) => job.draw_day_profile(c, winter.day || 0, state.units, dpr));
+}
+
+function drawWinter() {
+  const job = winterRun.job;
+  if (!job) return;
+  winterChart('frost-chart', (c, dpr) => job.draw_frost_depth(c, state.units, dpr));
+  drawDayChart();
+  if (typeof job.draw_series === 'function') winterChart('series-chart', (c, dpr) => job.draw_series(c, state.units, dpr));
+}
+
+function setUp() {
+  $('w-design-go').addEventListener('click', search.start);
+  $('imp-file').addEventListener('change', importCsv);
+  $('imp-month').addEventListener('change', () => { winter.summary = null; if (state.scenario.winter) renderClimateSummary(); });
+  $('w-day').addEventListener('input', (e) => {
+    winter.day = Number(e.target.value);
+    $('w-day-out').textContent = winterDay(winter.day);
+    drawDayChart();
+  });
+  $('w-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.csv(state.units), fileStem('winter') + '-daily.csv'); });
+  $('w-profiles-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.profiles_csv(state.units), fileStem('winter') + '-profiles.csv'); });
+}
+
+export const winterSection = section({
+  key: 'winter',
+  firstField: 'winter.climate.kind',
+  byHand: false,
+  needsStack: true,
+  inView: false,
+  fresh: defaultWinter,
+  setUp,
+  render: renderWinter,
+  owners: winterOwners,
+  edited: () => search.stale(),
+  run: (blocked) => winterRun.schedule(blocked),
+  showUnits() {
+    if (winterRun.report) { renderWinterReport(); drawWinter(); }
+  },
+  draw: drawWinter,
+  drop: () => winterRun.drop(),
+  adopt() {
+    winterRun.drop();
+    winter.day = null;
+    winter.past = {};
+    winter.summary = null;
+    winter.design = null;
+    search.reset();
+    $('w-csv').disabled = true;
+    $('w-profiles-csv').disabled = true;
+  },
+});
