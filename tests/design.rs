@@ -294,7 +294,7 @@ fn a_winter_section_asks_for_the_search_and_the_report_carries_it() {
     // The board's R at the answer: the steady report's layer R scaled to the thickness
     // found (a board's k is constant, so R is proportional to thickness; the derating the
     // steady part applies is the one the run uses).
-    let steady = compute::report(&s, &steady::compute(&s).unwrap());
+    let steady = compute::report(&s, &steady::compute(&s).unwrap().into());
     let layer = &steady.layers[1];
     let r = d
         .r_value_m2k_w

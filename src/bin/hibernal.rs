@@ -417,11 +417,15 @@ mod cli {
                     }
                 }
                 if let Some(out) = svg {
-                    let chart =
-                        match hibernal::charts::profile::profile_svg(&computed, sys, 900, 640) {
-                            Ok(s) => s,
-                            Err(e) => return fail(e),
-                        };
+                    let chart = match hibernal::charts::profile::profile_svg(
+                        &computed.steady,
+                        sys,
+                        900,
+                        640,
+                    ) {
+                        Ok(s) => s,
+                        Err(e) => return fail(e),
+                    };
                     if let Err(e) = std::fs::write(&out, chart) {
                         return fail(format!("cannot write {}: {e}", out.display()));
                     }

@@ -3,7 +3,7 @@
 use super::frame::{
     chart_scale, draw_legend, err, svg_document, ChartError, BAND, INK, PROFILE, ZERO,
 };
-use crate::document::compute::Computed;
+use crate::document::steady::Steady;
 use crate::physics::materials::Family;
 use crate::physics::units::{quantity, UnitSystem};
 use plotters::coord::Shift;
@@ -29,7 +29,7 @@ fn layer_fill(f: Family) -> RGBColor {
 /// widths (the page passes its device pixel ratio).
 pub fn draw_profile<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
-    c: &Computed,
+    c: &Steady,
     sys: UnitSystem,
     scale: f64,
 ) -> Result<(), ChartError> {
@@ -251,7 +251,7 @@ pub fn draw_profile<DB: DrawingBackend>(
 
 /// The profile chart as an SVG document.
 pub fn profile_svg(
-    c: &Computed,
+    c: &Steady,
     sys: UnitSystem,
     width: u32,
     height: u32,

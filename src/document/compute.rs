@@ -1,11 +1,10 @@
 use super::scenario::{Scenario, FORMAT_VERSION};
 use super::steady::{
-    compute, BandDoc, BandMemberDoc, FaceDoc, LayerReport, PropertiesDoc, ZeroPlaneDoc,
+    compute, BandDoc, BandMemberDoc, FaceDoc, LayerReport, PropertiesDoc, Steady, ZeroPlaneDoc,
 };
 use super::vocabulary::ErrorDoc;
 use crate::physics::error::InputErrors;
 use crate::physics::steady;
-use crate::physics::steady::{SnowBand, SteadyResult};
 use serde::Serialize;
 
 /// The report of one steady run (SI).
@@ -44,12 +43,11 @@ pub struct Report {
     pub warnings: Vec<ErrorDoc>,
 }
 
-/// The core results a report and a chart are made from.
+/// The results a report and the charts are made from: the steady solve and the sections'
+/// reports.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Computed {
-    pub result: SteadyResult,
-    pub band: Option<SnowBand>,
-    pub depths_m: Vec<f64>,
+    pub steady: Steady,
     /// Filled by [`compute_with_winter`] and [`compute_all`] only.
     pub winter: Option<crate::document::winter::WinterReport>,
     /// Filled by [`compute_all`] only.
@@ -58,15 +56,28 @@ pub struct Computed {
     pub edge: Option<crate::document::edge::EdgeReport>,
 }
 
-/// [`compute`], plus the winter run when the scenario has a winter section.
+impl From<Steady> for Computed {
+    /// The steady solve alone, no section run.
+    fn from(steady: Steady) -> Self {
+        Computed {
+            steady,
+            winter: None,
+            shelter: None,
+            edge: None,
+        }
+    }
+}
+
+/// The steady solve ([`compute`]), plus the winter run when the scenario has a winter
+/// section.
 pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
-    let mut c = compute(s)?;
+    let mut c = Computed::from(compute(s)?);
     if let Some(w) = &s.winter {
-        let mut report = crate::document::winter::run_winter(w, &c.result.stack, &s.layers)?;
+        let mut report = crate::document::winter::run_winter(w, &c.steady.result.stack, &s.layers)?;
         if w.least_thickness.is_some() {
             report.least_thickness = Some(crate::document::winter_least::run_design(
                 w,
-                &c.result.stack,
+                &c.steady.result.stack,
                 &s.layers,
             )?);
         }
@@ -111,7 +122,7 @@ pub fn compute_all(s: &Scenario) -> Result<Computed, InputErrors> {
 
 /// Build the report of a computed scenario.
 pub fn report(s: &Scenario, c: &Computed) -> Report {
-    let r = &c.result;
+    let r = &c.steady.result;
     let face = |f: &steady::FaceResult| FaceDoc {
         air_c: f.air_c,
         surface_c: f.surface_c,
@@ -143,7 +154,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             },
         })
         .collect();
-    let band = c.band.as_ref().map(|b| {
+    let band = c.steady.band.as_ref().map(|b| {
         let (r_min, r_max) = b.r_total_range();
         let (q_min, q_max) = b.flux_range();
         let z = b.zero_depth_range();
@@ -202,7 +213,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             })
             .collect(),
         profile: r
-            .profile_at(&c.depths_m)
+            .profile_at(&c.steady.depths_m)
             .into_iter()
             .map(|(z, t)| [z, t])
             .collect(),

@@ -7,7 +7,6 @@
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
 use crate::document::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
 use crate::document::winter::{HandMethodRow, InitialDoc, WinterDoc, WinterJob, WinterReport};
-use crate::physics::analytic;
 use crate::physics::climate::Climate;
 use crate::physics::edge2d::least::{EdgeDesignReport, EdgeQuantity, EdgeTrial};
 use crate::physics::edge2d::{
@@ -15,10 +14,10 @@ use crate::physics::edge2d::{
     Outside, Region, Slab, SoilBand, StartTemperature, WallBoard, Wing,
 };
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::hand;
 use crate::physics::materials::{Material, MaterialSpec};
 use crate::physics::stack::{Boundary, Layer, Stack};
 use crate::physics::transient::run::Progress;
-use crate::physics::transient::setup::Forcing;
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
 
@@ -574,28 +573,12 @@ impl EdgeDoc {
             Outside::Film {
                 film_w_m2k,
                 snow_correlation,
-            } => {
-                let days = (duration_s / DAY).ceil() as usize;
-                let (mut sum, mut n) = (0.0, 0usize);
-                for d in 0..days {
-                    let t = (d as f64 + 0.5) * DAY;
-                    if climate.air_c(t) < 0.0 {
-                        let snow = climate
-                            .snow(t)
-                            .filter(|&(z, rho)| z > 0.0 && rho > 0.0)
-                            .map_or(0.0, |(z, rho)| {
-                                z / snow_correlation.conductivity_w_per_m_k(rho)
-                            });
-                        sum += 1.0 / film_w_m2k + snow;
-                        n += 1;
-                    }
-                }
-                Some(if n > 0 {
-                    sum / n as f64
-                } else {
-                    1.0 / film_w_m2k
-                })
-            }
+            } => Some(hand::film_and_snow_resistance(
+                film_w_m2k,
+                snow_correlation,
+                &climate,
+                duration_s,
+            )),
             Outside::NFactor { .. } => None,
         };
         Ok(Prepared {
@@ -646,13 +629,6 @@ impl EdgeJob {
             warnings: p.warnings,
             surface_resistance_m2k_w: p.surface_resistance_m2k_w,
         })
-    }
-
-    /// The edge job of a scenario, if it has an edge section.
-    pub fn of_scenario(
-        s: &crate::document::scenario::Scenario,
-    ) -> Option<Result<EdgeJob, InputErrors>> {
-        s.edge.as_ref().map(EdgeJob::new)
     }
 
     /// The section as the 2D run takes it (materials resolved, boards derated).
@@ -995,23 +971,14 @@ fn hand_rows(
                 rows.push(r);
             }
             "stefan-resistance" => {
-                let first = s
-                    .soil
-                    .iter()
-                    .find(|b| b.material.freezes && b.material.latent_j_per_m3 > 0.0);
+                let first = s.soil.iter().find(|b| hand::freezes(&b.material));
                 match (surface_resistance_m2k_w, first) {
                     (Some(rs), Some(b)) => {
-                        let kf = b.material.conductivity.frozen.k(-1.0);
                         let fa = column.air_freezing_index_c_days * DAY;
                         rows.push(HandMethodRow {
                             method: "stefan-resistance",
                             name: "Stefan's law under the film and snow",
-                            depth_m: Some(analytic::stefan_depth_with_resistance_m(
-                                kf,
-                                b.material.latent_j_per_m3,
-                                fa,
-                                rs,
-                            )),
+                            depth_m: Some(hand::stefan_under_resistance_m(&b.material, fa, rs)),
                             note: format!(
                                 "air freezing index, film and snow as {rs:.2} m²K/W (mean over \
                                  the freezing days); ignores sensible heat and the building"

@@ -1,8 +1,7 @@
-use super::compute::Computed;
 use super::scenario::Scenario;
 use super::vocabulary::ErrorDoc;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
-use crate::physics::steady;
+use crate::physics::steady::{self, SnowBand, SteadyResult};
 use serde::Serialize;
 
 /// Points per layer in the reported profile.
@@ -70,8 +69,18 @@ pub struct BandDoc {
     pub envelope: Vec<[f64; 3]>,
 }
 
+/// The steady solve of a scenario's stack: what its report and its chart are made from.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Steady {
+    pub result: SteadyResult,
+    /// The same stack with every snow regression, when it has snow.
+    pub band: Option<SnowBand>,
+    /// The depths the profile is reported at.
+    pub depths_m: Vec<f64>,
+}
+
 /// Solve a scenario: the steady result and the band across snow regressions.
-pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
+pub fn compute(s: &Scenario) -> Result<Steady, InputErrors> {
     let stack = s.stack();
     let result = steady::solve(&stack).map_err(|e| match e {
         steady::SolveError::Input(errs) => errs,
@@ -79,20 +88,17 @@ pub fn compute(s: &Scenario) -> Result<Computed, InputErrors> {
     })?;
     let depths_m = result.profile_depths(PROFILE_POINTS_PER_LAYER);
     let band = steady::snow_band(&stack, &depths_m);
-    Ok(Computed {
+    Ok(Steady {
         result,
         band,
         depths_m,
-        winter: None,
-        shelter: None,
-        edge: None,
     })
 }
 
 /// The steady temperature profile as CSV (the points the profile chart draws): depth below
 /// the top face and temperature, with the band across snow regressions (lowest, highest)
 /// where the stack has snow; units in the header, in the system chosen.
-pub fn profile_csv(c: &Computed, sys: crate::physics::units::UnitSystem) -> String {
+pub fn profile_csv(c: &Steady, sys: crate::physics::units::UnitSystem) -> String {
     use crate::physics::units::quantity;
     let (Some(tq), Some(zq)) = (quantity("temperature"), quantity("depth")) else {
         return String::new();

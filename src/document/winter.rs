@@ -3,9 +3,9 @@
 
 use super::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
-use crate::physics::analytic;
 use crate::physics::climate::{AnnualWave, Climate, DailySeries, DayRecord, SnowSeason};
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
+use crate::physics::hand::{self, BerggrenNotApplicable};
 use crate::physics::least::{FrostLimit, Search, Trial};
 use crate::physics::materials::Material;
 use crate::physics::stack::ResolvedStack;
@@ -416,20 +416,9 @@ pub struct HandMethodRow {
     pub note: String,
 }
 
-/// The hand methods (models.md §4) on the winter run's own case, so that users see how
+/// The hand methods of [`hand`] on the winter run's own case, so that users see how
 /// conservative each is. All take the run's ground-surface freezing index (under the snow
 /// when there is snow) as the surface index nF, and the layers from the top face down.
-///
-/// - **Stefan** (Stefan's law, X = √(2 k_f nF / L), for the first layer that freezes, taken
-///   to start at the surface): ignores sensible heat and everything above that layer.
-/// - **Stefan with the resistance above** ([`analytic::stefan_depth_with_resistance_m`]):
-///   the layers above the first freezing one (slab, board) as a resistance that stores no
-///   heat; frost depth counted from the top face.
-/// - **Modified Berggren** ([`analytic::modified_berggren_layered`], TM 5-852-6 /
-///   UFC 3-130-04): every layer, with k and C the means of frozen and unfrozen (TM 5-852-6,
-///   from memory); mean annual temperature v₀ = the mean ground-surface temperature over
-///   the run when it lasts a year or more, else the climate's annual mean; freezing season
-///   = the days with the daily ground surface below 0 °C. Not applicable when v₀ < 0 °C.
 fn hand_methods(
     r: &RunResult,
     layers: &[(f64, Material)],
@@ -437,42 +426,20 @@ fn hand_methods(
 ) -> Vec<HandMethodRow> {
     let fs = r.surface_freezing_index_c_days * 86_400.0;
     let mut rows = Vec::new();
-    let first = layers
-        .iter()
-        .position(|(_, m)| m.freezes && m.latent_j_per_m3 > 0.0);
-    let above: f64 = first.map_or(0.0, |i| {
-        layers[..i].iter().map(|(d, _)| d).sum::<f64>() + 0.0
-    });
-    let r_above: f64 = first.map_or(0.0, |i| {
-        layers[..i]
-            .iter()
-            .map(|(d, m)| {
-                d / (0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0)))
-            })
-            .sum()
-    });
-    match first {
-        Some(i) => {
-            let m = &layers[i].1;
-            let kf = m.conductivity.frozen.k(-1.0);
+    match hand::first_freezing(layers) {
+        Some(first) => {
+            let m = &layers[first.index].1;
+            let (above, r_above) = (first.above_m, first.r_above_m2k_w);
             rows.push(HandMethodRow {
                 method: "stefan",
                 name: "Stefan's law",
-                depth_m: Some(analytic::stefan_depth_m(kf, m.latent_j_per_m3, fs)),
+                depth_m: Some(hand::stefan_m(m, fs)),
                 note: format!("{} alone from the surface, latent heat only", m.label),
             });
             rows.push(HandMethodRow {
                 method: "stefan-resistance",
                 name: "Stefan's law under the layers above",
-                depth_m: Some(
-                    above
-                        + analytic::stefan_depth_with_resistance_m(
-                            kf,
-                            m.latent_j_per_m3,
-                            fs,
-                            r_above,
-                        ),
-                ),
+                depth_m: Some(above + hand::stefan_under_resistance_m(m, fs, r_above)),
                 note: if above > 0.0 {
                     format!("the {above:.3} m above it as a resistance of {r_above:.2} m²K/W")
                 } else {
@@ -487,42 +454,11 @@ fn hand_methods(
             note: "no layer holds water that freezes".into(),
         }),
     }
-    // Time below 0 °C at the ground surface, and its time-mean temperature.
-    let (mut below_s, mut sum, mut total) = (0.0, 0.0, 0.0);
-    for w in r.samples.windows(2) {
-        let dt = w[1].time_s - w[0].time_s;
-        if w[1].surface_c < 0.0 {
-            below_s += dt;
-        }
-        sum += w[1].surface_c * dt;
-        total += dt;
-    }
-    let days_below = below_s / 86_400.0;
-    let v0 = if total >= 364.0 * 86_400.0 {
-        sum / total
-    } else {
-        climate_mean_c
-    };
-    let bl: Vec<analytic::BerggrenLayer> = layers
-        .iter()
-        .map(|(d, m)| analytic::BerggrenLayer {
-            thickness_m: *d,
-            k_w_m_k: 0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0)),
-            latent_j_m3: if m.freezes { m.latent_j_per_m3 } else { 0.0 },
-            c_j_m3k: 0.5 * (m.c_frozen_j_per_m3_k + m.c_unfrozen_j_per_m3_k),
-        })
-        .collect();
-    let berggren = if fs <= 0.0 || days_below < 1.0 {
-        Err("the ground surface does not freeze".to_string())
-    } else if v0 < 0.0 {
-        Err(format!(
-            "mean annual temperature {v0:.1} °C is below 0 °C (permafrost: outside the method)"
-        ))
-    } else {
-        analytic::modified_berggren_layered(&bl, 1.0, fs, v0, days_below * 86_400.0)
-            .map_err(|e| e.to_string())
-    };
-    rows.push(match berggren {
+    let surface: Vec<(f64, f64)> = r.samples.iter().map(|s| (s.time_s, s.surface_c)).collect();
+    let season = hand::SurfaceSeason::of(&surface);
+    let days_below = season.days_below;
+    let v0 = season.mean_annual_c(climate_mean_c);
+    rows.push(match hand::berggren_m(layers, fs, v0, days_below) {
         Ok(b) => HandMethodRow {
             method: "berggren",
             name: "Modified Berggren",
@@ -536,7 +472,16 @@ fn hand_methods(
             method: "berggren",
             name: "Modified Berggren",
             depth_m: None,
-            note: why,
+            note: match why {
+                BerggrenNotApplicable::SurfaceDoesNotFreeze => {
+                    "the ground surface does not freeze".to_string()
+                }
+                BerggrenNotApplicable::Permafrost { mean_annual_c } => format!(
+                    "mean annual temperature {mean_annual_c:.1} °C is below 0 °C (permafrost: \
+                     outside the method)"
+                ),
+                BerggrenNotApplicable::Refused(why) => why,
+            },
         },
     });
     rows.push(HandMethodRow {

@@ -10,6 +10,7 @@ pub mod analytic;
 pub mod climate;
 pub mod edge2d;
 pub mod error;
+pub mod hand;
 pub mod least;
 pub mod materials;
 pub mod ranges;

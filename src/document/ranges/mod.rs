@@ -26,7 +26,6 @@ pub mod csv;
 pub mod plan;
 pub mod report;
 
-use crate::document::scenario::Scenario;
 use crate::physics::ranges::Distribution;
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
@@ -116,15 +115,6 @@ impl RangeResult {
             RangeResult::FrostDepth | RangeResult::FrostBelowFooting => "depth",
             RangeResult::ShelterInterior => "temperature",
             RangeResult::ShelterMelt => "mass_rate",
-        }
-    }
-    /// Whether the scenario has the part this result comes from.
-    pub fn available(self, s: &Scenario) -> bool {
-        match self {
-            RangeResult::RValue => !s.layers.is_empty(),
-            RangeResult::FrostDepth => s.winter.is_some(),
-            RangeResult::FrostBelowFooting => s.edge.is_some(),
-            RangeResult::ShelterInterior | RangeResult::ShelterMelt => s.shelter.is_some(),
         }
     }
 

@@ -70,11 +70,11 @@ impl RangesPlan {
         let results: Vec<RangeResult> = if doc.results.is_empty() {
             RangeResult::ALL
                 .into_iter()
-                .filter(|r| r.available(&base))
+                .filter(|r| available(*r, &base))
                 .collect()
         } else {
             for (i, r) in doc.results.iter().enumerate() {
-                if !r.available(&base) {
+                if !available(*r, &base) {
                     errs.push(
                         format!("ranges.results[{i}]"),
                         InputErrorKind::NotCovered(format!(
@@ -452,7 +452,7 @@ pub fn evaluate(s: &Scenario, r: RangeResult) -> Result<f64, String> {
 /// serves the R-value and the winter; the shelter's two results come from one shelter run).
 pub fn evaluate_all(s: &Scenario, results: &[RangeResult]) -> Vec<Result<f64, String>> {
     let msg = |e: InputErrors| e.to_string();
-    let mut steady: Option<Result<crate::document::compute::Computed, String>> = None;
+    let mut steady: Option<Result<crate::document::steady::Steady, String>> = None;
     let mut shelter: Option<Result<crate::document::shelter::ShelterReport, String>> = None;
     results
         .iter()
@@ -540,4 +540,14 @@ pub fn run_plan(plan: &RangesPlan, threads: usize) -> Result<RangesReport, Input
 /// Check and run a scenario's ranges section (threads as in [`run_plan`]).
 pub fn run_ranges(s: &Scenario, threads: usize) -> Result<RangesReport, InputErrors> {
     run_plan(&RangesPlan::new(s)?, threads)
+}
+
+/// Whether the scenario has the part a result comes from.
+fn available(r: RangeResult, s: &Scenario) -> bool {
+    match r {
+        RangeResult::RValue => !s.layers.is_empty(),
+        RangeResult::FrostDepth => s.winter.is_some(),
+        RangeResult::FrostBelowFooting => s.edge.is_some(),
+        RangeResult::ShelterInterior | RangeResult::ShelterMelt => s.shelter.is_some(),
+    }
 }

@@ -2,9 +2,10 @@
 //! a heated slab-on-grade house with a shallow footing, on silt over sand, in a cold
 //! climate (freezing index 1500 °C·days). No real site, product or building.
 
-use super::{
-    AxisSpacing, Board, EdgeSection, FoundationWall, Inside, Outside, Slab, SoilBand,
-    StartTemperature, WallBoard, Wing,
+use super::axis::AxisSpacing;
+use super::section::{
+    Board, EdgeSection, FoundationWall, Inside, Outside, Slab, SoilBand, StartTemperature,
+    WallBoard, Wing,
 };
 use crate::physics::climate::Climate;
 use crate::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};

@@ -1,6 +1,6 @@
 //! Inverse design at the edge: the least wing width, wing or wall-board R-value, or footing
 //! depth for which frost stays at or above the footing's base through the winter, each trial
-//! a whole 2D run of the section ([`super::EdgeRun`]).
+//! a whole 2D run of the section ([`super::run::EdgeRun`]).
 //!
 //! The search is the 1D one ([`crate::physics::least::Searcher`]: Illinois regula falsi on a
 //! bracket with a bisection safeguard), fed with 2D runs: a trial's excess is the frost below
@@ -26,7 +26,8 @@
 //! of their R-value to moisture, frost heave is not modelled, and frost-protected shallow
 //! foundations must follow the governing standard, local codes and a licensed engineer.
 
-use super::{EdgeError, EdgeResult, EdgeRun, EdgeSection};
+use super::run::{EdgeError, EdgeResult, EdgeRun};
+use super::section::EdgeSection;
 use crate::physics::climate::Climate;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
 use crate::physics::least::{DesignAnswer, Search, Searcher, Trial};

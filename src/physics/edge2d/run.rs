@@ -1,9 +1,8 @@
 //! A run of an edge section under a forcing, a slice at a time, and what it reports: frost
 //! under the footing and in the far field, heat lost through the slab, and the fields.
 
-use super::{
-    EdgeSection, Inside, Layout, Outside, PlaneError, Region, TopFace, TOP_INSIDE, TOP_OUTSIDE,
-};
+use super::plane::{PlaneError, TopFace};
+use super::section::{EdgeSection, Inside, Layout, Outside, Region, TOP_INSIDE, TOP_OUTSIDE};
 use crate::physics::error::InputErrors;
 use crate::physics::transient::run::Progress;
 use crate::physics::transient::setup::Forcing;
@@ -115,7 +114,7 @@ impl EdgeRun {
     }
 
     /// Change the solver's iteration settings (before or between slices).
-    pub fn set_tolerances(&mut self, t: super::PlaneTolerances) {
+    pub fn set_tolerances(&mut self, t: super::plane::PlaneTolerances) {
         self.layout.plane.tolerances = t;
     }
 

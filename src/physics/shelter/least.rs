@@ -2,14 +2,14 @@
 //! temperature, and data series for charts.
 //!
 //! The interior temperature rises with the main thickness (see
-//! [`super::Shape::main_thickness_m`]): a thicker wall resists more, and its larger outer
+//! [`super::inputs::Shape::main_thickness_m`]): a thicker wall resists more, and its larger outer
 //! surface does not undo that once the outer radius exceeds 2k/h_o, about 2 cm for snow
 //! (the critical radius of a sphere, Incropera, from memory), below the thinnest wall
 //! accepted. Under the melt limit the interior temperature stops rising: the warm surfaces
 //! stay at 0 °C whatever the thickness. So bisection on the thickness is sound.
 
+use super::inputs::{Conditions, Shelter, ShelterError, SHELTER_FIELD};
 use super::steady::{self, SteadyResult};
-use super::{Conditions, Shelter, ShelterError, SHELTER_FIELD};
 use crate::physics::error::{InputErrorKind, InputErrors};
 
 /// Thinnest and thickest walls the search considers, m.
@@ -52,7 +52,7 @@ pub enum ThicknessAnswer {
 /// that its base (kept in proportion) stays within the accepted thicknesses.
 fn search_range(shelter: &Shelter) -> (f64, f64) {
     let (mut lo, mut hi) = SEARCH_THICKNESS_M;
-    if let super::Shape::HollowedPile {
+    if let super::inputs::Shape::HollowedPile {
         crown_thickness_m,
         base_thickness_m,
         ..

@@ -58,7 +58,7 @@
 //! Dillon 2005, J. Fire Prot. Eng. 15:265, from memory). Stove: its fuel power times the
 //! share that heats the shelter.
 
-use super::{
+use super::inputs::{
     Conditions, Entrance, Floor, Shape, Shelter, ShelterError, CONDITIONS_FIELD, SHELTER_FIELD,
 };
 use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};

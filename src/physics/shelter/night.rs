@@ -29,9 +29,9 @@
 //! The melting surface is not moved (a night's melt is millimetres); the outside stays at
 //! the conditions' temperature.
 
+use super::inputs::{Conditions, Shelter, ShelterError, NIGHT_FIELD};
 use super::model::{Geometry, Model, Sink};
 use super::steady;
-use super::{Conditions, Shelter, ShelterError, NIGHT_FIELD};
 use crate::physics::error::{check, InputErrors, Warning};
 use crate::physics::materials::ice::{AIR_SPECIFIC_HEAT_J_PER_KG_K, LATENT_HEAT_FUSION_J_PER_KG};
 use crate::physics::transient::grid::{faces, GridSpec};

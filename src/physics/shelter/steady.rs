@@ -24,8 +24,8 @@
 //! [`super::model::FUEL_CO2_M3_PER_J`]), C_o = 420 ppm (outdoor air of the 2020s, NOAA
 //! global mean, from memory). Perfect mixing assumed.
 
+use super::inputs::{Conditions, Shelter, ShelterError};
 use super::model::{Model, Part};
-use super::{Conditions, Shelter, ShelterError};
 use crate::physics::error::Warning;
 use crate::physics::materials::ice::LATENT_HEAT_FUSION_J_PER_KG;
 use crate::physics::materials::snow::SnowCorrelation;

@@ -324,7 +324,7 @@ fn read_scenario(v: JsValue) -> Result<scenario::Scenario, Vec<ErrorDoc>> {
     scenario::from_value(value).map_err(|e| e.0.iter().map(ErrorDoc::from).collect())
 }
 
-fn computed(v: JsValue) -> Result<(scenario::Scenario, compute::Computed), Vec<ErrorDoc>> {
+fn computed(v: JsValue) -> Result<(scenario::Scenario, steady::Steady), Vec<ErrorDoc>> {
     let s = read_scenario(v)?;
     let c = steady::compute(&s).map_err(|e| e.0.iter().map(ErrorDoc::from).collect::<Vec<_>>())?;
     Ok((s, c))
@@ -335,7 +335,7 @@ fn computed(v: JsValue) -> Result<(scenario::Scenario, compute::Computed), Vec<E
 pub fn compute(scenario_value: JsValue) -> JsValue {
     match computed(scenario_value) {
         Ok((s, c)) => {
-            let r = compute::report(&s, &c);
+            let r = compute::report(&s, &c.into());
             to_js(&Outcome {
                 ok: true,
                 report: Some(&r),
