@@ -1,12 +1,18 @@
 //! Hibernal: heat flow through layered snow, ice, soil and insulation.
 //!
-//! The physics core ([`materials`], [`stack`], [`steady`], [`transient`], [`analytic`], [`shelter`],
-//! [`climate`], [`design`], [`edge2d`], [`uncertainty`], [`units`]) knows nothing of the browser, of serde or of plotting. The edges
-//! are: [`scenario`] (the versioned JSON document and the report, serde), [`chart`]
-//! (plotters, generic over the drawing backend), [`climate_csv`] (daily climate records
-//! from CSV text), [`climate_import`] (that record brought into a scenario, with its
-//! winters' freezing indices and design values), the CLI in `src/bin`, and the wasm bindings in `web` (compiled for wasm32
-//! only).
+//! Three layers, each depending only on those before it:
+//!
+//! - [`physics`]: the core. Materials, the steady and transient solvers, the building edge in
+//!   2D, snow shelters, hand methods, climates, the least-value search, ranges of inputs,
+//!   units and typed errors; SI throughout, and nothing of the file format, the charts or the
+//!   browser.
+//! - [`document`]: the scenario format (versioned JSON) and what runs its sections over the
+//!   core, their reports and CSV files.
+//! - [`charts`]: every chart, written once against plotters' generic backend; they read
+//!   reports and plain data.
+//!
+//! Two faces use them: the wasm bindings in `web` (compiled for wasm32 only) and the CLI in
+//! `src/bin`. `tests/layers.rs` checks that the dependencies point this way.
 
 pub mod physics;
 

@@ -57,8 +57,8 @@ fn lunardini_soil_example_front_constant() {
     // project's model reference): front constant "about 3.6 cm/h^½", ≈ 1.36 m after 60
     // days. Published to two and three figures, so ±0.05 cm/h^½ and ±0.005 m.
     let s = lunardini_soil().solve().unwrap();
-    let beta_cm_per_sqrt_h = s.front_constant_m_per_sqrt_s() * 100.0 * 3600f64.sqrt();
-    assert_abs(beta_cm_per_sqrt_h, 3.6, 0.05, "front constant, cm/h^½");
+    let beta_cm_sqrt_h = s.front_constant_m_sqrt_s() * 100.0 * 3600f64.sqrt();
+    assert_abs(beta_cm_sqrt_h, 3.6, 0.05, "front constant, cm/h^½");
     assert_abs(
         s.front_depth_m(60.0 * DAY),
         1.36,
@@ -82,7 +82,7 @@ fn neumann_matches_scipy() {
         let s = p.solve().unwrap_or_else(|e| panic!("{name}: {e}"));
         assert_rel(s.xi, f(c, "xi"), 1e-10, &format!("{name}: ξ"));
         assert_rel(
-            s.front_constant_m_per_sqrt_s(),
+            s.front_constant_m_sqrt_s(),
             f(c, "front_constant_m_per_sqrt_s"),
             1e-10,
             &format!("{name}: front constant"),
@@ -603,7 +603,7 @@ fn lake_ice_by_stefans_law() {
     // (IAPWS, ibid.). Ashton quotes about 3.4 cm/(°C·d)^½ for the ideal case (from
     // memory), so only a loose band 3.3–3.7 on that.
     let l = 916.7 * 333.4e3;
-    let ideal = stefan_ice_coefficient_cm_per_sqrt_cday(2.2, l);
+    let ideal = stefan_ice_coefficient_cm_sqrt_cday(2.2, l);
     assert!(ideal > 3.3 && ideal < 3.7, "ideal coefficient {ideal}");
     for fdd in [10.0, 250.0, 1500.0] {
         assert_rel(

@@ -26,9 +26,9 @@ fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
         },
         freezes: latent > 0.0,
         density_kg_m3: 1800.0,
-        c_frozen_j_per_m3_k: c_f,
-        c_unfrozen_j_per_m3_k: c_u,
-        latent_j_per_m3: latent,
+        c_frozen_j_m3k: c_f,
+        c_unfrozen_j_m3k: c_u,
+        latent_j_m3: latent,
         valid_temperature_c: (-100.0, 100.0),
     }
 }
@@ -305,7 +305,7 @@ fn far_field_column_follows_the_neumann_solution() {
     };
     s.start = StartTemperature {
         surface_c: p.initial_c,
-        gradient_k_per_m: 0.0,
+        gradient_k_m: 0.0,
     };
     s.duration_s = 60.0 * DAY;
     let air = Constant(p.surface_c);

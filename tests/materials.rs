@@ -6,13 +6,13 @@ use common::*;
 use hibernal::physics::error::Warning;
 use hibernal::physics::materials::ice::*;
 use hibernal::physics::materials::soil::{self, SoilInput, SoilModel, Texture};
-use hibernal::physics::materials::{Board, Branch, ConductivityLaw, MaterialSpec, SnowCorrelation};
+use hibernal::physics::materials::{Board, Branch, ConductivityLaw, MaterialSpec, SnowRegression};
 
 #[test]
 fn sturm_quadratic_matches_the_published_check_value() {
     // Sturm et al. 1997 (J. Glaciol. 43:26–41), abstract: 0.126 W/m/K at 0.30 g/cm³,
     // given to three decimals, so ±0.0005.
-    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let k = SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(300.0);
     assert_abs(k, 0.126, 0.0005, "Sturm 1997 quadratic at 300 kg/m³");
 }
 
@@ -24,19 +24,19 @@ fn every_snow_regression_matches_its_formula_at_several_densities() {
     assert_eq!(rows.len(), 27, "9 regressions × 3 densities");
     for row in rows {
         let id = row["id"].as_str().unwrap();
-        let c = SnowCorrelation::from_id(id).unwrap_or_else(|| panic!("no regression {id}"));
+        let c = SnowRegression::from_id(id).unwrap_or_else(|| panic!("no regression {id}"));
         let rho = f(row, "density_kg_m3");
         assert_rel(
-            c.conductivity_w_per_m_k(rho),
+            c.conductivity_w_m_k(rho),
             f(row, "k_w_m_k"),
             1e-12,
             &format!("{id} at {rho} kg/m³"),
         );
     }
     // The spread the model reference warns of: about ×2 between regressions at one density.
-    let ks: Vec<f64> = SnowCorrelation::ALL
+    let ks: Vec<f64> = SnowRegression::ALL
         .iter()
-        .map(|c| c.conductivity_w_per_m_k(300.0))
+        .map(|c| c.conductivity_w_m_k(300.0))
         .collect();
     let (lo, hi) = ks
         .iter()
@@ -46,8 +46,8 @@ fn every_snow_regression_matches_its_formula_at_several_densities() {
 
 #[test]
 fn snow_regressions_have_distinct_ids_names_and_ranges() {
-    for c in SnowCorrelation::ALL {
-        assert_eq!(SnowCorrelation::from_id(c.id()), Some(c));
+    for c in SnowRegression::ALL {
+        assert_eq!(SnowRegression::from_id(c.id()), Some(c));
         let (lo, hi) = c.valid_range_kg_m3();
         assert!(lo < hi && lo > 0.0 && hi <= ICE_DENSITY_0C_KG_M3);
         assert!(c.name().contains(char::is_numeric), "name carries a year");
@@ -59,7 +59,7 @@ fn snow_outside_its_range_warns_but_computes() {
     let mut w: Vec<Warning> = Vec::new();
     let m = MaterialSpec::Snow {
         density_kg_m3: 100.0,
-        correlation: SnowCorrelation::Sturm1997Quadratic,
+        regression: SnowRegression::Sturm1997Quadratic,
     }
     .resolve("layers[0].material", &mut w)
     .unwrap();
@@ -79,7 +79,7 @@ fn snow_denser_than_ice_is_refused_naming_the_field() {
     let mut w = Vec::new();
     let e = MaterialSpec::Snow {
         density_kg_m3: 950.0,
-        correlation: SnowCorrelation::Calonne2011,
+        regression: SnowRegression::Calonne2011,
     }
     .resolve("layers[3].material", &mut w)
     .unwrap_err();
@@ -90,14 +90,9 @@ fn snow_denser_than_ice_is_refused_naming_the_field() {
 #[test]
 fn ice_conductivity_matches_the_model_reference() {
     // k = 9.828 exp(−0.0057 T) (model reference §2, from memory): 2.07 at 0 °C, 2.19 at −10 °C.
+    assert_abs(ice_conductivity_w_m_k(0.0), 2.07, 0.005, "ice k at 0 °C");
     assert_abs(
-        ice_conductivity_w_per_m_k(0.0),
-        2.07,
-        0.005,
-        "ice k at 0 °C",
-    );
-    assert_abs(
-        ice_conductivity_w_per_m_k(-10.0),
+        ice_conductivity_w_m_k(-10.0),
         2.19,
         0.005,
         "ice k at −10 °C",
@@ -111,7 +106,7 @@ fn ice_heat_capacity_and_density_match_iapws() {
     for row in reference()["ice"].as_array().unwrap() {
         let t = f(row, "t_c");
         assert_rel(
-            ice_specific_heat_j_per_kg_k(t),
+            ice_specific_heat_j_kg_k(t),
             f(row, "cp_j_kg_k"),
             5e-3,
             &format!("ice cp at {t} °C"),
@@ -209,8 +204,8 @@ fn check_soil_rows(key: &str, model: SoilModel) {
             q,
         );
         let what = format!("{key} {row}");
-        assert_rel(p.k_frozen_w_per_m_k, f(row, "k_frozen"), 1e-12, &what);
-        assert_rel(p.k_unfrozen_w_per_m_k, f(row, "k_unfrozen"), 1e-12, &what);
+        assert_rel(p.k_frozen_w_m_k, f(row, "k_frozen"), 1e-12, &what);
+        assert_rel(p.k_unfrozen_w_m_k, f(row, "k_unfrozen"), 1e-12, &what);
     }
 }
 
@@ -236,7 +231,7 @@ fn johansen_limits_are_the_dry_and_saturated_conductivities() {
     let rho = 1700.0;
     let dry = soil_props(Texture::Sand, SoilModel::Johansen1975, rho, 0.0, 0.5);
     assert_rel(
-        dry.k_unfrozen_w_per_m_k,
+        dry.k_unfrozen_w_m_k,
         soil::johansen_k_dry(rho),
         1e-12,
         "dry",
@@ -246,34 +241,34 @@ fn johansen_limits_are_the_dry_and_saturated_conductivities() {
     let n = 1.0 - rho / 2650.0;
     let ks = soil::johansen_k_solids(0.5);
     assert_rel(
-        sat.k_unfrozen_w_per_m_k,
+        sat.k_unfrozen_w_m_k,
         ks.powf(1.0 - n) * 0.57f64.powf(n),
         1e-9,
         "sat u",
     );
     assert_rel(
-        sat.k_frozen_w_per_m_k,
+        sat.k_frozen_w_m_k,
         ks.powf(1.0 - n) * 2.2f64.powf(n),
         1e-9,
         "sat f",
     );
     // Frozen soil conducts better than unfrozen (ice 2.2 vs water 0.57).
-    assert!(sat.k_frozen_w_per_m_k > sat.k_unfrozen_w_per_m_k);
+    assert!(sat.k_frozen_w_m_k > sat.k_unfrozen_w_m_k);
 }
 
 #[test]
 fn soil_heat_capacity_and_latent_heat_follow_the_mass_balance() {
     // TM 5-852-6 forms (model reference §3): L = ρ_d w 333.7 kJ/kg, C = ρ_d (c_s + c_w w).
     let p = soil_props(Texture::Silt, SoilModel::Kersten1949, 1600.0, 20.0, 0.3);
-    assert_rel(p.latent_j_per_m3, 1600.0 * 0.20 * 333.7e3, 1e-12, "latent");
+    assert_rel(p.latent_j_m3, 1600.0 * 0.20 * 333.7e3, 1e-12, "latent");
     assert_rel(
-        p.c_unfrozen_j_per_m3_k,
+        p.c_unfrozen_j_m3k,
         1600.0 * (712.0 + 4187.0 * 0.2),
         1e-12,
         "C_u",
     );
     assert_rel(
-        p.c_frozen_j_per_m3_k,
+        p.c_frozen_j_m3k,
         1600.0 * (712.0 + 2090.0 * 0.2),
         1e-12,
         "C_f",
@@ -345,7 +340,7 @@ fn board_derating_raises_conductivity_by_the_lost_share_of_r() {
     let mut w = Vec::new();
     let m = MaterialSpec::Insulation {
         board: Board::ExtrudedPolystyrene,
-        conductivity_w_per_m_k: None,
+        conductivity_w_m_k: None,
         moisture_derating_pct: 20.0,
     }
     .resolve("m", &mut w)
@@ -375,6 +370,6 @@ fn kirchhoff_inverse_round_trips_on_every_branch() {
     }
     // Φ' = k: a central difference of the ice transform equals k.
     let h = 1e-4;
-    let dphi = (ice_kirchhoff_w_per_m(-10.0 + h) - ice_kirchhoff_w_per_m(-10.0 - h)) / (2.0 * h);
-    assert_rel(dphi, ice_conductivity_w_per_m_k(-10.0), 1e-8, "dΦ/dT = k");
+    let dphi = (ice_kirchhoff_w_m(-10.0 + h) - ice_kirchhoff_w_m(-10.0 - h)) / (2.0 * h);
+    assert_rel(dphi, ice_conductivity_w_m_k(-10.0), 1e-8, "dΦ/dT = k");
 }

@@ -188,7 +188,7 @@ fn the_band_across_regressions_holds_every_single_regression_result() {
         assert_eq!(sp.members.len() + sp.skipped.len(), 9);
         // Each regression set by hand in the document (not through the study's own
         // setter) and the result computed by the ordinary path.
-        for c in hibernal::physics::materials::SnowCorrelation::ALL {
+        for c in hibernal::physics::materials::SnowRegression::ALL {
             let mut v = serde_json::to_value(&s).unwrap();
             for l in v["layers"].as_array_mut().unwrap() {
                 if l["material"]["kind"] == "snow" {
@@ -542,7 +542,7 @@ fn runs_past_a_limit_are_counted_from_the_runs_themselves() {
         let rep = hibernal::document::shelter::run_shelter(one.shelter.as_ref().unwrap()).unwrap();
         assert_eq!(
             r.trials[i].values,
-            vec![Some(rep.interior_c), Some(rep.melt_kg_per_h)]
+            vec![Some(rep.interior_c), Some(rep.melt_kg_h)]
         );
     }
     // The summary names the count; a result without a limit leaves it empty.

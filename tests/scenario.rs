@@ -7,8 +7,8 @@ use hibernal::document::examples;
 use hibernal::document::steady;
 
 use hibernal::document::scenario;
-use hibernal::document::vocabulary::{BoardDoc, SnowCorrelationDoc, SoilModelDoc, TextureDoc};
-use hibernal::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use hibernal::document::vocabulary::{BoardDoc, SnowRegressionDoc, SoilModelDoc, TextureDoc};
+use hibernal::physics::materials::{Board, SnowRegression, SoilModel, Texture};
 use std::process::Command;
 
 #[test]
@@ -45,16 +45,16 @@ fn the_snow_wall_example_equals_the_series_formula() {
         "wall R",
     );
     let band = r.band.unwrap();
-    assert_eq!(band.by_correlation.len(), 9);
+    assert_eq!(band.by_regression.len(), 9);
     assert!(band.r_min_m2k_w < r.r_total_m2k_w && r.r_total_m2k_w <= band.r_max_m2k_w + 1e-12);
 }
 
 #[test]
 fn document_ids_match_the_core_ids() {
     let id = |v: serde_json::Value| v.as_str().unwrap().to_string();
-    for c in SnowCorrelation::ALL {
+    for c in SnowRegression::ALL {
         assert_eq!(
-            id(serde_json::to_value(SnowCorrelationDoc::from(c)).unwrap()),
+            id(serde_json::to_value(SnowRegressionDoc::from(c)).unwrap()),
             c.id()
         );
     }
@@ -324,7 +324,7 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
         silt.conductivity.frozen.k(-1.0),
         silt.conductivity.unfrozen.k(1.0),
     );
-    let l = silt.latent_j_per_m3;
+    let l = silt.latent_j_m3;
     let nf = 0.7 * 1200.0 * 86_400.0;
     let stefan = hibernal::physics::analytic::stefan_depth_m(kf, l, nf);
     assert!(
@@ -339,7 +339,7 @@ fn the_design_winter_example_runs_and_agrees_with_the_hand_methods() {
         1200.0 * 86_400.0,
         2.0,
         150.0 * 86_400.0,
-        0.5 * (silt.c_frozen_j_per_m3_k + silt.c_unfrozen_j_per_m3_k),
+        0.5 * (silt.c_frozen_j_m3k + silt.c_unfrozen_j_m3k),
     )
     .unwrap();
     assert_rel(

@@ -2,7 +2,7 @@
 //! its source. The shelters are invented examples.
 
 use hibernal::physics::error::InputErrorKind;
-use hibernal::physics::materials::snow::SnowCorrelation;
+use hibernal::physics::materials::snow::SnowRegression;
 use hibernal::physics::shelter::model::{outside_film_w_m2k, Part, Sink};
 use hibernal::physics::shelter::night::NightSettings;
 use hibernal::physics::shelter::*;
@@ -18,13 +18,13 @@ fn dome() -> Shelter {
             wall_thickness_m: 0.4,
         },
         snow_density_kg_m3: 300.0,
-        snow_correlation: SnowCorrelation::Sturm1997Quadratic,
+        snow_regression: SnowRegression::Sturm1997Quadratic,
         floor: Floor::Snow,
         entrance: Entrance::ColdTrap,
         vent_diameter_m: 0.05,
         inside_film_w_m2k: 7.0,
-        lining_m2k_per_w: 0.2,
-        floor_cover_m2k_per_w: 0.0,
+        lining_m2k_w: 0.2,
+        floor_cover_m2k_w: 0.0,
     }
 }
 
@@ -84,7 +84,7 @@ fn shell_conduction_matches_the_spherical_wall_closed_form() {
     assert!((r.interior_c - expected).abs() < 1e-12 * expected.abs().max(1.0));
     // The model's own wall resistance is the halved-sphere form.
     let (model, _) = Model::build(&shelter, &c).unwrap();
-    let wall = model.zones[0].geometry.wall_resistance_k_per_w(k);
+    let wall = model.zones[0].geometry.wall_resistance_k_w(k);
     assert!(rel(wall, r_wall) < 1e-13);
     // Q = 2π k ΔT r_i r_o/(r_o − r_i) is the same conductance.
     assert!(rel(1.0 / wall, 2.0 * PI * k * r_i * r_o / (r_o - r_i)) < 1e-13);
@@ -121,7 +121,7 @@ fn thin_walls_tend_to_the_plane_wall() {
             },
             _ => unreachable!(),
         };
-        let shell = 1.0 / geometry.wall_resistance_k_per_w(k);
+        let shell = 1.0 / geometry.wall_resistance_k_w(k);
         let plane = k * 2.0 * PI * r_i * r_i / t;
         let dev = shell / plane - 1.0;
         println!("t/r_i = {eps:e}: shell/plane − 1 = {dev:.3e}");
@@ -311,7 +311,7 @@ fn steady_energy_balance_closes() {
         let out = r.walls_w + r.floor_w + r.vent_w + r.door_w + r.melt_w;
         println!(
             "{people} people: {:.3} °C, in {:.6} W, out {out:.6} W, melt {:.4} kg/h",
-            r.interior_c, r.gains_w, r.melt_kg_per_h
+            r.interior_c, r.gains_w, r.melt_kg_h
         );
         assert!(rel(out, r.gains_w) < 1e-12);
         for z in &r.zones {
@@ -369,7 +369,7 @@ fn melt_limit_fires_when_the_surface_would_pass_zero() {
     assert!(above.melt_w > 0.0 && above.warmest_snow_surface_c == 0.0);
     assert!((above.interior_c - below.interior_c).abs() < 1e-4);
     // Closed form of the threshold interior temperature.
-    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let k = SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(300.0);
     let h_o = outside_film_w_m2k(2.0, -15.0);
     let r_in = 1.0 / (7.0 * 2.0 * PI);
     let r_out = (1.0 - 1.0 / 1.4) / (2.0 * PI * k) + 1.0 / (h_o * 2.0 * PI * 1.96);
@@ -378,16 +378,12 @@ fn melt_limit_fires_when_the_surface_would_pass_zero() {
     assert!(rel(below.melt_free_limit_c, limit) < 1e-12);
     // Above the threshold the melt rate is the surplus over latent heat (333.4 kJ/kg, IAPWS).
     let far = at(1500.0);
-    assert!(rel(far.melt_kg_per_h, far.melt_w * 3600.0 / 333.4e3) < 1e-12);
+    assert!(rel(far.melt_kg_h, far.melt_w * 3600.0 / 333.4e3) < 1e-12);
     // A lining lets the air be warmer at the same melt-free surface.
     let lined = far.with_lining.expect("a lining outcome when melting");
     println!(
         "1500 W: {:.3} °C, {:.3} kg/h; lined {:.3} °C, {:.3} kg/h, melt-free up to {:.3} °C",
-        far.interior_c,
-        far.melt_kg_per_h,
-        lined.interior_c,
-        lined.melt_kg_per_h,
-        lined.melt_free_limit_c
+        far.interior_c, far.melt_kg_h, lined.interior_c, lined.melt_kg_h, lined.melt_free_limit_c
     );
     assert!(lined.interior_c > far.interior_c);
     assert!(lined.melt_free_limit_c > far.melt_free_limit_c);
@@ -425,7 +421,7 @@ fn trench_shape_factor_against_the_cube() {
         .zones
         .iter()
         .filter(|z| matches!(z.sink, Sink::Deep { .. }))
-        .map(|z| 1.0 / (z.geometry.wall_resistance_k_per_w(k) * k))
+        .map(|z| 1.0 / (z.geometry.wall_resistance_k_w(k) * k))
         .sum();
     let published = 0.5 * 8.24 * l;
     println!("half-body S = {s:.4} m, half the cube's {published:.4} m");
@@ -510,14 +506,14 @@ fn least_thickness_reaches_the_target() {
 /// regressions at its ends, and is wide (conductivities differ about twofold, model
 /// reference §1).
 #[test]
-fn correlation_band_contains_the_chosen_result() {
+fn regression_band_contains_the_chosen_result() {
     let c = one_sleeper();
     let shelter = Shelter {
         vent_diameter_m: 0.1,
         ..dome()
     };
     let chosen = steady(&shelter, &c).unwrap();
-    let band = correlation_band(&shelter, &c).unwrap();
+    let band = regression_band(&shelter, &c).unwrap();
     assert_eq!(band.entries.len(), 9);
     println!(
         "band {:.3} ({}) to {:.3} ({}) °C, chosen {:.3} °C",
@@ -531,7 +527,7 @@ fn correlation_band_contains_the_chosen_result() {
     let own = band
         .entries
         .iter()
-        .find(|e| e.correlation == shelter.snow_correlation)
+        .find(|e| e.regression == shelter.snow_regression)
         .unwrap();
     assert_eq!(own.interior_c, chosen.interior_c);
     let ks: Vec<f64> = band.entries.iter().map(|e| e.conductivity_w_m_k).collect();
@@ -764,7 +760,7 @@ mod no_panic {
             let shelter = Shelter {
                 shape,
                 snow_density_kg_m3: 300.0 + rho * 50.0,
-                snow_correlation: SnowCorrelation::ALL[corr],
+                snow_regression: SnowRegression::ALL[corr],
                 floor: if ground { Floor::Ground { conductivity_w_m_k: 1.5 + d * 0.2, heat_capacity_j_m3_k: 2.0e6, temperature_c: -2.0 + d } } else { Floor::Snow },
                 vent_diameter_m: 0.05 + vent * 0.02,
                 ..dome()
@@ -777,7 +773,7 @@ mod no_panic {
                 ..Conditions::default()
             };
             let _ = steady(&shelter, &cond);
-            let _ = correlation_band(&shelter, &cond);
+            let _ = regression_band(&shelter, &cond);
             let s = NightSettings { duration_s: 1800.0, step_s: 300.0, ..NightSettings::default() };
             if let Ok(r) = night(&shelter, &cond, &s) {
                 prop_assert!(r.warmest_snow_cell_c <= 0.0);
@@ -873,7 +869,7 @@ fn drift_cave_limits() {
         ..c
     };
     let res = steady(&sealed, &c).unwrap();
-    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let k = SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(300.0);
     let g_walls = 1.0 / (1.0 / (7.0 * 2.0 * PI * r * r) + 1.0 / (2.0 * PI * k * r));
     let g_floor = 1.0 / (1.0 / (7.0 * PI * r * r) + 1.0 / (k_ground * 4.0 * r));
     let expected = -15.0 + 0.7 * 58.2 * 1.8 / (g_walls + g_floor);
@@ -927,20 +923,20 @@ fn floor_cover_moves_the_melt_limit_to_the_dome() {
     let bare = steady(&dome(), &one_sleeper()).unwrap();
     let covered = steady(
         &Shelter {
-            floor_cover_m2k_per_w: 1.0,
+            floor_cover_m2k_w: 1.0,
             ..dome()
         },
         &one_sleeper(),
     )
     .unwrap();
-    let k = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(300.0);
+    let k = SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(300.0);
     let h_o = outside_film_w_m2k(2.0, -15.0);
     let r_in = 1.0 / (7.0 * 2.0 * PI);
     let r_out = (1.0 - 1.0 / 1.4) / (2.0 * PI * k) + 1.0 / (h_o * 2.0 * PI * 1.96);
     let floor_limit = 8.0 * (1.0 / (7.0 * PI)) * (4.0 * k);
     println!(
         "bare: {:.3} °C, melt {:.3} kg/h, limit {:.4} °C (floor {floor_limit:.4}); covered: {:.3} °C, melt {:.3} kg/h, limit {:.4} °C",
-        bare.interior_c, bare.melt_kg_per_h, bare.melt_free_limit_c, covered.interior_c, covered.melt_kg_per_h, covered.melt_free_limit_c
+        bare.interior_c, bare.melt_kg_h, bare.melt_free_limit_c, covered.interior_c, covered.melt_kg_h, covered.melt_free_limit_c
     );
     assert!(rel(bare.melt_free_limit_c, floor_limit) < 1e-12);
     assert!(rel(covered.melt_free_limit_c, 15.0 * r_in / r_out) < 1e-12);
@@ -1003,7 +999,7 @@ fn pile_bands_integrate_the_shell() {
         .zones
         .iter()
         .filter(|z| z.part == Part::WallsAndRoof)
-        .map(|z| 1.0 / z.geometry.wall_resistance_k_per_w(k))
+        .map(|z| 1.0 / z.geometry.wall_resistance_k_w(k))
         .sum();
     let g = |th: f64| {
         let t = crown + (base - crown) * th / (0.5 * PI);

@@ -4,7 +4,7 @@ mod common;
 use common::*;
 
 use hibernal::physics::materials::{
-    Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture,
+    Board, MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture,
 };
 use hibernal::physics::stack::{Boundary, Layer, Stack, MAX_LAYERS};
 use hibernal::physics::steady::{self, LayerState};
@@ -13,10 +13,10 @@ use proptest::prelude::*;
 fn custom(k: f64) -> MaterialSpec {
     MaterialSpec::Custom {
         label: String::new(),
-        conductivity_w_per_m_k: k,
-        frozen_conductivity_w_per_m_k: None,
+        conductivity_w_m_k: k,
+        frozen_conductivity_w_m_k: None,
         density_kg_m3: 1000.0,
-        specific_heat_j_per_kg_k: 1000.0,
+        specific_heat_j_kg_k: 1000.0,
     }
 }
 
@@ -38,41 +38,41 @@ fn three_layers_with_films_equal_the_series_resistance() {
                 0.30,
                 MaterialSpec::Snow {
                     density_kg_m3: 300.0,
-                    correlation: SnowCorrelation::Sturm1997Quadratic,
+                    regression: SnowRegression::Sturm1997Quadratic,
                 },
             ),
             layer(
                 0.05,
                 MaterialSpec::Insulation {
                     board: Board::ExtrudedPolystyrene,
-                    conductivity_w_per_m_k: None,
+                    conductivity_w_m_k: None,
                     moisture_derating_pct: 0.0,
                 },
             ),
             layer(
                 0.10,
                 MaterialSpec::Concrete {
-                    conductivity_w_per_m_k: None,
+                    conductivity_w_m_k: None,
                 },
             ),
         ],
         top: Boundary::Air {
             temperature_c: -30.0,
-            film_w_per_m2_k: 25.0,
+            film_w_m2k: 25.0,
         },
         bottom: Boundary::Air {
             temperature_c: -2.0,
-            film_w_per_m2_k: 8.0,
+            film_w_m2k: 8.0,
         },
     };
     let r = steady::solve(&stack).unwrap();
     let k_snow = 0.138 - 1.01 * 0.3 + 3.233 * 0.09;
     let r_exact = 1.0 / 25.0 + 0.30 / k_snow + 0.05 / 0.029 + 0.10 / 1.7 + 1.0 / 8.0;
-    assert_rel(r.r_total_m2k_per_w, r_exact, 1e-12, "R air to air");
-    assert_rel(r.heat_flux_w_per_m2, -28.0 / r_exact, 1e-12, "flux");
-    assert_rel(r.u_w_per_m2_k, 1.0 / r_exact, 1e-12, "U");
+    assert_rel(r.r_total_m2k_w, r_exact, 1e-12, "R air to air");
+    assert_rel(r.heat_flux_w_m2, -28.0 / r_exact, 1e-12, "flux");
+    assert_rel(r.u_w_m2k, 1.0 / r_exact, 1e-12, "U");
     // Interface temperatures: T = T_air − q · (resistance above).
-    let q = r.heat_flux_w_per_m2;
+    let q = r.heat_flux_w_m2;
     let t1 = -30.0 - q * (1.0 / 25.0 + 0.30 / k_snow);
     assert_abs(r.layers[0].bottom_c, t1, 1e-10, "snow/board interface");
     assert!(r.zero_planes.is_empty());
@@ -92,7 +92,7 @@ fn a_soil_layer_splits_at_its_0c_plane_self_consistently() {
     };
     let mut w = Vec::new();
     let p = hibernal::physics::materials::soil::soil_properties(&soil, "m", &mut w).unwrap();
-    let (kf, ku) = (p.k_frozen_w_per_m_k, p.k_unfrozen_w_per_m_k);
+    let (kf, ku) = (p.k_frozen_w_m_k, p.k_unfrozen_w_m_k);
     assert!(
         (kf - ku).abs() > 0.2,
         "the test needs distinct k: {kf} {ku}"
@@ -110,7 +110,7 @@ fn a_soil_layer_splits_at_its_0c_plane_self_consistently() {
     assert_abs(r.zero_planes[0].depth_m, x, 1e-9, "0 °C plane depth");
     assert!(r.zero_planes[0].frozen_above);
     assert_eq!(r.layers[0].state, LayerState::PartlyFrozen);
-    assert_rel(r.heat_flux_w_per_m2, -kf * 10.0 / x, 1e-9, "flux");
+    assert_rel(r.heat_flux_w_m2, -kf * 10.0 / x, 1e-9, "flux");
     // The plane moves when k changes: with k_u = k_f it would sit at d·10/14.
     assert!((x - d * 10.0 / 14.0).abs() > 0.05);
 }
@@ -130,13 +130,13 @@ fn ice_with_temperature_dependent_k_matches_direct_integration() {
     let n = 2000;
     let (a, b) = (-40.0f64, 0.0f64);
     let h = (b - a) / n as f64;
-    let k = hibernal::physics::materials::ice::ice_conductivity_w_per_m_k;
+    let k = hibernal::physics::materials::ice::ice_conductivity_w_m_k;
     let mut s = k(a) + k(b);
     for i in 1..n {
         s += k(a + i as f64 * h) * if i % 2 == 1 { 4.0 } else { 2.0 };
     }
     let integral = s * h / 3.0;
-    assert_rel(-r.heat_flux_w_per_m2 * 0.5, integral, 1e-10, "q d = ∫k dT");
+    assert_rel(-r.heat_flux_w_m2 * 0.5, integral, 1e-10, "q d = ∫k dT");
     // Ice conducts better when colder, so the gradient q/k is gentlest on the cold side and
     // the midpoint is colder than the straight line between the faces.
     assert!(r.temperature_at(0.25) < -20.0);
@@ -155,8 +155,8 @@ fn water_under_cold_air_freezes_to_a_steady_ice_cover() {
     };
     let r = steady::solve(&stack).unwrap();
     let x = r.zero_planes[0].depth_m;
-    let phi_ice = -hibernal::physics::materials::ice::ice_kirchhoff_w_per_m(-10.0);
-    let q = -r.heat_flux_w_per_m2;
+    let phi_ice = -hibernal::physics::materials::ice::ice_kirchhoff_w_m(-10.0);
+    let q = -r.heat_flux_w_m2;
     assert_rel(q, phi_ice / x, 1e-9, "flux through the ice");
     assert_rel(q, 0.556 * 4.0 / (2.0 - x), 1e-9, "flux through the water");
 }
@@ -169,7 +169,7 @@ fn the_band_holds_every_regression_and_the_chosen_one() {
                 0.4,
                 MaterialSpec::Snow {
                     density_kg_m3: 320.0,
-                    correlation: c,
+                    regression: c,
                 },
             ),
             layer(
@@ -186,19 +186,19 @@ fn the_band_holds_every_regression_and_the_chosen_one() {
         ],
         top: Boundary::Air {
             temperature_c: -30.0,
-            film_w_per_m2_k: 20.0,
+            film_w_m2k: 20.0,
         },
         bottom: Boundary::Surface { temperature_c: 2.0 },
     };
-    let stack = mk(SnowCorrelation::Calonne2011);
+    let stack = mk(SnowRegression::Calonne2011);
     let base = steady::solve(&stack).unwrap();
     let depths = base.profile_depths(16);
     let band = steady::snow_band(&stack, &depths).unwrap();
     assert_eq!(band.members.len(), 9);
     let (rlo, rhi) = band.r_total_range();
-    for c in SnowCorrelation::ALL {
+    for c in SnowRegression::ALL {
         let single = steady::solve(&mk(c)).unwrap();
-        assert!(single.r_total_m2k_per_w >= rlo - 1e-12 && single.r_total_m2k_per_w <= rhi + 1e-12);
+        assert!(single.r_total_m2k_w >= rlo - 1e-12 && single.r_total_m2k_w <= rhi + 1e-12);
         for (j, &z) in depths.iter().enumerate() {
             let t = single.temperature_at(z);
             assert!(
@@ -242,7 +242,7 @@ fn bad_stacks_are_refused_naming_the_field() {
     let mut s = good();
     s.top = Boundary::Air {
         temperature_c: -5.0,
-        film_w_per_m2_k: -3.0,
+        film_w_m2k: -3.0,
     };
     assert!(field_of(s).contains("top.film_w_m2k"));
     let mut s = good();
@@ -266,14 +266,14 @@ fn equal_face_temperatures_give_no_flux() {
         layers: vec![layer(0.2, custom(0.5)), layer(0.3, MaterialSpec::Ice)],
         top: Boundary::Air {
             temperature_c: -7.0,
-            film_w_per_m2_k: 10.0,
+            film_w_m2k: 10.0,
         },
         bottom: Boundary::Surface {
             temperature_c: -7.0,
         },
     };
     let r = steady::solve(&s).unwrap();
-    assert_eq!(r.heat_flux_w_per_m2, 0.0);
+    assert_eq!(r.heat_flux_w_m2, 0.0);
     assert!(r
         .layers
         .iter()
@@ -285,15 +285,15 @@ fn arb_material() -> impl Strategy<Value = MaterialSpec> {
         (0.02f64..3.0, proptest::option::of(0.02f64..3.0)).prop_map(|(k, kf)| {
             MaterialSpec::Custom {
                 label: String::new(),
-                conductivity_w_per_m_k: k,
-                frozen_conductivity_w_per_m_k: kf,
+                conductivity_w_m_k: k,
+                frozen_conductivity_w_m_k: kf,
                 density_kg_m3: 1000.0,
-                specific_heat_j_per_kg_k: 1000.0,
+                specific_heat_j_kg_k: 1000.0,
             }
         }),
         (120.0f64..550.0, 0usize..9).prop_map(|(rho, i)| MaterialSpec::Snow {
             density_kg_m3: rho,
-            correlation: SnowCorrelation::ALL[i],
+            regression: SnowRegression::ALL[i],
         }),
         Just(MaterialSpec::Ice),
         Just(MaterialSpec::Water),
@@ -318,7 +318,7 @@ fn arb_boundary() -> impl Strategy<Value = Boundary> {
     prop_oneof![
         (-50.0f64..30.0, 2.0f64..60.0).prop_map(|(t, h)| Boundary::Air {
             temperature_c: t,
-            film_w_per_m2_k: h
+            film_w_m2k: h
         }),
         (-50.0f64..30.0).prop_map(|t| Boundary::Surface { temperature_c: t }),
     ]
@@ -342,7 +342,7 @@ proptest! {
             bottom,
         };
         let r = steady::solve(&stack).unwrap();
-        let q = r.heat_flux_w_per_m2;
+        let q = r.heat_flux_w_m2;
         let scale = q.abs().max(1e-6);
         for (i, (l, m)) in r.layers.iter().zip(&r.stack.materials).enumerate() {
             let d = l.bottom_depth_m - l.top_depth_m;
@@ -354,14 +354,14 @@ proptest! {
             let roundoff = 64.0 * f64::EPSILON * (pt.abs() + pb.abs()) / d;
             prop_assert!((qi - q).abs() <= 1e-8 * scale + roundoff, "layer {}: {} vs {}", i, qi, q);
         }
-        if let Boundary::Air { temperature_c, film_w_per_m2_k } = top {
-            let qf = film_w_per_m2_k * (temperature_c - r.top.surface_c);
-            let roundoff = 64.0 * f64::EPSILON * film_w_per_m2_k * (temperature_c.abs() + r.top.surface_c.abs());
+        if let Boundary::Air { temperature_c, film_w_m2k } = top {
+            let qf = film_w_m2k * (temperature_c - r.top.surface_c);
+            let roundoff = 64.0 * f64::EPSILON * film_w_m2k * (temperature_c.abs() + r.top.surface_c.abs());
             prop_assert!((qf - q).abs() <= 1e-8 * scale + roundoff, "top film: {} vs {}", qf, q);
         }
-        if let Boundary::Air { temperature_c, film_w_per_m2_k } = bottom {
-            let qf = film_w_per_m2_k * (r.bottom.surface_c - temperature_c);
-            let roundoff = 64.0 * f64::EPSILON * film_w_per_m2_k * (temperature_c.abs() + r.bottom.surface_c.abs());
+        if let Boundary::Air { temperature_c, film_w_m2k } = bottom {
+            let qf = film_w_m2k * (r.bottom.surface_c - temperature_c);
+            let roundoff = 64.0 * f64::EPSILON * film_w_m2k * (temperature_c.abs() + r.bottom.surface_c.abs());
             prop_assert!((qf - q).abs() <= 1e-8 * scale + roundoff, "bottom film: {} vs {}", qf, q);
         }
         let prof = r.profile_at(&r.profile_depths(12));

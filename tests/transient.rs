@@ -24,9 +24,9 @@ fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
         },
         freezes: latent > 0.0,
         density_kg_m3: 1800.0,
-        c_frozen_j_per_m3_k: c_f,
-        c_unfrozen_j_per_m3_k: c_u,
-        latent_j_per_m3: latent,
+        c_frozen_j_m3k: c_f,
+        c_unfrozen_j_m3k: c_u,
+        latent_j_m3: latent,
         valid_temperature_c: (-100.0, 100.0),
     }
 }
@@ -196,12 +196,7 @@ fn held_conditions_lead_to_the_steady_solution() {
     let x = s.fronts().frost_depth_m;
     assert_abs(x, x_exact, 0.02, "frost depth vs steady 0 °C plane");
     // Flux through the top face equals the steady flux.
-    assert_rel(
-        -s.last_top_flux_w_m2,
-        -exact.heat_flux_w_per_m2,
-        0.01,
-        "flux",
-    );
+    assert_rel(-s.last_top_flux_w_m2, -exact.heat_flux_w_m2, 0.01, "flux");
 }
 
 #[test]
@@ -503,7 +498,7 @@ fn a_run_advanced_in_slices_gives_the_same_results_as_one_call() {
 
 // ------------------------------------------------------------------------- snow cells
 
-use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
 use hibernal::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
 use hibernal::physics::transient::SnowLayer;
 
@@ -524,7 +519,7 @@ fn snow_layer(depth_m: f64, density: f64) -> SnowLayer {
     SnowLayer {
         depth_m,
         density_kg_m3: density,
-        conductivity_w_m_k: SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(density),
+        conductivity_w_m_k: SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(density),
     }
 }
 
@@ -538,7 +533,7 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
     // h = 20 W/m²K; bottom held at +3 °C. Flux within 1e-3 relative.
     let snow_spec = MaterialSpec::Snow {
         density_kg_m3: 250.0,
-        correlation: SnowCorrelation::Sturm1997Quadratic,
+        regression: SnowRegression::Sturm1997Quadratic,
     };
     let soil_spec = MaterialSpec::Soil(SoilInput {
         texture: Texture::Silt,
@@ -563,7 +558,7 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
         ],
         top: Boundary::Air {
             temperature_c: -15.0,
-            film_w_per_m2_k: 20.0,
+            film_w_m2k: 20.0,
         },
         bottom: Boundary::Surface { temperature_c: 3.0 },
     };
@@ -580,7 +575,7 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
     for _ in 0..(30 * 365) {
         s.step(DAY, &top, &bottom).unwrap();
     }
-    let q = exact.heat_flux_w_per_m2;
+    let q = exact.heat_flux_w_m2;
     println!(
         "held air under snow: flux {:.6} W/m² vs steady {q:.6} ({:.1e} relative)",
         s.last_top_flux_w_m2,
@@ -601,7 +596,7 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
         "snow/ground interface temperature",
     );
     // The series formula for the snow layer alone: ΔT across it = q d / k.
-    let k_snow = SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(250.0);
+    let k_snow = SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(250.0);
     let snow_top = -15.0 - q / 20.0;
     assert_rel(
         s.last_ground_surface_c - snow_top,
@@ -760,7 +755,7 @@ fn a_snowy_year_closes_its_energy_balance_with_the_snow_mass_term() {
         },
         top: TopModel::AirFilm {
             film_w_m2k: 15.0,
-            snow_correlation: SnowCorrelation::Calonne2011,
+            snow_regression: SnowRegression::Calonne2011,
         },
         bottom: BottomCondition::Flux { upward_w_m2: 0.06 },
         initial: Initial::Uniform(3.0),
@@ -884,7 +879,7 @@ fn frost_under_snow_is_shallower_than_bare_and_within_stefan_with_the_snow_resis
         },
         top: TopModel::AirFilm {
             film_w_m2k: 20.0,
-            snow_correlation: SnowCorrelation::Sturm1997Quadratic,
+            snow_regression: SnowRegression::Sturm1997Quadratic,
         },
         bottom: BottomCondition::Flux { upward_w_m2: 0.05 },
         initial: Initial::Uniform(2.0),
@@ -900,9 +895,9 @@ fn frost_under_snow_is_shallower_than_bare_and_within_stefan_with_the_snow_resis
     let under_snow = hibernal::physics::transient::run::run(&spec, &snowy).unwrap();
     let bare = hibernal::physics::transient::run::run(&spec, &air).unwrap();
     let m = silt();
-    let (kf, l) = (m.conductivity.frozen.k(-1.0), m.latent_j_per_m3);
+    let (kf, l) = (m.conductivity.frozen.k(-1.0), m.latent_j_m3);
     let f = hibernal::physics::climate::sinusoid_freezing_index_c_days(-2.0, 18.0) * DAY;
-    let r_snow = 0.3 / SnowCorrelation::Sturm1997Quadratic.conductivity_w_per_m_k(250.0);
+    let r_snow = 0.3 / SnowRegression::Sturm1997Quadratic.conductivity_w_m_k(250.0);
     let bound_snow = stefan_depth_with_resistance_m(kf, l, f, 1.0 / 20.0 + r_snow);
     let bound_bare = stefan_depth_with_resistance_m(kf, l, f, 1.0 / 20.0);
     println!(
@@ -1041,7 +1036,7 @@ fn a_run_from_the_periodic_start_is_already_periodic() {
     let wave = climate.annual_wave();
     let film = TopModel::AirFilm {
         film_w_m2k: 5.0,
-        snow_correlation: SnowCorrelation::Sturm1997Quadratic,
+        snow_regression: SnowRegression::Sturm1997Quadratic,
     };
     let change = |top: TopModel, bottom: BottomCondition, initial: Initial| {
         let r = hibernal::physics::transient::run::run(&inert_spec(top, bottom, initial), &climate)
@@ -1246,7 +1241,7 @@ fn an_erratic_snow_record_runs_to_the_end_and_conserves_energy() {
         },
         top: TopModel::AirFilm {
             film_w_m2k: 25.0,
-            snow_correlation: SnowCorrelation::Jordan1991,
+            snow_regression: SnowRegression::Jordan1991,
         },
         bottom: BottomCondition::Flux { upward_w_m2: 0.06 },
         initial: Initial::Periodic(climate.annual_wave()),

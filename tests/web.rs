@@ -321,11 +321,11 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
 }
 
 #[wasm_bindgen_test]
-fn edge_design_run_searches_in_slices_and_never_throws() {
+fn edge_least_run_searches_in_slices_and_never_throws() {
     // Junk and a scenario without `edge.least` give errors, not exceptions; a short coarse
     // search of the invented store's wing runs to an answer in 5 ms slices.
     for junk in [JsValue::NULL, example("unheated-storage-edge")] {
-        let r = web::EdgeDesignRun::new(junk);
+        let r = web::EdgeLeastRun::new(junk);
         assert!(Array::from(&r.errors()).length() > 0);
         assert!(r.report().is_null());
     }
@@ -343,7 +343,7 @@ fn edge_design_run_searches_in_slices_and_never_throws() {
         Reflect::set(&least, &k.into(), &JsValue::from_f64(v)).unwrap();
     }
     Reflect::set(&edge, &"least".into(), &least).unwrap();
-    let mut r = web::EdgeDesignRun::new(s);
+    let mut r = web::EdgeLeastRun::new(s);
     assert_eq!(Array::from(&r.errors()).length(), 0);
     let mut slices = 0;
     loop {
@@ -366,7 +366,7 @@ fn edge_design_run_searches_in_slices_and_never_throws() {
 
 #[wasm_bindgen_test]
 fn the_seeded_sampler_gives_the_same_bits_in_wasm_as_natively() {
-    // The pins of tests/uncertainty.rs (O'Neill's pcg32 demo vector; the first sample's
+    // The pins of tests/ranges_sampling.rs (O'Neill's pcg32 demo vector; the first sample's
     // uniforms, checked there against an independent Python implementation): a Monte Carlo
     // seeded in the browser repeats the one run natively.
     let mut g = hibernal::physics::ranges::Pcg32::new(42, 54);

@@ -16,7 +16,7 @@ const TARGET: RGBColor = RGBColor(30, 130, 70);
 const SURFACE_LINE: RGBColor = RGBColor(150, 90, 170);
 
 /// Draw the first night in a shelter: the air inside, the inner surface of the main wall
-/// and the warmest snow surface against the hours, with the 0 °C melt limit, the design
+/// and the warmest snow surface against the hours, with the 0 °C melt limit, the
 /// target and the steady interior temperature marked, and the warm-up time if the air gets
 /// there. `scale` as in [`draw_profile`]. No report makes it fail: an empty night draws
 /// axes and a note.
@@ -171,7 +171,7 @@ pub fn shelter_night_svg(
 /// outside temperature): the line, its points where snow melts marked with red dots, the
 /// 0 °C melt limit, the target, and the shelter as it stands. No legend: the panels are
 /// narrow, the y axis names the line and the page's caption the dots. `target_c` is the
-/// design target.
+/// target.
 pub fn draw_shelter_sweep<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     s: &SeriesDoc,
@@ -273,7 +273,7 @@ fn sweep_panel<DB: DrawingBackend>(
     let melting: Vec<(f64, f64)> = s
         .points
         .iter()
-        .filter(|p| p.melt_kg_per_h > 0.0 && p.interior_c.is_finite())
+        .filter(|p| p.melt_kg_h > 0.0 && p.interior_c.is_finite())
         .map(|p| (x(p.x), t(p.interior_c)))
         .collect();
     if !melting.is_empty() {

@@ -75,7 +75,7 @@ pub fn compute_with_winter(s: &Scenario) -> Result<Computed, InputErrors> {
     if let Some(w) = &s.winter {
         let mut report = crate::document::winter::run_winter(w, &c.steady.result.stack, &s.layers)?;
         if w.least_thickness.is_some() {
-            report.least_thickness = Some(crate::document::winter_least::run_design(
+            report.least_thickness = Some(crate::document::winter_least::run_least_thickness(
                 w,
                 &c.steady.result.stack,
                 &s.layers,
@@ -126,7 +126,7 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
     let face = |f: &steady::FaceResult| FaceDoc {
         air_c: f.air_c,
         surface_c: f.surface_c,
-        film_r_m2k_w: f.film_r_m2k_per_w,
+        film_r_m2k_w: f.film_r_m2k_w,
     };
     let layers = r
         .layers
@@ -141,16 +141,16 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             bottom_depth_m: lr.bottom_depth_m,
             top_c: lr.top_c,
             bottom_c: lr.bottom_c,
-            r_m2k_w: lr.r_m2k_per_w,
-            conductivity_w_m_k: lr.k_eff_w_per_m_k,
+            r_m2k_w: lr.r_m2k_w,
+            conductivity_w_m_k: lr.k_eff_w_m_k,
             state: lr.state.label(),
             properties: PropertiesDoc {
                 k_frozen_w_m_k: m.conductivity.frozen.k(-5.0),
                 k_unfrozen_w_m_k: m.conductivity.unfrozen.k(5.0),
                 density_kg_m3: m.density_kg_m3,
-                c_frozen_j_m3k: m.c_frozen_j_per_m3_k,
-                c_unfrozen_j_m3k: m.c_unfrozen_j_per_m3_k,
-                latent_j_m3: m.latent_j_per_m3,
+                c_frozen_j_m3k: m.c_frozen_j_m3k,
+                c_unfrozen_j_m3k: m.c_unfrozen_j_m3k,
+                latent_j_m3: m.latent_j_m3,
             },
         })
         .collect();
@@ -165,14 +165,14 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
             flux_max_w_m2: q_max,
             zero_depth_min_m: z.map(|z| z.0),
             zero_depth_max_m: z.map(|z| z.1),
-            by_correlation: b
+            by_regression: b
                 .members
                 .iter()
                 .map(|m| BandMemberDoc {
-                    id: m.correlation.id(),
-                    name: m.correlation.name(),
-                    r_total_m2k_w: m.result.r_total_m2k_per_w,
-                    heat_flux_w_m2: m.result.heat_flux_w_per_m2,
+                    id: m.regression.id(),
+                    name: m.regression.name(),
+                    r_total_m2k_w: m.result.r_total_m2k_w,
+                    heat_flux_w_m2: m.result.heat_flux_w_m2,
                     zero_planes_m: m.result.zero_planes.iter().map(|p| p.depth_m).collect(),
                 })
                 .collect(),
@@ -194,12 +194,12 @@ pub fn report(s: &Scenario, c: &Computed) -> Report {
         tool_version: env!("CARGO_PKG_VERSION"),
         format_version: FORMAT_VERSION,
         title: s.title.clone(),
-        r_total_m2k_w: r.r_total_m2k_per_w,
-        r_layers_m2k_w: r.r_layers_m2k_per_w,
-        r_total_ft2_f_h_btu: r.r_total_m2k_per_w * crate::physics::units::R_US_PER_R_SI,
-        r_layers_ft2_f_h_btu: r.r_layers_m2k_per_w * crate::physics::units::R_US_PER_R_SI,
-        u_w_m2k: r.u_w_per_m2_k,
-        heat_flux_w_m2: r.heat_flux_w_per_m2,
+        r_total_m2k_w: r.r_total_m2k_w,
+        r_layers_m2k_w: r.r_layers_m2k_w,
+        r_total_ft2_f_h_btu: r.r_total_m2k_w * crate::physics::units::R_US_PER_R_SI,
+        r_layers_ft2_f_h_btu: r.r_layers_m2k_w * crate::physics::units::R_US_PER_R_SI,
+        u_w_m2k: r.u_w_m2k,
+        heat_flux_w_m2: r.heat_flux_w_m2,
         top: face(&r.top),
         bottom: face(&r.bottom),
         layers,

@@ -1,14 +1,14 @@
 //! The `edge` section of the scenario document (format version 4): a vertical cross-section
 //! through the edge of a slab-on-grade building ([`crate::physics::edge2d`]) run through a winter, the
 //! far-field soil column run by the 1D winter machinery beside it, and the report of both.
-//! Edge module (serde). The section stands on its own, like the shelter: it reads neither
+//! The section stands on its own, like the shelter: it reads neither
 //! `layers` nor `top` nor `bottom`.
 
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
 use crate::document::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
 use crate::document::winter::{HandMethodRow, InitialDoc, WinterDoc, WinterJob, WinterReport};
 use crate::physics::climate::Climate;
-use crate::physics::edge2d::least::{EdgeDesignReport, EdgeQuantity, EdgeTrial};
+use crate::physics::edge2d::least::{EdgeLeastAnswer, EdgeQuantity, EdgeTrial};
 use crate::physics::edge2d::{
     AxisSpacing, Board, EdgeError, EdgeField, EdgeRun, EdgeSection, FoundationWall, Inside,
     Outside, Region, Slab, SoilBand, StartTemperature, WallBoard, Wing,
@@ -145,7 +145,8 @@ pub enum EdgeInsideDoc {
 #[serde(deny_unknown_fields)]
 pub struct EdgeStartDoc {
     pub surface_c: f64,
-    pub gradient_k_per_m: f64,
+    #[serde(rename = "gradient_k_per_m")]
+    pub gradient_k_m: f64,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
@@ -222,7 +223,7 @@ fn board_of(
             Board {
                 thickness_m,
                 conductivity_w_m_k: m.conductivity.unfrozen.k(5.0),
-                heat_capacity_j_m3_k: m.c_unfrozen_j_per_m3_k,
+                heat_capacity_j_m3_k: m.c_unfrozen_j_m3k,
             },
             derating,
         )),
@@ -334,7 +335,7 @@ impl EdgeDoc {
         check::within(
             &mut errs,
             "edge.start.gradient_k_per_m",
-            self.start.gradient_k_per_m,
+            self.start.gradient_k_m,
             -1.0,
             1.0,
             "K/m",
@@ -404,7 +405,7 @@ impl EdgeDoc {
                             name: String::new(),
                             thickness_m: 5.0,
                             material: MaterialSpec::Concrete {
-                                conductivity_w_per_m_k: None,
+                                conductivity_w_m_k: None,
                             },
                         }],
                         ..stack.clone()
@@ -538,17 +539,17 @@ impl EdgeDoc {
             outside: match self.outside {
                 SurfaceDoc::Film {
                     film_w_m2k,
-                    snow_correlation,
+                    snow_regression,
                 } => Outside::Film {
                     film_w_m2k,
-                    snow_correlation: snow_correlation.into(),
+                    snow_regression: snow_regression.into(),
                 },
                 SurfaceDoc::NFactor { freezing, thawing } => Outside::NFactor { freezing, thawing },
             },
             bottom: spec.bottom,
             start: StartTemperature {
                 surface_c: self.start.surface_c,
-                gradient_k_per_m: self.start.gradient_k_per_m,
+                gradient_k_m: self.start.gradient_k_m,
             },
             grid: AxisSpacing {
                 fine_m: g.fine_m,
@@ -572,10 +573,10 @@ impl EdgeDoc {
         let surface_resistance_m2k_w = match section.outside {
             Outside::Film {
                 film_w_m2k,
-                snow_correlation,
+                snow_regression,
             } => Some(hand::film_and_snow_resistance(
                 film_w_m2k,
-                snow_correlation,
+                snow_regression,
                 &climate,
                 duration_s,
             )),
@@ -1210,8 +1211,8 @@ pub struct EdgeLeastReport {
     pub trials: Vec<EdgeTrialDoc>,
 }
 
-impl From<&EdgeDesignReport> for EdgeLeastReport {
-    fn from(r: &EdgeDesignReport) -> Self {
+impl From<&EdgeLeastAnswer> for EdgeLeastReport {
+    fn from(r: &EdgeLeastAnswer) -> Self {
         EdgeLeastReport {
             quantity: r.quantity.id(),
             unit: r.quantity.unit(),

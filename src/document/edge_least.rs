@@ -1,4 +1,4 @@
-//! `edge.least` (edge module: serde): the search for the least wing width, board R-value or
+//! `edge.least`: the search for the least wing width, board R-value or
 //! footing depth that keeps frost at or above the footing base through the edge's winter,
 //! over the 2D solver ([`crate::physics::edge2d::least`]); its sliced job for the page and its
 //! report.
@@ -12,21 +12,19 @@
 
 use super::edge::EdgeLeastReport;
 use crate::document::edge::EdgeDoc;
-use crate::physics::edge2d::least::{EdgeDesignError, EdgeDesignJob};
+use crate::physics::edge2d::least::{EdgeLeastError, EdgeLeastSearch};
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
 use crate::physics::transient::run::Progress;
 
-/// The core names the search's settings `edge.design.*` and a board's thickness
-/// `….board.thickness_m`; the scenario's fields are `edge.least.*` and `….thickness_m`.
+/// The core names a board's thickness `….board.thickness_m`; the scenario's field is
+/// `….thickness_m`.
 fn scenario_path(field: &str) -> String {
-    field
-        .replace("edge.design.", "edge.least.")
-        .replace(".board.thickness_m", ".thickness_m")
+    field.replace(".board.thickness_m", ".thickness_m")
 }
 
-fn design_error(e: EdgeDesignError) -> InputErrors {
+fn least_error(e: EdgeLeastError) -> InputErrors {
     match e {
-        EdgeDesignError::Input(errs) => crate::document::edge::moved_by(errs, scenario_path),
+        EdgeLeastError::Input(errs) => crate::document::edge::moved_by(errs, scenario_path),
         other => {
             InputError::new("edge.least", InputErrorKind::NotCovered(other.to_string())).into()
         }
@@ -37,7 +35,7 @@ fn design_error(e: EdgeDesignError) -> InputErrors {
 /// winter of the section).
 #[derive(Debug, Clone)]
 pub struct EdgeLeastJob {
-    job: EdgeDesignJob,
+    job: EdgeLeastSearch,
 }
 
 impl EdgeLeastJob {
@@ -51,7 +49,7 @@ impl EdgeLeastJob {
             .into());
         };
         let (section, climate) = doc.section_and_climate()?;
-        let job = EdgeDesignJob::new(
+        let job = EdgeLeastSearch::new(
             &section,
             &climate,
             d.quantity.into(),
@@ -60,13 +58,13 @@ impl EdgeLeastJob {
             d.resolution,
             "edge",
         )
-        .map_err(design_error)?;
+        .map_err(least_error)?;
         Ok(EdgeLeastJob { job })
     }
 
     /// Advance by at most `max_steps` time steps; the share done and whether it has ended.
     pub fn advance(&mut self, max_steps: usize) -> Result<Progress, InputErrors> {
-        self.job.advance(max_steps).map_err(design_error)
+        self.job.advance(max_steps).map_err(least_error)
     }
 
     /// The share done and whether the search has ended.

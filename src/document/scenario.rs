@@ -1,6 +1,7 @@
-//! The scenario document (versioned JSON) and the report, at the edge between the core and
-//! its faces (page, CLI). These are serialisable mirrors of the core types: the core itself
-//! has no serde.
+//! The root of the scenario document (versioned JSON): the stack, its faces and the
+//! optional sections, read with field paths, and its JSON Schema. Between the core and its
+//! faces (page, CLI): serialisable mirrors of the core types, which know nothing of the
+//! format.
 //!
 //! Format: `{"format": "hibernal-scenario", "version": 5, ...}`, all values SI. Version 2
 //! adds the optional `winter` section (a transient run of the same stack,

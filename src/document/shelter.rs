@@ -1,7 +1,7 @@
 //! The shelter section of the scenario document (format version 3): a snow shelter, the
-//! weather and the people in it, the night to follow and the design questions, and the
-//! report of all of it. Edge module (serde): it converts to and from the plain structs of
-//! [`crate::physics::shelter`], which knows nothing of serde.
+//! weather and the people in it, the night to follow and the least wall, and the
+//! report of all of it. It converts to and from the plain structs of
+//! [`crate::physics::shelter`].
 //!
 //! The section stands on its own: it does not read the document's `layers`, `top` and
 //! `bottom`, which keep their meaning (a steady stack; in the bundled shelter examples a
@@ -9,7 +9,7 @@
 //! `shelter.` (`shelter.shape.inner_radius_m`, `shelter.conditions.people`,
 //! `shelter.night.duration_h`), so errors land beside their inputs on the page.
 
-use crate::document::vocabulary::{ErrorDoc, SnowCorrelationDoc};
+use crate::document::vocabulary::{ErrorDoc, SnowRegressionDoc};
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
 use crate::physics::shelter;
 use crate::physics::shelter::{
@@ -32,7 +32,8 @@ pub struct ShelterDoc {
     /// Density of the snow of walls, roof, surrounding snowpack and a snow floor, kg/m³.
     pub snow_density_kg_m3: f64,
     /// The regression giving the snow's conductivity from its density.
-    pub snow_correlation: SnowCorrelationDoc,
+    #[serde(rename = "snow_correlation")]
+    pub snow_regression: SnowRegressionDoc,
     pub floor: FloorDoc,
     pub entrance: EntranceDoc,
     /// Diameter of the vent hole at the top, m (0: no vent).
@@ -43,17 +44,19 @@ pub struct ShelterDoc {
     /// Resistance of a lining that could be hung in front of the walls, m²K/W (default 0.2;
     /// 0: no lining to compare).
     #[serde(default = "default_lining")]
-    pub lining_m2k_per_w: f64,
+    #[serde(rename = "lining_m2k_per_w")]
+    pub lining_m2k_w: f64,
     /// Resistance of what covers the floor (mats, branches), averaged over the floor, m²K/W.
     #[serde(default)]
-    pub floor_cover_m2k_per_w: f64,
+    #[serde(rename = "floor_cover_m2k_per_w")]
+    pub floor_cover_m2k_w: f64,
     pub conditions: ConditionsDoc,
     /// The first hours after people go in.
     #[serde(default)]
     pub night: NightDoc,
-    /// The design question: the least wall for a target interior temperature.
-    #[serde(default)]
-    pub design: DesignDoc,
+    /// The interior temperature the least wall is sought for (the format's key: `design`).
+    #[serde(default, rename = "design")]
+    pub target: TargetDoc,
     /// Ranges the three series run over.
     #[serde(default)]
     pub sweeps: SweepsDoc,
@@ -230,10 +233,10 @@ impl Default for NightDoc {
     }
 }
 
-/// The design question.
+/// The interior temperature wanted, for the least wall that holds it.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, JsonSchema)]
 #[serde(deny_unknown_fields)]
-pub struct DesignDoc {
+pub struct TargetDoc {
     /// Interior temperature wanted, °C (default −5: an invented default, no source).
     #[serde(default = "default_target")]
     pub target_c: f64,
@@ -243,9 +246,9 @@ fn default_target() -> f64 {
     -5.0
 }
 
-impl Default for DesignDoc {
+impl Default for TargetDoc {
     fn default() -> Self {
-        DesignDoc {
+        TargetDoc {
             target_c: default_target(),
         }
     }
@@ -382,7 +385,7 @@ impl ShelterDoc {
                 },
             },
             snow_density_kg_m3: self.snow_density_kg_m3,
-            snow_correlation: self.snow_correlation.into(),
+            snow_regression: self.snow_regression.into(),
             floor: match self.floor {
                 FloorDoc::Snow => Floor::Snow,
                 FloorDoc::Ground {
@@ -407,8 +410,8 @@ impl ShelterDoc {
             },
             vent_diameter_m: self.vent_diameter_m,
             inside_film_w_m2k: self.inside_film_w_m2k,
-            lining_m2k_per_w: self.lining_m2k_per_w,
-            floor_cover_m2k_per_w: self.floor_cover_m2k_per_w,
+            lining_m2k_w: self.lining_m2k_w,
+            floor_cover_m2k_w: self.floor_cover_m2k_w,
         }
     }
 
@@ -444,7 +447,7 @@ impl ShelterDoc {
             // held at 0 °C, so the error is not repeated on a field nobody set.
             snow_start_c: n.snow_start_c.unwrap_or(snow_default.min(0.0)),
             air_start_c: n.air_start_c.unwrap_or(c.outside_c),
-            target_c: Some(self.design.target_c),
+            target_c: Some(self.target.target_c),
             lining: n.lining,
             ..NightSettings::default()
         }
@@ -464,7 +467,7 @@ impl ShelterDoc {
         check::within(
             errs,
             "shelter.design.target_c",
-            self.design.target_c,
+            self.target.target_c,
             -40.0,
             20.0,
             "°C",
@@ -551,7 +554,8 @@ pub struct SurfaceDoc {
     /// Whether this surface is snow held at 0 °C and melting.
     pub melting: bool,
     pub heat_w: f64,
-    pub melt_mm_per_h: f64,
+    #[serde(rename = "melt_mm_per_h")]
+    pub melt_mm_h: f64,
 }
 
 /// Where the heat goes: one path.
@@ -567,9 +571,11 @@ pub struct LossDoc {
 
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LiningDoc {
-    pub lining_m2k_per_w: f64,
+    #[serde(rename = "lining_m2k_per_w")]
+    pub lining_m2k_w: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    #[serde(rename = "melt_kg_per_h")]
+    pub melt_kg_h: f64,
     pub melt_free_limit_c: f64,
 }
 
@@ -579,7 +585,8 @@ pub struct BandEntryDoc {
     pub name: &'static str,
     pub conductivity_w_m_k: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    #[serde(rename = "melt_kg_per_h")]
+    pub melt_kg_h: f64,
     /// The density lies in the regression's fitted range.
     pub in_range: bool,
 }
@@ -590,7 +597,8 @@ pub struct ShelterBandDoc {
     pub coldest_id: &'static str,
     pub warmest_c: f64,
     pub warmest_id: &'static str,
-    pub by_correlation: Vec<BandEntryDoc>,
+    #[serde(rename = "by_correlation")]
+    pub by_regression: Vec<BandEntryDoc>,
 }
 
 /// One kept instant of the night.
@@ -602,7 +610,8 @@ pub struct NightPointDoc {
     pub warmest_surface_c: f64,
     /// Inner surface of the main wall (the first surface), °C.
     pub main_surface_c: f64,
-    pub melt_kg_per_h: f64,
+    #[serde(rename = "melt_kg_per_h")]
+    pub melt_kg_h: f64,
     pub co2_ppm: f64,
     /// Every surface, in the order of `surface_names`.
     pub surfaces_c: Vec<f64>,
@@ -617,7 +626,7 @@ pub struct NightReportDoc {
     pub steady_interior_c: f64,
     /// Time for the air to cover 90 % of its rise to the steady temperature, s.
     pub warmup_time_s: Option<f64>,
-    /// First time the air reaches the design target, s.
+    /// First time the air reaches the target, s.
     pub target_time_s: Option<f64>,
     pub melted_kg: f64,
     /// |imbalance| over the heat given off.
@@ -647,7 +656,8 @@ pub struct LeastWallDoc {
 pub struct SeriesPointDoc {
     pub x: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    #[serde(rename = "melt_kg_per_h")]
+    pub melt_kg_h: f64,
     pub co2_ppm: Option<f64>,
 }
 
@@ -686,7 +696,8 @@ pub struct ShelterReport {
     pub warmest_surface_c: f64,
     /// Highest interior temperature at which no snow surface melts, °C.
     pub melt_free_limit_c: f64,
-    pub melt_kg_per_h: f64,
+    #[serde(rename = "melt_kg_per_h")]
+    pub melt_kg_h: f64,
     pub surfaces: Vec<SurfaceDoc>,
     pub people_w: f64,
     pub candles_w: f64,
@@ -699,7 +710,8 @@ pub struct ShelterReport {
     pub co2_ppm: Option<f64>,
     pub co2_limit_ppm: f64,
     pub snow_conductivity_w_m_k: f64,
-    pub snow_correlation: &'static str,
+    #[serde(rename = "snow_correlation")]
+    pub snow_regression: &'static str,
     pub outside_film_w_m2k: f64,
     pub with_lining: Option<LiningDoc>,
     pub band: ShelterBandDoc,
@@ -735,7 +747,7 @@ fn series_points(p: Vec<SweepPoint>) -> Vec<SeriesPointDoc> {
         .map(|p| SeriesPointDoc {
             x: p.x,
             interior_c: p.interior_c,
-            melt_kg_per_h: p.melt_kg_per_h,
+            melt_kg_h: p.melt_kg_h,
             co2_ppm: p.co2_ppm,
         })
         .collect()
@@ -751,7 +763,7 @@ fn thickness_name(shape: &ShapeDoc) -> &'static str {
 }
 
 fn least_wall(doc: &ShelterDoc, a: ThicknessAnswer, field: String) -> LeastWallDoc {
-    let target = doc.design.target_c;
+    let target = doc.target.target_c;
     let what = thickness_name(&doc.shape);
     let mut d = LeastWallDoc {
         target_c: target,
@@ -875,9 +887,9 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
     errs.into_result()?;
 
     let r = shelter::steady(&sh, &co).map_err(core_error)?;
-    let band = shelter::correlation_band(&sh, &co).map_err(core_error)?;
+    let band = shelter::regression_band(&sh, &co).map_err(core_error)?;
     let night = shelter::night(&sh, &co, &settings).map_err(core_error)?;
-    let answer = shelter::least_thickness(&sh, &co, doc.design.target_c).map_err(core_error)?;
+    let answer = shelter::least_thickness(&sh, &co, doc.target.target_c).map_err(core_error)?;
     let field = shape_path(&format!("shelter.{}", sh.shape.main_thickness_field()));
 
     let s = &doc.sweeps;
@@ -933,7 +945,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         push_unique(&mut warnings, w);
     }
     for w in &mut warnings {
-        describe_warning(w, doc, &sh, r.melt_kg_per_h);
+        describe_warning(w, doc, &sh, r.melt_kg_h);
     }
 
     let gains = r.gains_w.max(f64::MIN_POSITIVE);
@@ -952,7 +964,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
             interior_c: p.interior_c,
             warmest_surface_c: p.warmest_snow_surface_c,
             main_surface_c: p.surfaces_c.first().copied().unwrap_or(f64::NAN),
-            melt_kg_per_h: p.melt_kg_per_h,
+            melt_kg_h: p.melt_kg_h,
             co2_ppm: p.co2_ppm,
             surfaces_c: p.surfaces_c.clone(),
         })
@@ -963,7 +975,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         surface_state: if r.melt_w > 0.0 { "melting" } else { "frozen" },
         warmest_surface_c: r.warmest_snow_surface_c,
         melt_free_limit_c: r.melt_free_limit_c,
-        melt_kg_per_h: r.melt_kg_per_h,
+        melt_kg_h: r.melt_kg_h,
         surfaces: r
             .zones
             .iter()
@@ -978,7 +990,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
                 surface_c: z.surface_c,
                 melting: snow && z.melt_w > 0.0,
                 heat_w: z.heat_in_w,
-                melt_mm_per_h: z.melt_mm_per_h,
+                melt_mm_h: z.melt_mm_h,
             })
             .collect(),
         people_w: r.people_w,
@@ -997,12 +1009,12 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         co2_ppm: r.co2_ppm,
         co2_limit_ppm: shelter::steady::CO2_LIMIT_PPM,
         snow_conductivity_w_m_k: r.snow_conductivity_w_m_k,
-        snow_correlation: r.snow_correlation.id(),
+        snow_regression: r.snow_regression.id(),
         outside_film_w_m2k: r.outside_film_w_m2k,
         with_lining: r.with_lining.map(|l| LiningDoc {
-            lining_m2k_per_w: l.lining_m2k_per_w,
+            lining_m2k_w: l.lining_m2k_w,
             interior_c: l.interior_c,
-            melt_kg_per_h: l.melt_kg_per_h,
+            melt_kg_h: l.melt_kg_h,
             melt_free_limit_c: l.melt_free_limit_c,
         }),
         band: ShelterBandDoc {
@@ -1010,15 +1022,15 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
             coldest_id: band.coldest.0.id(),
             warmest_c: band.warmest.1,
             warmest_id: band.warmest.0.id(),
-            by_correlation: band
+            by_regression: band
                 .entries
                 .iter()
                 .map(|e| BandEntryDoc {
-                    id: e.correlation.id(),
-                    name: e.correlation.name(),
+                    id: e.regression.id(),
+                    name: e.regression.name(),
                     conductivity_w_m_k: e.conductivity_w_m_k,
                     interior_c: e.interior_c,
-                    melt_kg_per_h: e.melt_kg_per_h,
+                    melt_kg_h: e.melt_kg_h,
                     in_range: e.in_range,
                 })
                 .collect(),
@@ -1046,7 +1058,7 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
 /// (SI): `melting` (value: kg/h), `thin_wall` (value: the thickness, m; max: the 0.30 m the
 /// field manuals give), `density_range` (value: kg/m³; min and max: the regression's fitted
 /// range). Known by the field they name, which the core's checks fix.
-fn describe_warning(w: &mut ErrorDoc, doc: &ShelterDoc, sh: &Shelter, melt_kg_per_h: f64) {
+fn describe_warning(w: &mut ErrorDoc, doc: &ShelterDoc, sh: &Shelter, melt_kg_h: f64) {
     let thickness = |key: &str| -> Option<f64> {
         match (doc.shape, key) {
             (
@@ -1083,11 +1095,11 @@ fn describe_warning(w: &mut ErrorDoc, doc: &ShelterDoc, sh: &Shelter, melt_kg_pe
             _ => None,
         }
     };
-    if w.field == "shelter" && melt_kg_per_h > 0.0 {
+    if w.field == "shelter" && melt_kg_h > 0.0 {
         w.kind = Some("melting");
-        w.value = Some(melt_kg_per_h);
+        w.value = Some(melt_kg_h);
     } else if w.field == "shelter.snow_density_kg_m3" {
-        let (lo, hi) = sh.snow_correlation.valid_range_kg_m3();
+        let (lo, hi) = sh.snow_regression.valid_range_kg_m3();
         w.kind = Some("density_range");
         (w.value, w.min, w.max) = (Some(sh.snow_density_kg_m3), Some(lo), Some(hi));
     } else if let Some(t) = w.field.strip_prefix("shelter.shape.").and_then(thickness) {
@@ -1167,7 +1179,7 @@ pub fn night_csv(r: &ShelterReport, sys: UnitSystem) -> String {
             cell("hours", p.time_s, sys),
             cell("temperature", p.interior_c, sys),
             cell("temperature", p.warmest_surface_c, sys),
-            cell("mass_rate", p.melt_kg_per_h, sys),
+            cell("mass_rate", p.melt_kg_h, sys),
             cell("ppm", p.co2_ppm, sys),
         ];
         row.extend(p.surfaces_c.iter().map(|&t| cell("temperature", t, sys)));
@@ -1200,7 +1212,7 @@ pub fn sweeps_csv(r: &ShelterReport, sys: UnitSystem) -> String {
                 cell(s.x_quantity, p.x, sys),
                 xu,
                 cell("temperature", p.interior_c, sys),
-                cell("mass_rate", p.melt_kg_per_h, sys),
+                cell("mass_rate", p.melt_kg_h, sys),
                 p.co2_ppm.map_or(String::new(), |c| cell("ppm", c, sys)),
             ));
         }

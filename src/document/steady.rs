@@ -63,7 +63,8 @@ pub struct BandDoc {
     pub flux_max_w_m2: f64,
     pub zero_depth_min_m: Option<f64>,
     pub zero_depth_max_m: Option<f64>,
-    pub by_correlation: Vec<BandMemberDoc>,
+    #[serde(rename = "by_correlation")]
+    pub by_regression: Vec<BandMemberDoc>,
     pub skipped: Vec<ErrorDoc>,
     /// (depth m, lowest °C, highest °C).
     pub envelope: Vec<[f64; 3]>,

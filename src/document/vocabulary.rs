@@ -1,6 +1,6 @@
 use crate::physics::error::{InputError, Warning};
 use crate::physics::materials::{
-    Board, MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture,
+    Board, MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture,
 };
 use crate::physics::stack::Boundary;
 use schemars::JsonSchema;
@@ -35,7 +35,8 @@ pub enum MaterialDoc {
     Snow {
         /// kg/m³.
         density_kg_m3: f64,
-        correlation: SnowCorrelationDoc,
+        #[serde(rename = "correlation")]
+        regression: SnowRegressionDoc,
     },
     Ice,
     Water,
@@ -125,7 +126,7 @@ macro_rules! id_enum {
     };
 }
 
-id_enum!(SnowCorrelationDoc, SnowCorrelation, {
+id_enum!(SnowRegressionDoc, SnowRegression, {
     Sturm1997Quadratic => "sturm-1997-quadratic",
     Sturm1997Logarithmic => "sturm-1997-logarithmic",
     Calonne2011 => "calonne-2011",
@@ -159,10 +160,10 @@ impl From<&MaterialDoc> for MaterialSpec {
         match m {
             MaterialDoc::Snow {
                 density_kg_m3,
-                correlation,
+                regression,
             } => MaterialSpec::Snow {
                 density_kg_m3: *density_kg_m3,
-                correlation: (*correlation).into(),
+                regression: (*regression).into(),
             },
             MaterialDoc::Ice => MaterialSpec::Ice,
             MaterialDoc::Water => MaterialSpec::Water,
@@ -189,11 +190,11 @@ impl From<&MaterialDoc> for MaterialSpec {
                 moisture_derating_pct,
             } => MaterialSpec::Insulation {
                 board: (*board).into(),
-                conductivity_w_per_m_k: *conductivity_w_m_k,
+                conductivity_w_m_k: *conductivity_w_m_k,
                 moisture_derating_pct: *moisture_derating_pct,
             },
             MaterialDoc::Concrete { conductivity_w_m_k } => MaterialSpec::Concrete {
-                conductivity_w_per_m_k: *conductivity_w_m_k,
+                conductivity_w_m_k: *conductivity_w_m_k,
             },
             MaterialDoc::Custom {
                 label,
@@ -203,10 +204,10 @@ impl From<&MaterialDoc> for MaterialSpec {
                 specific_heat_j_kg_k,
             } => MaterialSpec::Custom {
                 label: label.clone(),
-                conductivity_w_per_m_k: *conductivity_w_m_k,
-                frozen_conductivity_w_per_m_k: *frozen_conductivity_w_m_k,
+                conductivity_w_m_k: *conductivity_w_m_k,
+                frozen_conductivity_w_m_k: *frozen_conductivity_w_m_k,
                 density_kg_m3: *density_kg_m3,
-                specific_heat_j_per_kg_k: *specific_heat_j_kg_k,
+                specific_heat_j_kg_k: *specific_heat_j_kg_k,
             },
         }
     }
@@ -220,7 +221,7 @@ impl From<&BoundaryDoc> for Boundary {
                 film_w_m2k,
             } => Boundary::Air {
                 temperature_c,
-                film_w_per_m2_k: film_w_m2k,
+                film_w_m2k,
             },
             BoundaryDoc::Surface { temperature_c } => Boundary::Surface { temperature_c },
         }

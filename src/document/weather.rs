@@ -1,4 +1,4 @@
-use crate::document::vocabulary::SnowCorrelationDoc;
+use crate::document::vocabulary::SnowRegressionDoc;
 use crate::physics::climate::SnowSeason;
 use schemars::JsonSchema;
 use serde::{Deserialize, Serialize};
@@ -75,7 +75,8 @@ pub enum SurfaceDoc {
     /// film as layers of its own, with conductivity from the chosen regression.
     Film {
         film_w_m2k: f64,
-        snow_correlation: SnowCorrelationDoc,
+        #[serde(rename = "snow_correlation")]
+        snow_regression: SnowRegressionDoc,
     },
     /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
     /// cover, snow included, so snow in the climate is not used.

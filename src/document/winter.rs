@@ -1,5 +1,5 @@
 //! The winter section of the scenario document (format version 2): what drives a transient
-//! run of the same stack, and the report of that run. Edge module (serde).
+//! run of the same stack, and the report of that run.
 
 use super::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
@@ -170,7 +170,7 @@ impl WinterDoc {
         let top = match self.surface {
             SurfaceDoc::Film {
                 film_w_m2k,
-                snow_correlation,
+                snow_regression,
             } => {
                 check::within(
                     &mut errs,
@@ -182,7 +182,7 @@ impl WinterDoc {
                 );
                 TopModel::AirFilm {
                     film_w_m2k,
-                    snow_correlation: snow_correlation.into(),
+                    snow_regression: snow_regression.into(),
                 }
             }
             SurfaceDoc::NFactor { freezing, thawing } => {

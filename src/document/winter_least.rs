@@ -1,6 +1,6 @@
 //! The `least_thickness` part of a winter section: which layer's thickness to search, the
 //! limit frost must stay above, and the range to search; the search run a slice at a time
-//! (`DesignJob`) and its report. The search itself is [`crate::physics::least`].
+//! (`LeastThicknessJob`) and its report. The search itself is [`crate::physics::least`].
 
 use super::winter::{LeastThicknessReport, TrialDoc, MAX_RUNS};
 use crate::document::vocabulary::LayerDoc;
@@ -8,7 +8,7 @@ use crate::document::winter::WinterDoc;
 use crate::physics::climate::Climate;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
 use crate::physics::least::{
-    limit_depth_m, with_layer_thickness, DesignAnswer, FrostLimit, Searcher, Trial,
+    limit_depth_m, with_layer_thickness, FrostLimit, LeastAnswer, Searcher, Trial,
 };
 use crate::physics::stack::ResolvedStack;
 use crate::physics::transient::run;
@@ -16,7 +16,7 @@ use crate::physics::transient::setup::RunSpec;
 
 /// A search under way, advanced a slice at a time; each trial is a whole winter run.
 #[derive(Debug, Clone)]
-pub struct DesignJob {
+pub struct LeastThicknessJob {
     spec: RunSpec,
     climate: Climate,
     layer: usize,
@@ -34,13 +34,13 @@ fn run_error(e: crate::physics::transient::TransientError) -> InputErrors {
     ))
 }
 
-impl DesignJob {
+impl LeastThicknessJob {
     /// Check the winter section (which must have a `least_thickness` part) and set up.
     pub fn new(
         w: &WinterDoc,
         stack: &ResolvedStack,
         layers: &[LayerDoc],
-    ) -> Result<DesignJob, InputErrors> {
+    ) -> Result<LeastThicknessJob, InputErrors> {
         let Some(d) = &w.least_thickness else {
             return Err(InputError::new(
                 "winter.least_thickness",
@@ -65,7 +65,7 @@ impl DesignJob {
                 InputError::new("winter", InputErrorKind::NotCovered("invalid".into())).into(),
             );
         };
-        Ok(DesignJob {
+        Ok(LeastThicknessJob {
             spec,
             climate,
             layer: d.layer,
@@ -159,7 +159,7 @@ impl DesignJob {
             trials: trials.clone(),
         };
         Some(match answer {
-            DesignAnswer::Found {
+            LeastAnswer::Found {
                 value,
                 frost_depth_m,
                 limit_m,
@@ -177,11 +177,11 @@ impl DesignJob {
                 // across the answer and a slope means nothing.
                 (*frost_depth_m > 0.0).then_some(*slope),
             ),
-            DesignAnswer::SmallestSuffices { trial } => {
+            LeastAnswer::SmallestSuffices { trial } => {
                 base("smallest-suffices", Some(trial.value), trial, None)
             }
-            DesignAnswer::NotReachable { trial } => base("not-reachable", None, trial, None),
-            DesignAnswer::NotMonotone { trials: t } => {
+            LeastAnswer::NotReachable { trial } => base("not-reachable", None, trial, None),
+            LeastAnswer::NotMonotone { trials: t } => {
                 let last = t.last().copied().unwrap_or(Trial {
                     value: 0.0,
                     frost_depth_m: 0.0,
@@ -194,12 +194,12 @@ impl DesignJob {
 }
 
 /// Run the search to its end and report it.
-pub fn run_design(
+pub fn run_least_thickness(
     w: &WinterDoc,
     stack: &ResolvedStack,
     layers: &[LayerDoc],
 ) -> Result<LeastThicknessReport, InputErrors> {
-    let mut job = DesignJob::new(w, stack, layers)?;
+    let mut job = LeastThicknessJob::new(w, stack, layers)?;
     while !job.advance(usize::MAX)?.finished {}
     job.report().ok_or_else(|| {
         InputError::new(

@@ -324,7 +324,7 @@ impl NeumannProblem {
 
 impl NeumannSolution {
     /// Front constant β = 2ξ√a_f, m/s^½: X = β√t.
-    pub fn front_constant_m_per_sqrt_s(&self) -> f64 {
+    pub fn front_constant_m_sqrt_s(&self) -> f64 {
         2.0 * self.xi * self.a_frozen_m2_s.sqrt()
     }
 
@@ -333,7 +333,7 @@ impl NeumannSolution {
         if t_s <= 0.0 {
             0.0
         } else {
-            self.front_constant_m_per_sqrt_s() * t_s.sqrt()
+            self.front_constant_m_sqrt_s() * t_s.sqrt()
         }
     }
 
@@ -680,19 +680,19 @@ pub const LAKE_ICE_COEFFICIENT_AVERAGE_WITH_SNOW: (f64, f64) = (1.7, 2.4);
 /// Ashton; from memory). Published coefficients: ≈ 2.7 windy lake with no snow, 1.7–2.4
 /// average lake with snow ([`LAKE_ICE_COEFFICIENT_WINDY_NO_SNOW`],
 /// [`LAKE_ICE_COEFFICIENT_AVERAGE_WITH_SNOW`]); they lie below the ideal
-/// [`stefan_ice_coefficient_cm_per_sqrt_cday`] (≈ 3.5 for clear ice at the air
+/// [`stefan_ice_coefficient_cm_sqrt_cday`] (≈ 3.5 for clear ice at the air
 /// temperature) because snow and the air film add resistance.
-pub fn lake_ice_thickness_m(coefficient_cm_per_sqrt_cdays: f64, freezing_degree_days: f64) -> f64 {
+pub fn lake_ice_thickness_m(coefficient_cm_sqrt_cdays: f64, freezing_degree_days: f64) -> f64 {
     if freezing_degree_days <= 0.0 {
         return 0.0;
     }
-    coefficient_cm_per_sqrt_cdays * freezing_degree_days.sqrt() / 100.0
+    coefficient_cm_sqrt_cdays * freezing_degree_days.sqrt() / 100.0
 }
 
 /// The ideal Stefan coefficient for ice, cm/(°C·d)^½: 100 √(2 k_i · 86 400 / L), with
 /// `k_ice_w_m_k` (W/m/K) and `latent_j_m3` the latent heat per volume of ice (ρ_i L_f,
 /// J/m³). It is [`stefan_depth_m`] written in lake-ice units: the ice surface at the air
 /// temperature, no snow, no heat from the water.
-pub fn stefan_ice_coefficient_cm_per_sqrt_cday(k_ice_w_m_k: f64, latent_j_m3: f64) -> f64 {
+pub fn stefan_ice_coefficient_cm_sqrt_cday(k_ice_w_m_k: f64, latent_j_m3: f64) -> f64 {
     100.0 * (2.0 * k_ice_w_m_k * SECONDS_PER_DAY / latent_j_m3).sqrt()
 }

@@ -17,14 +17,14 @@
 //! Indices here are in K·s (°C·days × 86 400).
 
 use crate::physics::analytic::{self, BerggrenLayered};
-use crate::physics::materials::{Material, SnowCorrelation};
+use crate::physics::materials::{Material, SnowRegression};
 use crate::physics::transient::setup::Forcing;
 
 const DAY: f64 = 86_400.0;
 
 /// Does the material hold water that freezes (and so can carry a frost front)?
 pub fn freezes(m: &Material) -> bool {
-    m.freezes && m.latent_j_per_m3 > 0.0
+    m.freezes && m.latent_j_m3 > 0.0
 }
 
 /// The conductivity the hand methods give a layer that freezes through: the mean of its
@@ -59,7 +59,7 @@ pub fn first_freezing(layers: &[(f64, Material)]) -> Option<FirstFreezing> {
 
 /// Stefan's law for `m` alone from the surface under a surface freezing index, m.
 pub fn stefan_m(m: &Material, index_k_s: f64) -> f64 {
-    analytic::stefan_depth_m(m.conductivity.frozen.k(-1.0), m.latent_j_per_m3, index_k_s)
+    analytic::stefan_depth_m(m.conductivity.frozen.k(-1.0), m.latent_j_m3, index_k_s)
 }
 
 /// Stefan's law for `m` under a resistance `r` (m²·K/W) that stores no heat, m below the
@@ -67,7 +67,7 @@ pub fn stefan_m(m: &Material, index_k_s: f64) -> f64 {
 pub fn stefan_under_resistance_m(m: &Material, index_k_s: f64, r: f64) -> f64 {
     analytic::stefan_depth_with_resistance_m(
         m.conductivity.frozen.k(-1.0),
-        m.latent_j_per_m3,
+        m.latent_j_m3,
         index_k_s,
         r,
     )
@@ -139,8 +139,8 @@ pub fn berggren_m(
         .map(|(d, m)| analytic::BerggrenLayer {
             thickness_m: *d,
             k_w_m_k: mean_conductivity(m),
-            latent_j_m3: if m.freezes { m.latent_j_per_m3 } else { 0.0 },
-            c_j_m3k: 0.5 * (m.c_frozen_j_per_m3_k + m.c_unfrozen_j_per_m3_k),
+            latent_j_m3: if m.freezes { m.latent_j_m3 } else { 0.0 },
+            c_j_m3k: 0.5 * (m.c_frozen_j_m3k + m.c_unfrozen_j_m3k),
         })
         .collect();
     if index_k_s <= 0.0 || days_below < 1.0 {
@@ -158,7 +158,7 @@ pub fn berggren_m(
 /// drive frost), or 1/h when there are none. Snow of no depth or density counts as none.
 pub fn film_and_snow_resistance(
     film_w_m2k: f64,
-    snow_correlation: SnowCorrelation,
+    snow_regression: SnowRegression,
     forcing: &dyn Forcing,
     duration_s: f64,
 ) -> f64 {
@@ -170,9 +170,7 @@ pub fn film_and_snow_resistance(
             let snow = forcing
                 .snow(t)
                 .filter(|&(z, rho)| z > 0.0 && rho > 0.0)
-                .map_or(0.0, |(z, rho)| {
-                    z / snow_correlation.conductivity_w_per_m_k(rho)
-                });
+                .map_or(0.0, |(z, rho)| z / snow_regression.conductivity_w_m_k(rho));
             sum += 1.0 / film_w_m2k + snow;
             n += 1;
         }

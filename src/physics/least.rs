@@ -1,4 +1,4 @@
-//! Inverse design: the least value of a design quantity (a board's thickness, a soil
+//! The search for a least value: the least value of a quantity (a board's thickness, a soil
 //! cover) that keeps frost above a given depth through a winter.
 //!
 //! The question is a root of g(x) = frost(x) − target(x) ≤ 0 over a monotone family of
@@ -56,7 +56,7 @@ impl Trial {
 
 /// The outcome of a search.
 #[derive(Debug, Clone, PartialEq)]
-pub enum DesignAnswer {
+pub enum LeastAnswer {
     /// The least value found (within the tolerance: `value − tolerance` does not hold the
     /// limit, `value` does), with the runs that led there and the answer's sensitivity.
     Found {
@@ -103,7 +103,7 @@ pub struct Searcher {
     gb: f64,
     side: i8,
     pending: Option<f64>,
-    answer: Option<DesignAnswer>,
+    answer: Option<LeastAnswer>,
     /// Whether the last two runs inside the bracket moved the same end.
     same_side_twice: bool,
 }
@@ -135,7 +135,7 @@ impl Searcher {
     }
 
     /// The answer, once the search has ended.
-    pub fn answer(&self) -> Option<&DesignAnswer> {
+    pub fn answer(&self) -> Option<&LeastAnswer> {
         self.answer.as_ref()
     }
 
@@ -149,7 +149,7 @@ impl Searcher {
         match (self.a, self.b) {
             (None, None) if self.trials.len() == 1 => {
                 if g <= 0.0 {
-                    return self.end(DesignAnswer::SmallestSuffices { trial: t });
+                    return self.end(LeastAnswer::SmallestSuffices { trial: t });
                 }
                 self.a = Some(t);
                 self.ga = g;
@@ -158,7 +158,7 @@ impl Searcher {
             }
             (Some(_), None) => {
                 if g > 0.0 {
-                    return self.end(DesignAnswer::NotReachable { trial: t });
+                    return self.end(LeastAnswer::NotReachable { trial: t });
                 }
                 self.b = Some(t);
                 self.gb = g;
@@ -171,7 +171,7 @@ impl Searcher {
                 // top of the soil below it — without changing the answer.)
                 if g > 0.0 && g > a.excess_m() + MONOTONE_NOISE_M {
                     let trials = self.trials.clone();
-                    return self.end(DesignAnswer::NotMonotone { trials });
+                    return self.end(LeastAnswer::NotMonotone { trials });
                 }
                 self.same_side_twice = (g > 0.0 && self.side == -1) || (g <= 0.0 && self.side == 1);
                 if g > 0.0 {
@@ -198,7 +198,7 @@ impl Searcher {
         if b.value - a.value <= self.search.tolerance || self.trials.len() >= self.search.max_runs {
             let slope = (b.excess_m() - a.excess_m()) / (b.value - a.value);
             let trials = self.trials.clone();
-            return self.end(DesignAnswer::Found {
+            return self.end(LeastAnswer::Found {
                 value: b.value,
                 frost_depth_m: b.frost_depth_m,
                 limit_m: b.limit_m,
@@ -220,7 +220,7 @@ impl Searcher {
         self.pending = Some(x);
     }
 
-    fn end(&mut self, answer: DesignAnswer) {
+    fn end(&mut self, answer: LeastAnswer) {
         self.pending = None;
         self.answer = Some(answer);
     }
@@ -232,7 +232,7 @@ impl Searcher {
 pub fn least_value<E>(
     s: &Search,
     mut trial: impl FnMut(f64) -> Result<Trial, E>,
-) -> Result<DesignAnswer, E> {
+) -> Result<LeastAnswer, E> {
     let mut searcher = Searcher::new(*s);
     while let Some(x) = searcher.next_value() {
         searcher.record(trial(x)?);
@@ -240,7 +240,7 @@ pub fn least_value<E>(
     Ok(searcher
         .answer()
         .cloned()
-        .unwrap_or(DesignAnswer::NotMonotone { trials: Vec::new() }))
+        .unwrap_or(LeastAnswer::NotMonotone { trials: Vec::new() }))
 }
 
 /// The limit's depth below the top face for a stack of these thicknesses.
@@ -279,7 +279,7 @@ pub fn least_layer_thickness(
     layer: usize,
     limit: FrostLimit,
     s: &Search,
-) -> Result<DesignAnswer, TransientError> {
+) -> Result<LeastAnswer, TransientError> {
     least_value(s, |x| {
         let mut thicknesses = spec.thicknesses_m.clone();
         thicknesses[layer] = x.max(0.0);

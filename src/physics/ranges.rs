@@ -54,7 +54,7 @@ pub enum Distribution {
 
 /// One input known only as a range.
 #[derive(Debug, Clone, PartialEq)]
-pub struct UncertainInput {
+pub struct RangedInput {
     /// A stable name, e.g. `snow-density`.
     pub id: String,
     pub low: f64,
@@ -62,7 +62,7 @@ pub struct UncertainInput {
     pub distribution: Distribution,
 }
 
-impl UncertainInput {
+impl RangedInput {
     /// Check this input; `field` is its path (e.g. `ranges.inputs[2]`), errors go to
     /// `{field}.id`, `.low`, `.high`, `.distribution.mode`, `.distribution.mean`,
     /// `.distribution.sd`. Returns whether it passed.
@@ -179,7 +179,7 @@ fn truncated_standard_normal(a: f64, b: f64, u: f64) -> f64 {
 
 /// Check a list of inputs: the count (1 to [`MAX_INPUTS`], at `field`), each input at
 /// `{field}[i]`, and that ids are unique (`{field}[i].id`).
-pub fn validate_inputs(inputs: &[UncertainInput], field: &str, errs: &mut InputErrors) -> bool {
+pub fn validate_inputs(inputs: &[RangedInput], field: &str, errs: &mut InputErrors) -> bool {
     let before = errs.0.len();
     if inputs.is_empty() || inputs.len() > MAX_INPUTS {
         errs.push(
@@ -280,7 +280,7 @@ pub fn sample_uniforms(seed: u64, index: u64, dims: usize, out: &mut Vec<f64>) {
 
 /// Sample `index` of `inputs` under `seed`: one value per input, in the inputs' order.
 /// Depends on (seed, index, inputs) only. Call on validated inputs.
-pub fn sample_at(inputs: &[UncertainInput], seed: u64, index: u64) -> Vec<f64> {
+pub fn sample_at(inputs: &[RangedInput], seed: u64, index: u64) -> Vec<f64> {
     let mut u = Vec::with_capacity(inputs.len());
     sample_uniforms(seed, index, inputs.len(), &mut u);
     inputs
@@ -357,7 +357,7 @@ pub enum MonteCarloError {
 /// is then bit-identical to a single-thread run.
 #[derive(Debug, Clone)]
 pub struct MonteCarloJob {
-    inputs: Vec<UncertainInput>,
+    inputs: Vec<RangedInput>,
     runs: usize,
     seed: u64,
     next: usize,
@@ -369,7 +369,7 @@ impl MonteCarloJob {
     /// Check the inputs (at `{prefix}.inputs[i]…`) and `runs` (at `{prefix}.runs`, between
     /// [`MIN_RUNS`] and [`MAX_RUNS`]); `prefix` may be empty.
     pub fn new(
-        inputs: &[UncertainInput],
+        inputs: &[RangedInput],
         runs: usize,
         seed: u64,
         prefix: &str,
@@ -403,7 +403,7 @@ impl MonteCarloJob {
     pub fn seed(&self) -> u64 {
         self.seed
     }
-    pub fn inputs(&self) -> &[UncertainInput] {
+    pub fn inputs(&self) -> &[RangedInput] {
         &self.inputs
     }
     /// Share of the runs recorded, 0 to 1.
@@ -521,7 +521,7 @@ impl MonteCarloJob {
 /// `inputs[i]…` and `runs` (use [`MonteCarloJob::new`] for a prefix). A trial's error is a
 /// failure of that run, kept in the result with its message.
 pub fn monte_carlo<E: fmt::Display>(
-    inputs: &[UncertainInput],
+    inputs: &[RangedInput],
     runs: usize,
     seed: u64,
     mut trial: impl FnMut(&[f64]) -> Result<f64, E>,
@@ -579,7 +579,7 @@ pub enum SensitivityError<E> {
 /// largest first. 2n + 1 trials.
 pub fn one_at_a_time<E>(
     base: &[f64],
-    inputs: &[UncertainInput],
+    inputs: &[RangedInput],
     mut trial: impl FnMut(&[f64]) -> Result<f64, E>,
 ) -> Result<OneAtATime, SensitivityError<E>> {
     let mut errs = InputErrors::default();

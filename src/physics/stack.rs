@@ -33,10 +33,7 @@ pub struct Layer {
 pub enum Boundary {
     /// Air at a temperature, coupled through a surface film (convection and radiation
     /// lumped): q = h (T_air − T_surface).
-    Air {
-        temperature_c: f64,
-        film_w_per_m2_k: f64,
-    },
+    Air { temperature_c: f64, film_w_m2k: f64 },
     /// The surface itself held at a temperature (no film).
     Surface { temperature_c: f64 },
 }
@@ -50,11 +47,9 @@ impl Boundary {
         }
     }
     /// Film resistance, m²K/W (0 for a held surface).
-    pub fn film_resistance_m2k_per_w(&self) -> f64 {
+    pub fn film_resistance_m2k_w(&self) -> f64 {
         match *self {
-            Boundary::Air {
-                film_w_per_m2_k, ..
-            } => 1.0 / film_w_per_m2_k,
+            Boundary::Air { film_w_m2k, .. } => 1.0 / film_w_m2k,
             Boundary::Surface { .. } => 0.0,
         }
     }
@@ -68,15 +63,12 @@ impl Boundary {
             hi,
             "°C",
         );
-        if let Boundary::Air {
-            film_w_per_m2_k, ..
-        } = *self
-        {
+        if let Boundary::Air { film_w_m2k, .. } = *self {
             let (lo, hi) = FILM_RANGE_W_PER_M2_K;
             check::within(
                 errs,
                 &format!("{field}.film_w_m2k"),
-                film_w_per_m2_k,
+                film_w_m2k,
                 lo,
                 hi,
                 "W/m²K",
@@ -94,7 +86,7 @@ pub struct SurfacePreset {
     pub id: &'static str,
     pub name: &'static str,
     /// `None`: the surface temperature is held (no film).
-    pub film_w_per_m2_k: Option<f64>,
+    pub film_w_m2k: Option<f64>,
     pub source: &'static str,
 }
 
@@ -102,49 +94,49 @@ pub const SURFACE_PRESETS: [SurfacePreset; 8] = [
     SurfacePreset {
         id: "held-surface",
         name: "Surface held at the temperature (no film)",
-        film_w_per_m2_k: None,
+        film_w_m2k: None,
         source: "—",
     },
     SurfacePreset {
         id: "outdoor-standard",
         name: "Outdoors, standard exposure (ISO 6946)",
-        film_w_per_m2_k: Some(25.0),
+        film_w_m2k: Some(25.0),
         source: "ISO 6946 external surface resistance (from memory)",
     },
     SurfacePreset {
         id: "outdoor-calm",
         name: "Outdoors, calm air",
-        film_w_per_m2_k: Some(15.0),
+        film_w_m2k: Some(15.0),
         source: "lower end of the outside film range, model reference (from memory)",
     },
     SurfacePreset {
         id: "outdoor-windy",
         name: "Outdoors, strong wind",
-        film_w_per_m2_k: Some(35.0),
+        film_w_m2k: Some(35.0),
         source: "common practice, no source",
     },
     SurfacePreset {
         id: "indoor-up",
         name: "Indoors, heat flowing up (ISO 6946)",
-        film_w_per_m2_k: Some(10.0),
+        film_w_m2k: Some(10.0),
         source: "ISO 6946 internal surface resistance, upward (from memory)",
     },
     SurfacePreset {
         id: "indoor-horizontal",
         name: "Indoors, heat flowing sideways (ISO 6946)",
-        film_w_per_m2_k: Some(1.0 / 0.13),
+        film_w_m2k: Some(1.0 / 0.13),
         source: "ISO 6946 internal surface resistance, horizontal (from memory)",
     },
     SurfacePreset {
         id: "indoor-down",
         name: "Indoors, heat flowing down (ISO 6946)",
-        film_w_per_m2_k: Some(1.0 / 0.17),
+        film_w_m2k: Some(1.0 / 0.17),
         source: "ISO 6946 internal surface resistance, downward (from memory)",
     },
     SurfacePreset {
         id: "shelter-inside",
         name: "Inside a snow shelter, still air",
-        film_w_per_m2_k: Some(7.0),
+        film_w_m2k: Some(7.0),
         source: "model reference, inside film 6–8 W/m²K (from memory)",
     },
 ];

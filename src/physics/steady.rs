@@ -18,7 +18,7 @@
 //! moisture or vapour transport, and water freezing at exactly 0 °C.
 
 use crate::physics::error::{InputErrors, Warning};
-use crate::physics::materials::{Family, Material, SnowCorrelation};
+use crate::physics::materials::{Family, Material, SnowRegression};
 use crate::physics::stack::{Boundary, ResolvedStack, Stack};
 
 /// State of one layer at steady state.
@@ -50,9 +50,9 @@ pub struct LayerResult {
     pub top_c: f64,
     pub bottom_c: f64,
     /// Effective resistance ΔT/q, m²K/W (d / mean k when q = 0).
-    pub r_m2k_per_w: f64,
+    pub r_m2k_w: f64,
     /// Mean conductivity over the layer's temperature span, W/m/K.
-    pub k_eff_w_per_m_k: f64,
+    pub k_eff_w_m_k: f64,
     pub state: LayerState,
 }
 
@@ -71,7 +71,7 @@ pub struct FaceResult {
     /// Air temperature, where the face meets air through a film.
     pub air_c: Option<f64>,
     pub surface_c: f64,
-    pub film_r_m2k_per_w: f64,
+    pub film_r_m2k_w: f64,
 }
 
 /// The steady solution.
@@ -79,13 +79,13 @@ pub struct FaceResult {
 pub struct SteadyResult {
     pub stack: ResolvedStack,
     /// W/m², positive from the top face towards the bottom face.
-    pub heat_flux_w_per_m2: f64,
+    pub heat_flux_w_m2: f64,
     /// Sum of the layers' resistances, surface to surface, m²K/W.
-    pub r_layers_m2k_per_w: f64,
+    pub r_layers_m2k_w: f64,
     /// Including both films (air to air), m²K/W.
-    pub r_total_m2k_per_w: f64,
+    pub r_total_m2k_w: f64,
     /// 1 / r_total, W/m²/K.
-    pub u_w_per_m2_k: f64,
+    pub u_w_m2k: f64,
     pub top: FaceResult,
     pub bottom: FaceResult,
     pub layers: Vec<LayerResult>,
@@ -115,8 +115,8 @@ fn march(s: &ResolvedStack, q: f64, temps: &mut Vec<f64>) -> Option<f64> {
     let mut t = match s.top {
         Boundary::Air {
             temperature_c,
-            film_w_per_m2_k,
-        } => temperature_c - q / film_w_per_m2_k,
+            film_w_m2k,
+        } => temperature_c - q / film_w_m2k,
         Boundary::Surface { temperature_c } => temperature_c,
     };
     temps.push(t);
@@ -125,9 +125,7 @@ fn march(s: &ResolvedStack, q: f64, temps: &mut Vec<f64>) -> Option<f64> {
         temps.push(t);
     }
     Some(match s.bottom {
-        Boundary::Air {
-            film_w_per_m2_k, ..
-        } => t - q / film_w_per_m2_k,
+        Boundary::Air { film_w_m2k, .. } => t - q / film_w_m2k,
         Boundary::Surface { .. } => t,
     })
 }
@@ -163,8 +161,8 @@ pub fn solve_resolved(s: ResolvedStack) -> Result<SteadyResult, SolveError> {
     } else {
         // Initial guess from conductivities at the mean temperature.
         let t_mean = 0.5 * (t_top + t_bot);
-        let r_guess: f64 = s.top.film_resistance_m2k_per_w()
-            + s.bottom.film_resistance_m2k_per_w()
+        let r_guess: f64 = s.top.film_resistance_m2k_w()
+            + s.bottom.film_resistance_m2k_w()
             + s.layers
                 .iter()
                 .zip(&s.materials)
@@ -262,14 +260,14 @@ fn assemble(s: ResolvedStack, q: f64, temps: &[f64]) -> SteadyResult {
             bottom_depth_m: zb,
             top_c: tt,
             bottom_c: tb,
-            r_m2k_per_w: r,
-            k_eff_w_per_m_k: k_eff,
+            r_m2k_w: r,
+            k_eff_w_m_k: k_eff,
             state,
         });
     }
-    let r_layers: f64 = layers.iter().map(|l| l.r_m2k_per_w).sum();
-    let r_top = s.top.film_resistance_m2k_per_w();
-    let r_bot = s.bottom.film_resistance_m2k_per_w();
+    let r_layers: f64 = layers.iter().map(|l| l.r_m2k_w).sum();
+    let r_top = s.top.film_resistance_m2k_w();
+    let r_bot = s.bottom.film_resistance_m2k_w();
     let r_total = r_layers + r_top + r_bot;
     let face = |b: &Boundary, surface_c: f64| FaceResult {
         air_c: match b {
@@ -277,15 +275,15 @@ fn assemble(s: ResolvedStack, q: f64, temps: &[f64]) -> SteadyResult {
             Boundary::Surface { .. } => None,
         },
         surface_c,
-        film_r_m2k_per_w: b.film_resistance_m2k_per_w(),
+        film_r_m2k_w: b.film_resistance_m2k_w(),
     };
     let top = face(&s.top, temps[0]);
     let bottom = face(&s.bottom, temps[temps.len() - 1]);
     SteadyResult {
-        heat_flux_w_per_m2: q,
-        r_layers_m2k_per_w: r_layers,
-        r_total_m2k_per_w: r_total,
-        u_w_per_m2_k: 1.0 / r_total,
+        heat_flux_w_m2: q,
+        r_layers_m2k_w: r_layers,
+        r_total_m2k_w: r_total,
+        u_w_m2k: 1.0 / r_total,
         top,
         bottom,
         layers,
@@ -311,7 +309,7 @@ impl SteadyResult {
             .unwrap_or(self.layers.len() - 1);
         let l = &self.layers[i];
         let law = &self.stack.materials[i].conductivity;
-        let phi = law.phi(l.top_c) - self.heat_flux_w_per_m2 * (z - l.top_depth_m);
+        let phi = law.phi(l.top_c) - self.heat_flux_w_m2 * (z - l.top_depth_m);
         law.phi_inverse(phi).unwrap_or(l.bottom_c)
     }
 
@@ -365,7 +363,7 @@ impl SteadyResult {
 /// One snow regression's result in the band.
 #[derive(Debug, Clone, PartialEq)]
 pub struct BandMember {
-    pub correlation: SnowCorrelation,
+    pub regression: SnowRegression,
     pub result: SteadyResult,
 }
 
@@ -376,7 +374,7 @@ pub struct SnowBand {
     pub members: Vec<BandMember>,
     /// Regressions that gave no solution (for example a fit with no positive conductivity
     /// at this density), with the reason.
-    pub skipped: Vec<(SnowCorrelation, String)>,
+    pub skipped: Vec<(SnowRegression, String)>,
     pub depths_m: Vec<f64>,
     pub min_c: Vec<f64>,
     pub max_c: Vec<f64>,
@@ -392,10 +390,10 @@ impl SnowBand {
             })
     }
     pub fn r_total_range(&self) -> (f64, f64) {
-        self.range(|r| r.r_total_m2k_per_w)
+        self.range(|r| r.r_total_m2k_w)
     }
     pub fn flux_range(&self) -> (f64, f64) {
-        self.range(|r| r.heat_flux_w_per_m2)
+        self.range(|r| r.heat_flux_w_m2)
     }
     /// Range of the shallowest 0 °C plane across regressions that have one.
     pub fn zero_depth_range(&self) -> Option<(f64, f64)> {
@@ -423,14 +421,14 @@ pub fn snow_band(stack: &Stack, depths_m: &[f64]) -> Option<SnowBand> {
     }
     let mut members = Vec::new();
     let mut skipped = Vec::new();
-    for c in SnowCorrelation::ALL {
+    for c in SnowRegression::ALL {
         let mut variant = stack.clone();
         for l in &mut variant.layers {
-            l.material = l.material.with_snow_correlation(c);
+            l.material = l.material.with_snow_regression(c);
         }
         match solve(&variant) {
             Ok(result) => members.push(BandMember {
-                correlation: c,
+                regression: c,
                 result,
             }),
             Err(e) => skipped.push((c, e.to_string())),

@@ -1,4 +1,4 @@
-//! Units at the edges. Everything inside is SI; a [`Quantity`] says how to show a value in
+//! Units for the faces. Everything inside is SI; a [`Quantity`] says how to show a value in
 //! either unit system: shown = SI × factor + offset.
 //!
 //! Conversion factors: NIST Special Publication 811 (2008 edition), Appendix B, using the

@@ -11,7 +11,7 @@ use wasm_bindgen::prelude::*;
 
 use crate::document::scenario;
 use crate::document::vocabulary::ErrorDoc;
-use crate::physics::materials::{Board, SnowCorrelation, SoilModel, Texture};
+use crate::physics::materials::{Board, SnowRegression, SoilModel, Texture};
 use crate::physics::stack::SURFACE_PRESETS;
 use crate::physics::units::{UnitSystem, QUANTITIES};
 
@@ -49,7 +49,7 @@ pub fn start() {
 }
 
 #[derive(Serialize)]
-struct CorrelationDoc {
+struct RegressionDoc {
     id: &'static str,
     name: &'static str,
     citation: &'static str,
@@ -120,7 +120,8 @@ struct QuantityInfo {
 struct Catalogue {
     version: &'static str,
     format_version: u32,
-    snow_correlations: Vec<CorrelationDoc>,
+    #[serde(rename = "snow_correlations")]
+    snow_regressions: Vec<RegressionDoc>,
     soil_textures: Vec<IdName>,
     soil_models: Vec<SoilModelInfo>,
     boards: Vec<BoardInfo>,
@@ -150,11 +151,11 @@ pub fn catalogue() -> JsValue {
     let c = Catalogue {
         version: env!("CARGO_PKG_VERSION"),
         format_version: scenario::FORMAT_VERSION,
-        snow_correlations: SnowCorrelation::ALL
+        snow_regressions: SnowRegression::ALL
             .iter()
             .map(|c| {
                 let (lo, hi) = c.valid_range_kg_m3();
-                CorrelationDoc {
+                RegressionDoc {
                     id: c.id(),
                     name: c.name(),
                     citation: c.citation(),
@@ -187,7 +188,7 @@ pub fn catalogue() -> JsValue {
             .map(|b| BoardInfo {
                 id: b.id(),
                 name: b.name(),
-                conductivity_w_m_k: b.nominal_conductivity_w_per_m_k(),
+                conductivity_w_m_k: b.nominal_conductivity_w_m_k(),
                 source: "typical value for the product class (common practice, no single source)",
             })
             .collect(),
@@ -196,7 +197,7 @@ pub fn catalogue() -> JsValue {
             .map(|p| PresetInfo {
                 id: p.id,
                 name: p.name,
-                film_w_m2k: p.film_w_per_m2_k,
+                film_w_m2k: p.film_w_m2k,
                 source: p.source,
             })
             .collect(),
@@ -580,20 +581,20 @@ fn step_outcome(
 
 /// The least-thickness search of a scenario's winter section, advanced a slice at a time
 /// (each of its runs is a whole winter). Never throws: problems come back through
-/// [`DesignRun::errors`] and `advance`.
+/// [`LeastThicknessRun::errors`] and `advance`.
 #[wasm_bindgen]
-pub struct DesignRun {
-    job: Option<crate::document::winter_least::DesignJob>,
+pub struct LeastThicknessRun {
+    job: Option<crate::document::winter_least::LeastThicknessJob>,
     report: Option<crate::document::winter::LeastThicknessReport>,
     errors: Vec<ErrorDoc>,
 }
 
 #[wasm_bindgen]
-impl DesignRun {
+impl LeastThicknessRun {
     /// Check the scenario (stack, winter section and its `least_thickness`) and set up.
     #[wasm_bindgen(constructor)]
-    pub fn new(scenario_value: JsValue) -> DesignRun {
-        let fail = |errors: Vec<ErrorDoc>| DesignRun {
+    pub fn new(scenario_value: JsValue) -> LeastThicknessRun {
+        let fail = |errors: Vec<ErrorDoc>| LeastThicknessRun {
             job: None,
             report: None,
             errors,
@@ -608,8 +609,8 @@ impl DesignRun {
                 "the scenario has no winter section",
             )]);
         };
-        match crate::document::winter_least::DesignJob::new(w, &c.result.stack, &s.layers) {
-            Ok(job) => DesignRun {
+        match crate::document::winter_least::LeastThicknessJob::new(w, &c.result.stack, &s.layers) {
+            Ok(job) => LeastThicknessRun {
                 job: Some(job),
                 report: None,
                 errors: Vec::new(),
@@ -812,28 +813,28 @@ fn edge_job<J>(
 
 /// The search of a scenario's `edge.least` (the least wing width, board R-value or footing
 /// depth that keeps frost at or above the footing base), run a slice at a time like
-/// [`DesignRun`]: each trial is a whole winter of the section. The constructor never throws.
+/// [`LeastThicknessRun`]: each trial is a whole winter of the section. The constructor never throws.
 #[wasm_bindgen]
-pub struct EdgeDesignRun {
+pub struct EdgeLeastRun {
     job: Option<crate::document::edge_least::EdgeLeastJob>,
     report: Option<crate::document::edge::EdgeLeastReport>,
     errors: Vec<ErrorDoc>,
 }
 
 #[wasm_bindgen]
-impl EdgeDesignRun {
+impl EdgeLeastRun {
     /// Check the scenario's edge section and its `least` and set up.
     #[wasm_bindgen(constructor)]
-    pub fn new(scenario_value: JsValue) -> EdgeDesignRun {
+    pub fn new(scenario_value: JsValue) -> EdgeLeastRun {
         match edge_job(scenario_value, |d| {
             crate::document::edge_least::EdgeLeastJob::new(d)
         }) {
-            Ok(job) => EdgeDesignRun {
+            Ok(job) => EdgeLeastRun {
                 job: Some(job),
                 report: None,
                 errors: Vec::new(),
             },
-            Err(errors) => EdgeDesignRun {
+            Err(errors) => EdgeLeastRun {
                 job: None,
                 report: None,
                 errors,
@@ -1253,7 +1254,7 @@ impl RangesStudy {
                 index: Some(input),
                 regression: None,
             },
-            Task::Correlation(c) => Kind {
+            Task::Regression(c) => Kind {
                 kind: "regression",
                 index: None,
                 regression: Some(c.id()),

@@ -88,7 +88,7 @@ const search = searchBox({
   draft: designDraft,
   typed: (d) => typedErrors([[d, '']]),
   keep: (d) => { state.scenario.edge.least = clone(d); },
-  make: () => new core.W.EdgeDesignRun(edgeScenario()),
+  make: () => new core.W.EdgeLeastRun(edgeScenario()),
   describe: describePath,
   render: renderDesignReport,
 });

@@ -62,7 +62,7 @@ const search = searchBox({
   draft: designDraft,
   typed: (d) => typedErrors([[d, ''], [d.keep_frost_above, '']]),
   keep: (d) => { state.scenario.winter.least_thickness = clone(d); },
-  make: () => new core.W.DesignRun(scenarioWithout('ranges')),
+  make: () => new core.W.LeastThicknessRun(scenarioWithout('ranges')),
   describe: describeWinterPath,
   render: renderDesignReport,
 });

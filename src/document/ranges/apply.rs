@@ -2,7 +2,7 @@ use super::{RangeResult, RangedWhat};
 use crate::document::scenario::Scenario;
 use crate::document::vocabulary::{LayerDoc, MaterialDoc};
 use crate::document::weather::{ClimateDoc, SurfaceDoc};
-use crate::physics::materials::SnowCorrelation;
+use crate::physics::materials::SnowRegression;
 
 fn soil_fields(m: &mut MaterialDoc) -> Option<(&mut f64, &mut f64)> {
     match m {
@@ -310,26 +310,26 @@ pub fn result_has_snow(s: &Scenario, r: RangeResult) -> bool {
 }
 
 /// Every snow regression in the scenario set to `c`.
-pub fn set_correlation(s: &mut Scenario, c: SnowCorrelation) {
+pub fn set_regression(s: &mut Scenario, c: SnowRegression) {
     let doc = c.into();
     for l in s.layers.iter_mut() {
-        if let MaterialDoc::Snow { correlation, .. } = &mut l.material {
-            *correlation = doc;
+        if let MaterialDoc::Snow { regression, .. } = &mut l.material {
+            *regression = doc;
         }
     }
     if let Some(sh) = s.shelter.as_mut() {
-        sh.snow_correlation = doc;
+        sh.snow_regression = doc;
     }
     if let Some(SurfaceDoc::Film {
-        snow_correlation, ..
+        snow_regression, ..
     }) = s.winter.as_mut().map(|w| &mut w.surface)
     {
-        *snow_correlation = doc;
+        *snow_regression = doc;
     }
     if let Some(SurfaceDoc::Film {
-        snow_correlation, ..
+        snow_regression, ..
     }) = s.edge.as_mut().map(|e| &mut e.outside)
     {
-        *snow_correlation = doc;
+        *snow_regression = doc;
     }
 }

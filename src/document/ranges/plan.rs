@@ -1,4 +1,4 @@
-use super::apply::{apply, base_value, result_has_snow, set_correlation};
+use super::apply::{apply, base_value, result_has_snow, set_regression};
 use super::report::{
     MemberDoc, PastLimitDoc, RangeResultReport, RangedInputReport, RangesReport, SpreadDoc,
     SwingDoc, TrialDoc,
@@ -7,9 +7,9 @@ use super::{RangeResult, RangedInputDoc, RangesDoc, LISTED_FAILURES, MAX_SEED};
 use crate::document::scenario::Scenario;
 use crate::document::vocabulary::ErrorDoc;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
-use crate::physics::materials::SnowCorrelation;
+use crate::physics::materials::SnowRegression;
 use crate::physics::ranges;
-use crate::physics::ranges::{MonteCarloJob, UncertainInput};
+use crate::physics::ranges::{MonteCarloJob, RangedInput};
 
 /// One task of a study.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -21,7 +21,7 @@ pub enum Task {
     /// Input i at its low end (`high` false) or high end, the others as written.
     End { input: usize, high: bool },
     /// The scenario as written under one snow regression.
-    Correlation(SnowCorrelation),
+    Regression(SnowRegression),
 }
 
 /// What one task gave: per result, its value or why there is none.
@@ -36,9 +36,9 @@ pub struct RangesPlan {
     /// The scenario as written, without its ranges and its least-size searches.
     base: Scenario,
     doc: RangesDoc,
-    inputs: Vec<UncertainInput>,
+    inputs: Vec<RangedInput>,
     results: Vec<RangeResult>,
-    correlations: Vec<SnowCorrelation>,
+    regressions: Vec<SnowRegression>,
     base_values: Vec<Option<f64>>,
 }
 
@@ -98,10 +98,10 @@ impl RangesPlan {
                 InputErrorKind::NotCovered("the scenario has no result to give a range for".into()),
             );
         }
-        let inputs: Vec<UncertainInput> = doc
+        let inputs: Vec<RangedInput> = doc
             .inputs
             .iter()
-            .map(|d| UncertainInput {
+            .map(|d| RangedInput {
                 id: match d.layer {
                     Some(k) => format!("{} (layer {})", d.what.id(), k + 1),
                     None => d.what.id().to_string(),
@@ -165,8 +165,8 @@ impl RangesPlan {
             }
         }
         errs.into_result()?;
-        let correlations = if results.iter().any(|&r| result_has_snow(&base, r)) {
-            SnowCorrelation::ALL.to_vec()
+        let regressions = if results.iter().any(|&r| result_has_snow(&base, r)) {
+            SnowRegression::ALL.to_vec()
         } else {
             Vec::new()
         };
@@ -175,7 +175,7 @@ impl RangesPlan {
             doc,
             inputs,
             results,
-            correlations,
+            regressions,
             base_values,
         })
     }
@@ -189,17 +189,17 @@ impl RangesPlan {
     pub fn results(&self) -> &[RangeResult] {
         &self.results
     }
-    pub fn inputs(&self) -> &[UncertainInput] {
+    pub fn inputs(&self) -> &[RangedInput] {
         &self.inputs
     }
     /// The snow regressions the spread is taken over (none when there is no snow).
-    pub fn correlations(&self) -> &[SnowCorrelation] {
-        &self.correlations
+    pub fn regressions(&self) -> &[SnowRegression] {
+        &self.regressions
     }
 
     /// Number of tasks: runs + 1 + 2 × inputs + regressions.
     pub fn task_count(&self) -> usize {
-        self.doc.runs + 1 + 2 * self.inputs.len() + self.correlations.len()
+        self.doc.runs + 1 + 2 * self.inputs.len() + self.regressions.len()
     }
 
     /// Task `k` (None past the last).
@@ -217,9 +217,9 @@ impl RangesPlan {
                 high: j % 2 == 1,
             })
         } else {
-            self.correlations
+            self.regressions
                 .get(k - runs - 1 - 2 * n)
-                .map(|&c| Task::Correlation(c))
+                .map(|&c| Task::Regression(c))
         }
     }
 
@@ -246,7 +246,7 @@ impl RangesPlan {
                 let inp = &self.inputs[input];
                 set(&mut s, input, if high { inp.high } else { inp.low })?;
             }
-            Task::Correlation(c) => set_correlation(&mut s, c),
+            Task::Regression(c) => set_regression(&mut s, c),
         }
         Ok(s)
     }
@@ -332,7 +332,7 @@ impl RangesPlan {
             let spread = result_has_snow(&self.base, r).then(|| {
                 let mut members = Vec::new();
                 let mut skipped = Vec::new();
-                for (j, &c) in self.correlations.iter().enumerate() {
+                for (j, &c) in self.regressions.iter().enumerate() {
                     match value(runs + 1 + 2 * n + j) {
                         Ok(v) => members.push(MemberDoc {
                             id: c.id(),
@@ -460,7 +460,7 @@ pub fn evaluate_all(s: &Scenario, results: &[RangeResult]) -> Vec<Result<f64, St
             RangeResult::RValue => steady
                 .get_or_insert_with(|| crate::document::steady::compute(s).map_err(msg))
                 .as_ref()
-                .map(|c| c.result.r_total_m2k_per_w)
+                .map(|c| c.result.r_total_m2k_w)
                 .map_err(Clone::clone),
             RangeResult::FrostDepth => {
                 let w = s.winter.as_ref().ok_or("the scenario has no winter")?;
@@ -485,7 +485,7 @@ pub fn evaluate_all(s: &Scenario, results: &[RangeResult]) -> Vec<Result<f64, St
                 });
                 let report = report.as_ref().map_err(Clone::clone)?;
                 Ok(if r == RangeResult::ShelterMelt {
-                    report.melt_kg_per_h
+                    report.melt_kg_h
                 } else {
                     report.interior_c
                 })

@@ -8,7 +8,7 @@ use super::section::{
     WallBoard, Wing,
 };
 use crate::physics::climate::Climate;
-use crate::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use crate::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
 use crate::physics::transient::BottomCondition;
 
 const DAY: f64 = 86_400.0;
@@ -34,7 +34,7 @@ pub fn xps_50mm() -> Board {
 pub fn design_winter_section() -> EdgeSection {
     let mut w = Vec::new();
     let concrete = MaterialSpec::Concrete {
-        conductivity_w_per_m_k: None,
+        conductivity_w_m_k: None,
     }
     .resolve("concrete", &mut w)
     .expect("concrete resolves");
@@ -98,12 +98,12 @@ pub fn design_winter_section() -> EdgeSection {
         },
         outside: Outside::Film {
             film_w_m2k: 15.0,
-            snow_correlation: SnowCorrelation::ALL[0],
+            snow_regression: SnowRegression::ALL[0],
         },
         bottom: BottomCondition::Flux { upward_w_m2: 0.05 },
         start: StartTemperature {
             surface_c: 4.0,
-            gradient_k_per_m: 0.2,
+            gradient_k_m: 0.2,
         },
         grid: AxisSpacing {
             fine_m: 0.04,

@@ -1,4 +1,4 @@
-//! Inverse design at the edge: the least wing width, wing or wall-board R-value, or footing
+//! The least insulation at the edge: the least wing width, wing or wall-board R-value, or footing
 //! depth for which frost stays at or above the footing's base through the winter, each trial
 //! a whole 2D run of the section ([`super::run::EdgeRun`]).
 //!
@@ -17,7 +17,7 @@
 //! cell from trial to trial and can jump across the answer (a frozen pocket under the
 //! footing vanishes, or the footing's lowest cell warms above 0 °C, at once): the search's
 //! bisection safeguard handles that, and the report gives the jump beside the slope. The
-//! design grid reads the answer a few per cent short of a grid twice as fine (the demo's
+//! benchmark grid reads the answer a few per cent short of a grid twice as fine (the demo's
 //! wing width 0.69 m against 0.72 m; see the contributor guide): a design check should be
 //! repeated on a finer grid.
 //!
@@ -30,7 +30,7 @@ use super::run::{EdgeError, EdgeResult, EdgeRun};
 use super::section::EdgeSection;
 use crate::physics::climate::Climate;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};
-use crate::physics::least::{DesignAnswer, Search, Searcher, Trial};
+use crate::physics::least::{LeastAnswer, Search, Searcher, Trial};
 use crate::physics::transient::run::Progress;
 
 /// A wing narrower than this runs without the wing, m (the section's smallest wing width).
@@ -41,7 +41,7 @@ pub const MIN_WING_WIDTH_M: f64 = 0.05;
 pub const MIN_BOARD_THICKNESS_M: f64 = 0.001;
 
 /// At most this many runs in one search (each a whole winter in 2D: about 0.5 s natively
-/// and 1 s as wasm on the design grid; a setting of this tool). A search that reaches it
+/// and 1 s as wasm on the benchmark grid; a setting of this tool). A search that reaches it
 /// before its bracket is narrower than the resolution ends with [`EdgeOutcome::RunLimit`].
 pub const MAX_EDGE_RUNS: usize = 16;
 
@@ -189,7 +189,7 @@ pub struct EdgeTrial {
     pub frost_below_base_m: f64,
 }
 
-/// How a search ended (the kinds of [`DesignAnswer`], and the run cap).
+/// How a search ended (the kinds of [`LeastAnswer`], and the run cap).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum EdgeOutcome {
     /// The least value, to the resolution: a run at it holds the limit, and a run at the
@@ -221,7 +221,7 @@ impl EdgeOutcome {
 
 /// The search's report (SI).
 #[derive(Debug, Clone, PartialEq)]
-pub struct EdgeDesignReport {
+pub struct EdgeLeastAnswer {
     pub quantity: EdgeQuantity,
     pub outcome: EdgeOutcome,
     /// The least value that holds the limit (`Found`, `RunLimit`), or the range's smallest
@@ -250,7 +250,7 @@ pub struct EdgeDesignReport {
 /// Why a search could not start or go on.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 #[non_exhaustive]
-pub enum EdgeDesignError {
+pub enum EdgeLeastError {
     /// Bad settings or a section the quantity cannot vary (fields named).
     #[error("{0}")]
     Input(InputErrors),
@@ -259,15 +259,15 @@ pub enum EdgeDesignError {
     Run { value: f64, error: EdgeError },
 }
 
-impl From<InputErrors> for EdgeDesignError {
+impl From<InputErrors> for EdgeLeastError {
     fn from(e: InputErrors) -> Self {
-        EdgeDesignError::Input(e)
+        EdgeLeastError::Input(e)
     }
 }
 
 /// A search under way, advanced a slice at a time; each trial is a whole 2D run.
 #[derive(Debug, Clone)]
-pub struct EdgeDesignJob {
+pub struct EdgeLeastSearch {
     section: EdgeSection,
     climate: Climate,
     quantity: EdgeQuantity,
@@ -289,8 +289,8 @@ fn bisection_runs(min: f64, max: f64, resolution: f64) -> usize {
     2 + ((max - min) / resolution).log2().ceil().max(0.0) as usize
 }
 
-impl EdgeDesignJob {
-    /// Check the settings (`{prefix}.design.min`, `.max`, `.resolution`), the section with the
+impl EdgeLeastSearch {
+    /// Check the settings (`{prefix}.least.min`, `.max`, `.resolution`), the section with the
     /// quantity at both ends of the range (the section's fields under `prefix`) and the
     /// climate (under `{prefix}.climate`), and set up. `min < max`, `resolution > 0` and
     /// smaller than the range.
@@ -302,9 +302,9 @@ impl EdgeDesignJob {
         max: f64,
         resolution: f64,
         prefix: &str,
-    ) -> Result<EdgeDesignJob, EdgeDesignError> {
+    ) -> Result<EdgeLeastSearch, EdgeLeastError> {
         let mut errs = InputErrors::default();
-        let f = |k: &str| format!("{prefix}.design.{k}");
+        let f = |k: &str| format!("{prefix}.least.{k}");
         let mut ok = true;
         for (k, v) in [("min", min), ("max", max)] {
             if !v.is_finite() {
@@ -364,7 +364,7 @@ impl EdgeDesignJob {
         // The search reads only the records: keep the fields at the start and the end.
         section.field_every_s = section.duration_s;
         let max_runs = MAX_EDGE_RUNS;
-        Ok(EdgeDesignJob {
+        Ok(EdgeLeastSearch {
             section,
             climate: climate.clone(),
             quantity,
@@ -413,7 +413,7 @@ impl EdgeDesignJob {
     /// a finished run is handed to the search and the next trial starts in the same call.
     /// The fraction is the runs done (the current one in part) over the runs a bisection
     /// would take, never decreasing, 1 only at the end.
-    pub fn advance(&mut self, max_steps: usize) -> Result<Progress, EdgeDesignError> {
+    pub fn advance(&mut self, max_steps: usize) -> Result<Progress, EdgeLeastError> {
         let mut budget = max_steps;
         while budget > 0 {
             if self.current.is_none() {
@@ -422,7 +422,7 @@ impl EdgeDesignJob {
                 };
                 let s = self.quantity.apply(&self.section, x, &self.prefix)?;
                 let r = EdgeRun::new(&s, &self.prefix)
-                    .map_err(|error| EdgeDesignError::Run { value: x, error })?;
+                    .map_err(|error| EdgeLeastError::Run { value: x, error })?;
                 self.current = Some((x, s.wall.base_depth_m, r));
             }
             let Some((x, base, r)) = self.current.as_mut() else {
@@ -433,7 +433,7 @@ impl EdgeDesignJob {
             // the budget to the next trial.
             let p = r
                 .advance(&self.climate, 1)
-                .map_err(|error| EdgeDesignError::Run { value: x, error })?;
+                .map_err(|error| EdgeLeastError::Run { value: x, error })?;
             budget -= 1;
             if p.finished {
                 if let Some((_, _, r)) = self.current.take() {
@@ -445,7 +445,7 @@ impl EdgeDesignJob {
         Ok(self.progress())
     }
 
-    /// How far the search has got (see [`EdgeDesignJob::advance`]).
+    /// How far the search has got (see [`EdgeLeastSearch::advance`]).
     pub fn progress(&self) -> Progress {
         Progress {
             fraction: self.fraction,
@@ -470,14 +470,14 @@ impl EdgeDesignJob {
     }
 
     /// The report, once the search has ended (`None` before).
-    pub fn report(&self) -> Option<EdgeDesignReport> {
+    pub fn report(&self) -> Option<EdgeLeastAnswer> {
         let answer = self.searcher.answer()?;
         let trials = self.trials();
         let last = trials.last().copied().unwrap_or(EdgeTrial {
             value: self.min,
             frost_below_base_m: 0.0,
         });
-        let base = |outcome, value, frost_below_base_m, slope, jump_m, bracket| EdgeDesignReport {
+        let base = |outcome, value, frost_below_base_m, slope, jump_m, bracket| EdgeLeastAnswer {
             quantity: self.quantity,
             outcome,
             value,
@@ -489,7 +489,7 @@ impl EdgeDesignJob {
             trials: trials.clone(),
         };
         Some(match answer {
-            DesignAnswer::Found {
+            LeastAnswer::Found {
                 value,
                 frost_depth_m,
                 limit_m,
@@ -524,7 +524,7 @@ impl EdgeDesignJob {
                     fail.is_finite().then_some((fail, *value)),
                 )
             }
-            DesignAnswer::SmallestSuffices { trial } => base(
+            LeastAnswer::SmallestSuffices { trial } => base(
                 EdgeOutcome::SmallestSuffices,
                 Some(trial.value),
                 trial.excess_m(),
@@ -532,7 +532,7 @@ impl EdgeDesignJob {
                 None,
                 None,
             ),
-            DesignAnswer::NotReachable { trial } => base(
+            LeastAnswer::NotReachable { trial } => base(
                 EdgeOutcome::NotReachable,
                 None,
                 trial.excess_m(),
@@ -540,7 +540,7 @@ impl EdgeDesignJob {
                 None,
                 None,
             ),
-            DesignAnswer::NotMonotone { .. } => base(
+            LeastAnswer::NotMonotone { .. } => base(
                 EdgeOutcome::NotMonotone,
                 None,
                 last.frost_below_base_m,
@@ -557,7 +557,7 @@ impl EdgeDesignJob {
     /// annual temperature stay; only a [`Climate::DesignWinter`] can be scaled (otherwise a
     /// typed error naming `{prefix}.climate`), and the scaled winter must still be valid
     /// (its warm part must not freeze: M ≥ −F/365).
-    pub fn under_scaled_winter(&self, factor: f64) -> Result<EdgeDesignJob, EdgeDesignError> {
+    pub fn under_scaled_winter(&self, factor: f64) -> Result<EdgeLeastSearch, EdgeLeastError> {
         let field = format!("{}.climate", self.prefix);
         let Climate::DesignWinter {
             freezing_index_c_days,
@@ -587,7 +587,7 @@ impl EdgeDesignJob {
             mean_annual_c: *mean_annual_c,
             snow: *snow,
         };
-        let mut job = EdgeDesignJob::new(
+        let mut job = EdgeLeastSearch::new(
             &self.section,
             &climate,
             self.quantity,
@@ -601,12 +601,12 @@ impl EdgeDesignJob {
     }
 
     /// Drive the job to its end and report.
-    pub fn finish(mut self) -> Result<EdgeDesignReport, EdgeDesignError> {
+    pub fn finish(mut self) -> Result<EdgeLeastAnswer, EdgeLeastError> {
         while !self.advance(usize::MAX)?.finished {}
         self.report().ok_or_else(|| {
-            EdgeDesignError::Input(
+            EdgeLeastError::Input(
                 InputError::new(
-                    format!("{}.design", self.prefix),
+                    format!("{}.least", self.prefix),
                     InputErrorKind::NotCovered("the search ended without an answer".into()),
                 )
                 .into(),
@@ -634,7 +634,7 @@ fn edge_trial(t: &Trial) -> EdgeTrial {
 
 /// The least value of `quantity` in `[min, max]` (to `resolution`) for which frost stays at
 /// or above the footing's base through the run of `section` under `climate`:
-/// [`EdgeDesignJob`] driven to its end in one call.
+/// [`EdgeLeastSearch`] driven to its end in one call.
 pub fn least_edge_value(
     section: &EdgeSection,
     climate: &Climate,
@@ -643,6 +643,6 @@ pub fn least_edge_value(
     max: f64,
     resolution: f64,
     prefix: &str,
-) -> Result<EdgeDesignReport, EdgeDesignError> {
-    EdgeDesignJob::new(section, climate, quantity, min, max, resolution, prefix)?.finish()
+) -> Result<EdgeLeastAnswer, EdgeLeastError> {
+    EdgeLeastSearch::new(section, climate, quantity, min, max, resolution, prefix)?.finish()
 }

@@ -132,13 +132,13 @@ impl EdgeRun {
         let outside = match self.section.outside {
             Outside::Film {
                 film_w_m2k,
-                snow_correlation,
+                snow_regression,
             } => {
                 let extra = forcing
                     .snow(t)
                     .filter(|&(d, rho)| d > 0.0 && rho > 0.0 && d.is_finite())
                     .map(|(d, rho)| {
-                        let k = snow_correlation.conductivity_w_per_m_k(rho);
+                        let k = snow_regression.conductivity_w_m_k(rho);
                         if k > 0.0 && k.is_finite() {
                             d / k
                         } else {

@@ -3,7 +3,7 @@
 use super::axis::{self, AxisSpacing};
 use super::plane::Plane;
 use crate::physics::error::{check, InputErrorKind, InputErrors};
-use crate::physics::materials::{ConductivityLaw, Material, SnowCorrelation};
+use crate::physics::materials::{ConductivityLaw, Material, SnowRegression};
 use crate::physics::transient::phase::{Phase, UnfrozenWater};
 use crate::physics::transient::BottomCondition;
 
@@ -123,10 +123,10 @@ pub enum Inside {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Outside {
     /// Air through a film; the forcing's snow is a resistance depth/k(ρ) in series, k from
-    /// `snow_correlation` at the snow's density.
+    /// `snow_regression` at the snow's density.
     Film {
         film_w_m2k: f64,
-        snow_correlation: SnowCorrelation,
+        snow_regression: SnowRegression,
     },
     /// Surface held at n × air temperature (freezing n below 0 °C, thawing above; US Army
     /// TM 5-852-6 / UFC 3-130-04 n-factor method). The forcing's snow is not used.
@@ -138,7 +138,7 @@ pub enum Outside {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct StartTemperature {
     pub surface_c: f64,
-    pub gradient_k_per_m: f64,
+    pub gradient_k_m: f64,
 }
 
 /// How fine the grid is: cells of `fine_m` at grade, at the slab's underside, at the wall's
@@ -217,7 +217,7 @@ fn check_material(errs: &mut InputErrors, field: &str, m: &Material) {
             return;
         }
     }
-    if !(m.c_frozen_j_per_m3_k > 0.0 && m.c_unfrozen_j_per_m3_k > 0.0) {
+    if !(m.c_frozen_j_m3k > 0.0 && m.c_unfrozen_j_m3k > 0.0) {
         errs.push(
             &f,
             InputErrorKind::NotCovered("the material has no positive heat capacity".into()),
@@ -410,7 +410,7 @@ impl EdgeSection {
         check::within(
             &mut e,
             &f("start.gradient_k_per_m"),
-            self.start.gradient_k_per_m,
+            self.start.gradient_k_m,
             -1.0,
             1.0,
             "K/m",
@@ -591,7 +591,7 @@ impl EdgeSection {
         let base_row = axis::nearest_face(&z_faces, base);
         let start = self.start;
         let plane = Plane::new(x_faces, z_faces, phases, top_group, 3, move |z| {
-            start.surface_c + start.gradient_k_per_m * z
+            start.surface_c + start.gradient_k_m * z
         });
         Ok(Layout {
             plane,

@@ -13,12 +13,12 @@ pub const KELVIN_OFFSET: f64 = 273.15;
 /// Thermal conductivity of ice Ih, W/m/K: k(T) = 9.828 exp(−0.0057 T), T in K
 /// (the fit reported by Yen 1981, CRREL Report 81-10; recalled from the literature).
 /// Gives 2.07 at 0 °C and 2.19 at −10 °C. Valid about −100 °C to 0 °C.
-pub fn ice_conductivity_w_per_m_k(t_c: f64) -> f64 {
+pub fn ice_conductivity_w_m_k(t_c: f64) -> f64 {
     9.828 * (-0.0057 * (t_c + KELVIN_OFFSET)).exp()
 }
 
-/// ∫ k_ice dT from 0 °C to `t_c`, W/m (the Kirchhoff transform of [`ice_conductivity_w_per_m_k`]).
-pub fn ice_kirchhoff_w_per_m(t_c: f64) -> f64 {
+/// ∫ k_ice dT from 0 °C to `t_c`, W/m (the Kirchhoff transform of [`ice_conductivity_w_m_k`]).
+pub fn ice_kirchhoff_w_m(t_c: f64) -> f64 {
     let a = 9.828;
     let b = 0.0057;
     // ∫ a e^{-b(T+273.15)} dT = -(a/b) e^{-b(T+273.15)}
@@ -26,7 +26,7 @@ pub fn ice_kirchhoff_w_per_m(t_c: f64) -> f64 {
     f(t_c) - f(0.0)
 }
 
-/// Inverse of [`ice_kirchhoff_w_per_m`]: the temperature (°C) whose transform is `phi`.
+/// Inverse of [`ice_kirchhoff_w_m`]: the temperature (°C) whose transform is `phi`.
 /// Returns `None` when `phi` lies beyond the transform's range (no such temperature).
 pub fn ice_kirchhoff_inverse_c(phi: f64) -> Option<f64> {
     let a = 9.828;
@@ -43,7 +43,7 @@ pub fn ice_kirchhoff_inverse_c(phi: f64) -> Option<f64> {
 /// Specific heat of ice Ih, J/kg/K: c = 152.5 + 7.122 T, T in K (Dorsey 1940 fit as given by
 /// Yen 1981, recalled from the literature). Checked against IAPWS R10-06 in the tests
 /// (2097 J/kg/K at 0 °C, about 2023 at −10 °C). Valid about −100 °C to 0 °C.
-pub fn ice_specific_heat_j_per_kg_k(t_c: f64) -> f64 {
+pub fn ice_specific_heat_j_kg_k(t_c: f64) -> f64 {
     152.5 + 7.122 * (t_c + KELVIN_OFFSET)
 }
 

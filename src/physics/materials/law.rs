@@ -23,7 +23,7 @@ impl Branch {
     pub fn k(self, t_c: f64) -> f64 {
         match self {
             Branch::Constant(k) => k,
-            Branch::IceIh => ice::ice_conductivity_w_per_m_k(t_c),
+            Branch::IceIh => ice::ice_conductivity_w_m_k(t_c),
             Branch::Linear { k0, slope } => k0 + slope * t_c,
         }
     }
@@ -32,7 +32,7 @@ impl Branch {
     pub fn phi(self, t_c: f64) -> f64 {
         match self {
             Branch::Constant(k) => k * t_c,
-            Branch::IceIh => ice::ice_kirchhoff_w_per_m(t_c),
+            Branch::IceIh => ice::ice_kirchhoff_w_m(t_c),
             Branch::Linear { k0, slope } => k0 * t_c + 0.5 * slope * t_c * t_c,
         }
     }

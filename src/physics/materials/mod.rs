@@ -12,7 +12,7 @@ pub mod snow;
 pub mod soil;
 
 pub use law::{Branch, ConductivityLaw};
-pub use snow::SnowCorrelation;
+pub use snow::SnowRegression;
 pub use soil::{SoilInput, SoilModel, SoilProperties, Texture};
 
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};
@@ -55,7 +55,7 @@ impl Board {
             Board::MineralWool => "Mineral wool board",
         }
     }
-    pub fn nominal_conductivity_w_per_m_k(self) -> f64 {
+    pub fn nominal_conductivity_w_m_k(self) -> f64 {
         match self {
             Board::ExtrudedPolystyrene => 0.029,
             Board::ExpandedPolystyrene => 0.036,
@@ -85,7 +85,7 @@ const CONCRETE_SPECIFIC_HEAT: f64 = 880.0;
 pub enum MaterialSpec {
     Snow {
         density_kg_m3: f64,
-        correlation: SnowCorrelation,
+        regression: SnowRegression,
     },
     Ice,
     Water,
@@ -94,20 +94,20 @@ pub enum MaterialSpec {
     Insulation {
         board: Board,
         /// `None`: the board's nominal conductivity.
-        conductivity_w_per_m_k: Option<f64>,
+        conductivity_w_m_k: Option<f64>,
         /// Share of the R-value lost to absorbed moisture in buried use, percent.
         moisture_derating_pct: f64,
     },
     Concrete {
-        conductivity_w_per_m_k: Option<f64>,
+        conductivity_w_m_k: Option<f64>,
     },
     Custom {
         label: String,
-        conductivity_w_per_m_k: f64,
+        conductivity_w_m_k: f64,
         /// `None`: same as unfrozen.
-        frozen_conductivity_w_per_m_k: Option<f64>,
+        frozen_conductivity_w_m_k: Option<f64>,
         density_kg_m3: f64,
-        specific_heat_j_per_kg_k: f64,
+        specific_heat_j_kg_k: f64,
     },
 }
 
@@ -136,10 +136,10 @@ pub struct Material {
     /// Density, kg/m³ (bulk, wet where the material holds water).
     pub density_kg_m3: f64,
     /// Volumetric heat capacity below and above 0 °C, J/m³/K.
-    pub c_frozen_j_per_m3_k: f64,
-    pub c_unfrozen_j_per_m3_k: f64,
+    pub c_frozen_j_m3k: f64,
+    pub c_unfrozen_j_m3k: f64,
     /// Latent heat released on freezing, J/m³.
-    pub latent_j_per_m3: f64,
+    pub latent_j_m3: f64,
     /// Temperature range (°C) over which the properties hold; outside it, a warning.
     pub valid_temperature_c: (f64, f64),
 }
@@ -155,7 +155,7 @@ impl MaterialSpec {
         match self {
             MaterialSpec::Snow {
                 density_kg_m3,
-                correlation,
+                regression,
             } => {
                 let f = format!("{field}.density_kg_m3");
                 let rho = *density_kg_m3;
@@ -182,53 +182,53 @@ impl MaterialSpec {
                     }
                 }
                 errs.into_result()?;
-                let (lo, hi) = correlation.valid_range_kg_m3();
+                let (lo, hi) = regression.valid_range_kg_m3();
                 if rho < lo || rho > hi {
                     warnings.push(Warning {
                         field: f.clone(),
                         message: format!(
                             "{} was fitted for {lo:.0}–{hi:.0} kg/m³; {rho:.0} kg/m³ is outside that range",
-                            correlation.name()
+                            regression.name()
                         ),
                     });
                 }
-                let k = correlation.conductivity_w_per_m_k(rho);
+                let k = regression.conductivity_w_m_k(rho);
                 if k.is_nan() || k <= 0.0 {
                     return Err(InputError::new(
                         f,
                         InputErrorKind::NotCovered(format!(
                             "{} gives no positive conductivity at {rho:.0} kg/m³",
-                            correlation.name()
+                            regression.name()
                         )),
                     )
                     .into());
                 }
                 // Dry snow: heat capacity per kg = that of ice (taken at −5 °C).
-                let c = rho * ice::ice_specific_heat_j_per_kg_k(-5.0);
+                let c = rho * ice::ice_specific_heat_j_kg_k(-5.0);
                 Ok(Material {
                     family: Family::Snow,
-                    label: format!("Snow {rho:.0} kg/m³, {}", correlation.name()),
+                    label: format!("Snow {rho:.0} kg/m³, {}", regression.name()),
                     conductivity: ConductivityLaw::constant(k),
                     freezes: false,
                     density_kg_m3: rho,
-                    c_frozen_j_per_m3_k: c,
-                    c_unfrozen_j_per_m3_k: c,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: c,
+                    c_unfrozen_j_m3k: c,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (-60.0, 0.0),
                 })
             }
             MaterialSpec::Ice => {
                 let rho = ice::ICE_DENSITY_0C_KG_M3;
-                let c = rho * ice::ice_specific_heat_j_per_kg_k(-5.0);
+                let c = rho * ice::ice_specific_heat_j_kg_k(-5.0);
                 Ok(Material {
                     family: Family::Ice,
                     label: "Ice".into(),
                     conductivity: ConductivityLaw::same(Branch::IceIh),
                     freezes: false,
                     density_kg_m3: rho,
-                    c_frozen_j_per_m3_k: c,
-                    c_unfrozen_j_per_m3_k: c,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: c,
+                    c_unfrozen_j_m3k: c,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (-100.0, 0.0),
                 })
             }
@@ -241,11 +241,9 @@ impl MaterialSpec {
                 },
                 freezes: true,
                 density_kg_m3: ice::WATER_DENSITY_KG_M3,
-                c_frozen_j_per_m3_k: ice::ICE_DENSITY_0C_KG_M3
-                    * ice::ice_specific_heat_j_per_kg_k(-5.0),
-                c_unfrozen_j_per_m3_k: ice::WATER_DENSITY_KG_M3
-                    * ice::WATER_SPECIFIC_HEAT_J_PER_KG_K,
-                latent_j_per_m3: ice::ICE_DENSITY_0C_KG_M3 * ice::LATENT_HEAT_FUSION_J_PER_KG,
+                c_frozen_j_m3k: ice::ICE_DENSITY_0C_KG_M3 * ice::ice_specific_heat_j_kg_k(-5.0),
+                c_unfrozen_j_m3k: ice::WATER_DENSITY_KG_M3 * ice::WATER_SPECIFIC_HEAT_J_PER_KG_K,
+                latent_j_m3: ice::ICE_DENSITY_0C_KG_M3 * ice::LATENT_HEAT_FUSION_J_PER_KG,
                 valid_temperature_c: (-100.0, 10.0),
             }),
             MaterialSpec::Air => {
@@ -259,9 +257,9 @@ impl MaterialSpec {
                     }),
                     freezes: false,
                     density_kg_m3: ice::AIR_DENSITY_KG_M3,
-                    c_frozen_j_per_m3_k: c,
-                    c_unfrozen_j_per_m3_k: c,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: c,
+                    c_unfrozen_j_m3k: c,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (-40.0, 20.0),
                 })
             }
@@ -277,27 +275,27 @@ impl MaterialSpec {
                         input.model.name()
                     ),
                     conductivity: ConductivityLaw {
-                        frozen: Branch::Constant(p.k_frozen_w_per_m_k),
-                        unfrozen: Branch::Constant(p.k_unfrozen_w_per_m_k),
+                        frozen: Branch::Constant(p.k_frozen_w_m_k),
+                        unfrozen: Branch::Constant(p.k_unfrozen_w_m_k),
                     },
                     freezes: input.water_content_pct > 0.0,
                     density_kg_m3: p.bulk_density_kg_m3,
-                    c_frozen_j_per_m3_k: p.c_frozen_j_per_m3_k,
-                    c_unfrozen_j_per_m3_k: p.c_unfrozen_j_per_m3_k,
-                    latent_j_per_m3: p.latent_j_per_m3,
+                    c_frozen_j_m3k: p.c_frozen_j_m3k,
+                    c_unfrozen_j_m3k: p.c_unfrozen_j_m3k,
+                    latent_j_m3: p.latent_j_m3,
                     valid_temperature_c: (-60.0, 40.0),
                 })
             }
             MaterialSpec::Insulation {
                 board,
-                conductivity_w_per_m_k,
+                conductivity_w_m_k,
                 moisture_derating_pct,
             } => {
                 let mut errs = InputErrors::default();
                 let fk = format!("{field}.conductivity_w_m_k");
                 let fd = format!("{field}.moisture_derating_pct");
-                let k = conductivity_w_per_m_k.unwrap_or(board.nominal_conductivity_w_per_m_k());
-                if conductivity_w_per_m_k.is_some() {
+                let k = conductivity_w_m_k.unwrap_or(board.nominal_conductivity_w_m_k());
+                if conductivity_w_m_k.is_some() {
                     check::within(&mut errs, &fk, k, 0.005, 1.0, "W/m/K");
                 }
                 check::within(&mut errs, &fd, *moisture_derating_pct, 0.0, 90.0, "%");
@@ -315,17 +313,15 @@ impl MaterialSpec {
                     conductivity: ConductivityLaw::constant(k_eff),
                     freezes: false,
                     density_kg_m3: rho,
-                    c_frozen_j_per_m3_k: rho * cp,
-                    c_unfrozen_j_per_m3_k: rho * cp,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: rho * cp,
+                    c_unfrozen_j_m3k: rho * cp,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (-50.0, 70.0),
                 })
             }
-            MaterialSpec::Concrete {
-                conductivity_w_per_m_k,
-            } => {
+            MaterialSpec::Concrete { conductivity_w_m_k } => {
                 let fk = format!("{field}.conductivity_w_m_k");
-                let k = conductivity_w_per_m_k.unwrap_or(CONCRETE_CONDUCTIVITY_W_PER_M_K);
+                let k = conductivity_w_m_k.unwrap_or(CONCRETE_CONDUCTIVITY_W_PER_M_K);
                 let mut errs = InputErrors::default();
                 check::within(&mut errs, &fk, k, 0.1, 5.0, "W/m/K");
                 errs.into_result()?;
@@ -336,22 +332,22 @@ impl MaterialSpec {
                     conductivity: ConductivityLaw::constant(k),
                     freezes: false,
                     density_kg_m3: CONCRETE_DENSITY,
-                    c_frozen_j_per_m3_k: c,
-                    c_unfrozen_j_per_m3_k: c,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: c,
+                    c_unfrozen_j_m3k: c,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (-60.0, 60.0),
                 })
             }
             MaterialSpec::Custom {
                 label,
-                conductivity_w_per_m_k,
-                frozen_conductivity_w_per_m_k,
+                conductivity_w_m_k,
+                frozen_conductivity_w_m_k,
                 density_kg_m3,
-                specific_heat_j_per_kg_k,
+                specific_heat_j_kg_k,
             } => {
                 let mut errs = InputErrors::default();
-                let ku = *conductivity_w_per_m_k;
-                let kf = frozen_conductivity_w_per_m_k.unwrap_or(ku);
+                let ku = *conductivity_w_m_k;
+                let kf = frozen_conductivity_w_m_k.unwrap_or(ku);
                 check::within(
                     &mut errs,
                     &format!("{field}.conductivity_w_m_k"),
@@ -360,7 +356,7 @@ impl MaterialSpec {
                     500.0,
                     "W/m/K",
                 );
-                if frozen_conductivity_w_per_m_k.is_some() {
+                if frozen_conductivity_w_m_k.is_some() {
                     check::within(
                         &mut errs,
                         &format!("{field}.frozen_conductivity_w_m_k"),
@@ -381,7 +377,7 @@ impl MaterialSpec {
                 check::within(
                     &mut errs,
                     &format!("{field}.specific_heat_j_kg_k"),
-                    *specific_heat_j_per_kg_k,
+                    *specific_heat_j_kg_k,
                     1.0,
                     20_000.0,
                     "J/kg/K",
@@ -397,7 +393,7 @@ impl MaterialSpec {
                     );
                 }
                 errs.into_result()?;
-                let c = density_kg_m3 * specific_heat_j_per_kg_k;
+                let c = density_kg_m3 * specific_heat_j_kg_k;
                 Ok(Material {
                     family: Family::Custom,
                     label: if label.trim().is_empty() {
@@ -411,9 +407,9 @@ impl MaterialSpec {
                     },
                     freezes: false,
                     density_kg_m3: *density_kg_m3,
-                    c_frozen_j_per_m3_k: c,
-                    c_unfrozen_j_per_m3_k: c,
-                    latent_j_per_m3: 0.0,
+                    c_frozen_j_m3k: c,
+                    c_unfrozen_j_m3k: c,
+                    latent_j_m3: 0.0,
                     valid_temperature_c: (f64::NEG_INFINITY, f64::INFINITY),
                 })
             }
@@ -421,11 +417,11 @@ impl MaterialSpec {
     }
 
     /// The same material with every snow regression swapped for `c` (for the band).
-    pub fn with_snow_correlation(&self, c: SnowCorrelation) -> MaterialSpec {
+    pub fn with_snow_regression(&self, c: SnowRegression) -> MaterialSpec {
         match self {
             MaterialSpec::Snow { density_kg_m3, .. } => MaterialSpec::Snow {
                 density_kg_m3: *density_kg_m3,
-                correlation: c,
+                regression: c,
             },
             other => other.clone(),
         }

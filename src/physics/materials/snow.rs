@@ -13,7 +13,7 @@
 
 /// A published snow conductivity regression.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub enum SnowCorrelation {
+pub enum SnowRegression {
     /// Sturm, Holmgren, König & Morris 1997, J. Glaciol. 43(143):26–41, quadratic fit:
     /// k = 0.138 − 1.01 r + 3.233 r² for 0.156 ≤ r ≤ 0.6; below r = 0.156
     /// k = 0.023 + 0.234 r.
@@ -39,18 +39,18 @@ pub enum SnowCorrelation {
     RicheSchneebeli2013,
 }
 
-impl SnowCorrelation {
+impl SnowRegression {
     /// Every regression, in the order the page lists them.
-    pub const ALL: [SnowCorrelation; 9] = [
-        SnowCorrelation::Sturm1997Quadratic,
-        SnowCorrelation::Sturm1997Logarithmic,
-        SnowCorrelation::Calonne2011,
-        SnowCorrelation::Yen1981,
-        SnowCorrelation::Jordan1991,
-        SnowCorrelation::Abels1893,
-        SnowCorrelation::VanDusen1929,
-        SnowCorrelation::Devaux1933,
-        SnowCorrelation::RicheSchneebeli2013,
+    pub const ALL: [SnowRegression; 9] = [
+        SnowRegression::Sturm1997Quadratic,
+        SnowRegression::Sturm1997Logarithmic,
+        SnowRegression::Calonne2011,
+        SnowRegression::Yen1981,
+        SnowRegression::Jordan1991,
+        SnowRegression::Abels1893,
+        SnowRegression::VanDusen1929,
+        SnowRegression::Devaux1933,
+        SnowRegression::RicheSchneebeli2013,
     ];
 
     /// Stable identifier used in scenario files.
@@ -137,7 +137,7 @@ impl SnowCorrelation {
     }
 
     /// Effective conductivity, W/m/K, at density `rho` kg/m³.
-    pub fn conductivity_w_per_m_k(self, rho: f64) -> f64 {
+    pub fn conductivity_w_m_k(self, rho: f64) -> f64 {
         let r = rho / 1000.0;
         match self {
             Self::Sturm1997Quadratic => {

@@ -63,7 +63,7 @@ impl Texture {
     }
     /// Specific heat of the dry solids, J/kg/K: 712 (0.17 Btu/lb/°F, the value of the
     /// TM 5-852-6 formulas; from memory) for minerals, 1920 for organic solids (from memory).
-    pub fn solids_specific_heat_j_per_kg_k(self) -> f64 {
+    pub fn solids_specific_heat_j_kg_k(self) -> f64 {
         match self {
             Texture::Peat => 1920.0,
             _ => 712.0,
@@ -161,14 +161,14 @@ pub struct SoilInput {
 /// Derived soil properties (SI).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct SoilProperties {
-    pub k_frozen_w_per_m_k: f64,
-    pub k_unfrozen_w_per_m_k: f64,
+    pub k_frozen_w_m_k: f64,
+    pub k_unfrozen_w_m_k: f64,
     /// Volumetric heat capacity, J/m³/K: C = ρ_d (c_s + c_water w) with 4187 (unfrozen) or
     /// 2090 (frozen) J/kg/K for the water (TM 5-852-6 form).
-    pub c_frozen_j_per_m3_k: f64,
-    pub c_unfrozen_j_per_m3_k: f64,
+    pub c_frozen_j_m3k: f64,
+    pub c_unfrozen_j_m3k: f64,
     /// Volumetric latent heat, J/m³: L = ρ_d w 333.7 kJ/kg.
-    pub latent_j_per_m3: f64,
+    pub latent_j_m3: f64,
     pub porosity: f64,
     pub saturation: f64,
     /// Bulk (wet) density, kg/m³.
@@ -266,13 +266,13 @@ pub fn soil_properties(
         ku * input.conductivity_factor,
     );
     let wf = w / 100.0;
-    let cs = input.texture.solids_specific_heat_j_per_kg_k();
+    let cs = input.texture.solids_specific_heat_j_kg_k();
     Ok(SoilProperties {
-        k_frozen_w_per_m_k: kf,
-        k_unfrozen_w_per_m_k: ku,
-        c_frozen_j_per_m3_k: rho * (cs + 2090.0 * wf),
-        c_unfrozen_j_per_m3_k: rho * (cs + 4187.0 * wf),
-        latent_j_per_m3: rho * wf * SOIL_LATENT_HEAT_J_PER_KG,
+        k_frozen_w_m_k: kf,
+        k_unfrozen_w_m_k: ku,
+        c_frozen_j_m3k: rho * (cs + 2090.0 * wf),
+        c_unfrozen_j_m3k: rho * (cs + 4187.0 * wf),
+        latent_j_m3: rho * wf * SOIL_LATENT_HEAT_J_PER_KG,
         porosity: n,
         saturation: sr,
         bulk_density_kg_m3: rho * (1.0 + wf),

@@ -1,7 +1,7 @@
 //! What a snow shelter is and the night it faces: shape, snow, floor, entrance, vent, films, people and heat sources, with the field paths their checks use.
 
 use crate::physics::error::InputErrors;
-use crate::physics::materials::snow::SnowCorrelation;
+use crate::physics::materials::snow::SnowRegression;
 
 /// Field path of the shelter inputs.
 pub const SHELTER_FIELD: &str = "shelter";
@@ -78,7 +78,7 @@ pub struct ExposedFace {
 }
 
 impl Shape {
-    /// The thickness the design answers vary: a dome's wall, a pile's crown (its base keeps
+    /// The thickness the least-wall search and the sweeps vary: a dome's wall, a pile's crown (its base keeps
     /// its ratio to the crown), a cave's exposed face, a trench's roof. `None` for a cave
     /// with no exposed face.
     pub fn main_thickness_m(&self) -> Option<f64> {
@@ -174,7 +174,7 @@ pub struct Shelter {
     /// Density of the snow of walls, roof, surrounding snowpack and a snow floor, kg/m³.
     pub snow_density_kg_m3: f64,
     /// The regression giving the snow's conductivity from its density.
-    pub snow_correlation: SnowCorrelation,
+    pub snow_regression: SnowRegression,
     pub floor: Floor,
     pub entrance: Entrance,
     /// Diameter of the vent hole at the top, m (0: no vent).
@@ -183,12 +183,12 @@ pub struct Shelter {
     pub inside_film_w_m2k: f64,
     /// Resistance of a hung lining (fabric with an air gap behind it), m²K/W: used to show
     /// what a lining would change when the inner surface would melt.
-    pub lining_m2k_per_w: f64,
+    pub lining_m2k_w: f64,
     /// Resistance of what covers the floor (sleeping mats, branches), averaged over the
     /// whole floor, m²K/W (0: bare). Mats are rated in m²K/W (ASTM F3340, from memory); for
     /// a mat covering part of the floor, average the conductances 1/(1/h + R) by area
     /// (area-weighted U, common practice) and give the equivalent R.
-    pub floor_cover_m2k_per_w: f64,
+    pub floor_cover_m2k_w: f64,
 }
 
 /// What people do, with its metabolic rate in met (1 met = 58.2 W/m² of body surface).

@@ -1,4 +1,4 @@
-//! Design answers on the steady balance: the least wall thickness for a target interior
+//! Answers on the steady balance: the least wall thickness for a target interior
 //! temperature, and data series for charts.
 //!
 //! The interior temperature rises with the main thickness (see
@@ -139,7 +139,7 @@ pub struct SweepPoint {
     /// The swept value (m, people, °C).
     pub x: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    pub melt_kg_h: f64,
     pub co2_ppm: Option<f64>,
 }
 
@@ -147,7 +147,7 @@ fn point(x: f64, r: &SteadyResult) -> SweepPoint {
     SweepPoint {
         x,
         interior_c: r.interior_c,
-        melt_kg_per_h: r.melt_kg_per_h,
+        melt_kg_h: r.melt_kg_h,
         co2_ppm: r.co2_ppm,
     }
 }

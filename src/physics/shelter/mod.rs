@@ -1,6 +1,6 @@
 //! Snow shelters: the air temperature inside a shelter of snow, the heat its walls, floor
 //! and vent take, where the inner surface would melt, how the air warms through the first
-//! night, and the design answers built on these.
+//! night, and the least wall and sweeps built on these.
 //!
 //! The shelter is described by plain structs in SI ([`Shelter`]: shape, snow, floor,
 //! entrance, vent, films; [`Conditions`]: outside air, wind, snowpack, people, candles,
@@ -41,4 +41,4 @@ pub use least::{
 };
 pub use model::{Model, Zone};
 pub use night::{night, NightResult, NightSettings, RadialWall, WallGeometry};
-pub use steady::{correlation_band, steady, Band, BandEntry, SteadyResult};
+pub use steady::{regression_band, steady, Band, BandEntry, SteadyResult};

@@ -63,10 +63,10 @@ use super::inputs::{
 };
 use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};
 use crate::physics::materials::ice::{
-    ice_specific_heat_j_per_kg_k, AIR_SPECIFIC_HEAT_J_PER_KG_K, KELVIN_OFFSET,
+    ice_specific_heat_j_kg_k, AIR_SPECIFIC_HEAT_J_PER_KG_K, KELVIN_OFFSET,
 };
 use crate::physics::materials::snow::{
-    SnowCorrelation, MAX_SNOW_DENSITY_KG_M3, MIN_SNOW_DENSITY_KG_M3,
+    SnowRegression, MAX_SNOW_DENSITY_KG_M3, MIN_SNOW_DENSITY_KG_M3,
 };
 use std::f64::consts::PI;
 
@@ -88,8 +88,8 @@ pub const STEFAN_BOLTZMANN: f64 = 5.670_374_419e-8;
 pub const PILE_BANDS: usize = 12;
 /// Snow heat capacity per kg: that of ice at −10 °C (the project's ice fit, 2023 J/kg/K
 /// against IAPWS R10-06); 4 % lower at −20 °C, 3 % higher at 0 °C.
-pub fn snow_specific_heat_j_per_kg_k() -> f64 {
-    ice_specific_heat_j_per_kg_k(-10.0)
+pub fn snow_specific_heat_j_kg_k() -> f64 {
+    ice_specific_heat_j_kg_k(-10.0)
 }
 
 /// Outside film, W/m²K: 4 + 4 v + 4 σ T³ (ISO 6946 Annex A form, from memory).
@@ -150,7 +150,7 @@ impl Geometry {
     }
 
     /// Conduction resistance of the wall, K/W.
-    pub fn wall_resistance_k_per_w(&self, k: f64) -> f64 {
+    pub fn wall_resistance_k_w(&self, k: f64) -> f64 {
         match *self {
             Geometry::Sphere {
                 solid_angle_sr,
@@ -196,21 +196,18 @@ pub struct Zone {
     /// A hung lining would cover it (walls and roof, not the floor).
     pub lined: bool,
     /// Resistance of what covers the surface for good (mats on the floor), m²K/W.
-    pub cover_m2k_per_w: f64,
+    pub cover_m2k_w: f64,
 }
 
 impl Zone {
     /// Inner film (and lining) resistance, K/W.
-    pub fn inner_resistance_k_per_w(&self, film_w_m2k: f64, lining_m2k_w: f64) -> f64 {
-        let r =
-            1.0 / film_w_m2k + self.cover_m2k_per_w + if self.lined { lining_m2k_w } else { 0.0 };
+    pub fn inner_resistance_k_w(&self, film_w_m2k: f64, lining_m2k_w: f64) -> f64 {
+        let r = 1.0 / film_w_m2k + self.cover_m2k_w + if self.lined { lining_m2k_w } else { 0.0 };
         r / self.geometry.inner_area_m2()
     }
     /// Wall and outer film resistance, K/W.
-    pub fn outer_resistance_k_per_w(&self) -> f64 {
-        let wall = self
-            .geometry
-            .wall_resistance_k_per_w(self.conductivity_w_m_k);
+    pub fn outer_resistance_k_w(&self) -> f64 {
+        let wall = self.geometry.wall_resistance_k_w(self.conductivity_w_m_k);
         match self.sink {
             Sink::OutsideAir { film_w_m2k } => {
                 wall + 1.0 / (film_w_m2k * self.geometry.outer_area_m2())
@@ -240,7 +237,7 @@ pub struct Gains {
 pub struct Model {
     pub zones: Vec<Zone>,
     pub inside_film_w_m2k: f64,
-    pub lining_m2k_per_w: f64,
+    pub lining_m2k_w: f64,
     pub outside_c: f64,
     pub outside_film_w_m2k: f64,
     pub gains: Gains,
@@ -252,7 +249,7 @@ pub struct Model {
     pub air_volume_m3: f64,
     pub snow_density_kg_m3: f64,
     pub snow_conductivity_w_m_k: f64,
-    pub snow_correlation: SnowCorrelation,
+    pub snow_regression: SnowRegression,
     /// CO₂ given off inside, m³/s (see [`mod@super::steady`]).
     pub co2_source_m3_s: f64,
     /// Heat capacity per volume of snow, J/m³K.
@@ -451,13 +448,13 @@ impl Shelter {
                 },
             );
         } else {
-            let (lo, hi) = self.snow_correlation.valid_range_kg_m3();
+            let (lo, hi) = self.snow_regression.valid_range_kg_m3();
             if rho < lo || rho > hi {
                 warnings.push(Warning {
                     field: field.clone(),
                     message: format!(
                         "{rho} kg/m³ is outside the {lo}–{hi} kg/m³ range of {}",
-                        self.snow_correlation.name()
+                        self.snow_regression.name()
                     ),
                 });
             }
@@ -543,7 +540,7 @@ impl Shelter {
         check::within(
             errs,
             &f("lining_m2k_per_w"),
-            self.lining_m2k_per_w,
+            self.lining_m2k_w,
             lo,
             hi,
             "m²K/W",
@@ -552,7 +549,7 @@ impl Shelter {
         check::within(
             errs,
             &f("floor_cover_m2k_per_w"),
-            self.floor_cover_m2k_per_w,
+            self.floor_cover_m2k_w,
             lo,
             hi,
             "m²K/W",
@@ -630,7 +627,7 @@ impl Model {
         conditions.validate(CONDITIONS_FIELD, &mut errs, &mut warnings);
         errs.into_result()?;
         Ok((
-            Model::assemble(shelter, conditions, shelter.snow_correlation),
+            Model::assemble(shelter, conditions, shelter.snow_regression),
             warnings,
         ))
     }
@@ -639,11 +636,11 @@ impl Model {
     pub(crate) fn assemble(
         shelter: &Shelter,
         conditions: &Conditions,
-        correlation: SnowCorrelation,
+        regression: SnowRegression,
     ) -> Model {
         let rho = shelter.snow_density_kg_m3;
-        let k_snow = correlation.conductivity_w_per_m_k(rho);
-        let c_snow = rho * snow_specific_heat_j_per_kg_k();
+        let k_snow = regression.conductivity_w_m_k(rho);
+        let c_snow = rho * snow_specific_heat_j_kg_k();
         let h_o = outside_film_w_m2k(conditions.wind_m_s, conditions.outside_c);
         let air = Sink::OutsideAir { film_w_m2k: h_o };
         let deep_snow = Sink::Deep {
@@ -658,8 +655,8 @@ impl Model {
             sink,
             melts: true,
             lined: part == Part::WallsAndRoof,
-            cover_m2k_per_w: if part == Part::Floor {
-                shelter.floor_cover_m2k_per_w
+            cover_m2k_w: if part == Part::Floor {
+                shelter.floor_cover_m2k_w
             } else {
                 0.0
             },
@@ -679,7 +676,7 @@ impl Model {
                 sink: Sink::Deep { temperature_c },
                 melts: false,
                 lined: false,
-                cover_m2k_per_w: shelter.floor_cover_m2k_per_w,
+                cover_m2k_w: shelter.floor_cover_m2k_w,
             },
         };
         let mut zones = Vec::new();
@@ -809,7 +806,7 @@ impl Model {
         Model {
             zones,
             inside_film_w_m2k: shelter.inside_film_w_m2k,
-            lining_m2k_per_w: shelter.lining_m2k_per_w,
+            lining_m2k_w: shelter.lining_m2k_w,
             outside_c: conditions.outside_c,
             outside_film_w_m2k: h_o,
             gains: Gains {
@@ -824,7 +821,7 @@ impl Model {
             air_volume_m3,
             snow_density_kg_m3: rho,
             snow_conductivity_w_m_k: k_snow,
-            snow_correlation: correlation,
+            snow_regression: regression,
             co2_source_m3_s,
             snow_heat_capacity_j_m3_k: c_snow,
         }

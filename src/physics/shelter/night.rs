@@ -371,7 +371,7 @@ pub struct NightSample {
     /// Warmest snow surface, °C.
     pub warmest_snow_surface_c: f64,
     /// Snow melting now, kg/h.
-    pub melt_kg_per_h: f64,
+    pub melt_kg_h: f64,
     /// Heat conducted into walls, roof and floor now, W.
     pub into_walls_w: f64,
     /// Air exchange loss now, W.
@@ -450,7 +450,7 @@ pub fn night(
     };
     errs.into_result()?;
     let lining = if settings.lining {
-        model.lining_m2k_per_w
+        model.lining_m2k_w
     } else {
         0.0
     };
@@ -501,7 +501,7 @@ fn run(
             film,
             start,
         ));
-        r_in.push(zone.inner_resistance_k_per_w(model.inside_film_w_m2k, lining));
+        r_in.push(zone.inner_resistance_k_w(model.inside_film_w_m2k, lining));
     }
     let cells: usize = walls.iter().map(|w| w.cells()).sum();
     let steps_wanted = (s.duration_s / s.step_s).ceil().max(1.0);
@@ -572,7 +572,7 @@ fn run(
             time_s,
             interior_c: t_air,
             warmest_snow_surface_c: warmest,
-            melt_kg_per_h: melt_w / LATENT_HEAT_FUSION_J_PER_KG * 3600.0,
+            melt_kg_h: melt_w / LATENT_HEAT_FUSION_J_PER_KG * 3600.0,
             into_walls_w: into_w,
             air_loss_w: v + d,
             co2_ppm,

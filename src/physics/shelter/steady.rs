@@ -28,7 +28,7 @@ use super::inputs::{Conditions, Shelter, ShelterError};
 use super::model::{Model, Part};
 use crate::physics::error::Warning;
 use crate::physics::materials::ice::LATENT_HEAT_FUSION_J_PER_KG;
-use crate::physics::materials::snow::SnowCorrelation;
+use crate::physics::materials::snow::SnowRegression;
 
 /// Outdoor CO₂, ppm (from memory, see the module documentation).
 pub const OUTDOOR_CO2_PPM: f64 = 420.0;
@@ -51,15 +51,15 @@ pub struct ZoneState {
     /// Heat melting snow at the surface, W (heat_in − conducted).
     pub melt_w: f64,
     /// How fast the melting surface recedes, mm/h (melt over ρ_snow × area).
-    pub melt_mm_per_h: f64,
+    pub melt_mm_h: f64,
 }
 
 /// The result with a lining hung.
 #[derive(Debug, Clone, PartialEq)]
 pub struct LiningOutcome {
-    pub lining_m2k_per_w: f64,
+    pub lining_m2k_w: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    pub melt_kg_h: f64,
     /// Highest interior temperature at which no lined snow surface melts, °C.
     pub melt_free_limit_c: f64,
 }
@@ -81,7 +81,7 @@ pub struct SteadyResult {
     pub vent_w: f64,
     pub door_w: f64,
     pub melt_w: f64,
-    pub melt_kg_per_h: f64,
+    pub melt_kg_h: f64,
     pub vent_flow_m3_s: f64,
     pub door_flow_m3_s: f64,
     /// Steady CO₂ inside, ppm; `None` when no air is exchanged (it keeps rising).
@@ -92,7 +92,7 @@ pub struct SteadyResult {
     pub melt_free_limit_c: f64,
     pub outside_film_w_m2k: f64,
     pub snow_conductivity_w_m_k: f64,
-    pub snow_correlation: SnowCorrelation,
+    pub snow_regression: SnowRegression,
     /// What a lining would allow; given when a surface melts and a lining resistance > 0 is
     /// set.
     pub with_lining: Option<LiningOutcome>,
@@ -102,8 +102,8 @@ pub struct SteadyResult {
 /// The state of one zone at interior temperature `t_i`, with lining resistance `lining`.
 pub(crate) fn zone_at(model: &Model, z: usize, t_i: f64, lining: f64) -> (f64, f64, f64, f64) {
     let zone = &model.zones[z];
-    let r_in = zone.inner_resistance_k_per_w(model.inside_film_w_m2k, lining);
-    let r_out = zone.outer_resistance_k_per_w();
+    let r_in = zone.inner_resistance_k_w(model.inside_film_w_m2k, lining);
+    let r_out = zone.outer_resistance_k_w();
     let sink = zone.sink_c(model.outside_c);
     let q = (t_i - sink) / (r_in + r_out);
     let surface = t_i - q * r_in;
@@ -172,8 +172,8 @@ pub(crate) fn interior_c(model: &Model, lining: f64) -> Result<f64, ShelterError
         .zones
         .iter()
         .map(|z| {
-            1.0 / (z.inner_resistance_k_per_w(model.inside_film_w_m2k, lining)
-                + z.outer_resistance_k_per_w())
+            1.0 / (z.inner_resistance_k_w(model.inside_film_w_m2k, lining)
+                + z.outer_resistance_k_w())
         })
         .sum();
     let hi = max_sink + model.gains.total_w / conductance + 1.0;
@@ -188,8 +188,8 @@ fn melt_free_limit_c(model: &Model, lining: f64) -> f64 {
         .iter()
         .filter(|z| z.melts)
         .map(|z| {
-            let r_in = z.inner_resistance_k_per_w(model.inside_film_w_m2k, lining);
-            -z.sink_c(model.outside_c) * r_in / z.outer_resistance_k_per_w()
+            let r_in = z.inner_resistance_k_w(model.inside_film_w_m2k, lining);
+            -z.sink_c(model.outside_c) * r_in / z.outer_resistance_k_w()
         })
         .fold(f64::INFINITY, f64::min)
 }
@@ -218,7 +218,7 @@ pub fn solve(model: &Model, lining: f64) -> Result<SteadyResult, ShelterError> {
             heat_in_w,
             conducted_w,
             melt_w: m,
-            melt_mm_per_h: m / LATENT_HEAT_FUSION_J_PER_KG * 3600.0
+            melt_mm_h: m / LATENT_HEAT_FUSION_J_PER_KG * 3600.0
                 / (model.snow_density_kg_m3 * zone.geometry.inner_area_m2())
                 * 1000.0,
         });
@@ -241,7 +241,7 @@ pub fn solve(model: &Model, lining: f64) -> Result<SteadyResult, ShelterError> {
         vent_w,
         door_w,
         melt_w,
-        melt_kg_per_h: melt_w / LATENT_HEAT_FUSION_J_PER_KG * 3600.0,
+        melt_kg_h: melt_w / LATENT_HEAT_FUSION_J_PER_KG * 3600.0,
         vent_flow_m3_s: vent_flow,
         door_flow_m3_s: door_flow,
         co2_ppm,
@@ -249,7 +249,7 @@ pub fn solve(model: &Model, lining: f64) -> Result<SteadyResult, ShelterError> {
         melt_free_limit_c: melt_free_limit_c(model, lining),
         outside_film_w_m2k: model.outside_film_w_m2k,
         snow_conductivity_w_m_k: model.snow_conductivity_w_m_k,
-        snow_correlation: model.snow_correlation,
+        snow_regression: model.snow_regression,
         with_lining: None,
         warnings: Vec::new(),
     })
@@ -275,7 +275,7 @@ fn result_warnings(model: &Model, r: &SteadyResult, out: &mut Vec<Warning>) {
             field: "shelter".into(),
             message: format!(
                 "the inner snow surface would pass 0 °C: it is held at 0 °C and {:.2} kg of snow melts each hour; the surface will glaze with ice and drip",
-                r.melt_kg_per_h
+                r.melt_kg_h
             ),
         });
     }
@@ -285,12 +285,12 @@ fn result_warnings(model: &Model, r: &SteadyResult, out: &mut Vec<Warning>) {
 pub fn steady(shelter: &Shelter, conditions: &Conditions) -> Result<SteadyResult, ShelterError> {
     let (model, mut warnings) = Model::build(shelter, conditions)?;
     let mut r = solve(&model, 0.0)?;
-    if r.melt_w > 0.0 && model.lining_m2k_per_w > 0.0 {
-        let lined = solve(&model, model.lining_m2k_per_w)?;
+    if r.melt_w > 0.0 && model.lining_m2k_w > 0.0 {
+        let lined = solve(&model, model.lining_m2k_w)?;
         r.with_lining = Some(LiningOutcome {
-            lining_m2k_per_w: model.lining_m2k_per_w,
+            lining_m2k_w: model.lining_m2k_w,
             interior_c: lined.interior_c,
-            melt_kg_per_h: lined.melt_kg_per_h,
+            melt_kg_h: lined.melt_kg_h,
             melt_free_limit_c: lined.melt_free_limit_c,
         });
     }
@@ -302,10 +302,10 @@ pub fn steady(shelter: &Shelter, conditions: &Conditions) -> Result<SteadyResult
 /// One regression's result.
 #[derive(Debug, Clone, PartialEq)]
 pub struct BandEntry {
-    pub correlation: SnowCorrelation,
+    pub regression: SnowRegression,
     pub conductivity_w_m_k: f64,
     pub interior_c: f64,
-    pub melt_kg_per_h: f64,
+    pub melt_kg_h: f64,
     /// The density lies in the regression's range.
     pub in_range: bool,
 }
@@ -315,24 +315,24 @@ pub struct BandEntry {
 pub struct Band {
     pub entries: Vec<BandEntry>,
     /// The coldest and warmest interior and the regression giving each.
-    pub coldest: (SnowCorrelation, f64),
-    pub warmest: (SnowCorrelation, f64),
+    pub coldest: (SnowRegression, f64),
+    pub warmest: (SnowRegression, f64),
 }
 
 /// The same shelter with each of the nine snow regressions.
-pub fn correlation_band(shelter: &Shelter, conditions: &Conditions) -> Result<Band, ShelterError> {
+pub fn regression_band(shelter: &Shelter, conditions: &Conditions) -> Result<Band, ShelterError> {
     Model::build(shelter, conditions)?;
-    let mut entries = Vec::with_capacity(SnowCorrelation::ALL.len());
-    for c in SnowCorrelation::ALL {
+    let mut entries = Vec::with_capacity(SnowRegression::ALL.len());
+    for c in SnowRegression::ALL {
         let model = Model::assemble(shelter, conditions, c);
         let r = solve(&model, 0.0)?;
         let (lo, hi) = c.valid_range_kg_m3();
         let rho = shelter.snow_density_kg_m3;
         entries.push(BandEntry {
-            correlation: c,
+            regression: c,
             conductivity_w_m_k: model.snow_conductivity_w_m_k,
             interior_c: r.interior_c,
-            melt_kg_per_h: r.melt_kg_per_h,
+            melt_kg_h: r.melt_kg_h,
             in_range: rho >= lo && rho <= hi,
         });
     }
@@ -343,7 +343,7 @@ pub fn correlation_band(shelter: &Shelter, conditions: &Conditions) -> Result<Ba
                 best = e;
             }
         }
-        (best.correlation, best.interior_c)
+        (best.regression, best.interior_c)
     };
     let coldest = pick(|a, b| a < b);
     let warmest = pick(|a, b| a > b);

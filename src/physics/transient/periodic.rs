@@ -104,7 +104,7 @@ impl PeriodicProfile {
         let (mut top, mut z_acc, mut r_acc) = (0.0, 0.0, 0.0);
         for (m, &thick) in spec.materials.iter().zip(&spec.thicknesses_m) {
             let k = 0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0));
-            let c = 0.5 * (m.c_frozen_j_per_m3_k + m.c_unfrozen_j_per_m3_k);
+            let c = 0.5 * (m.c_frozen_j_m3k + m.c_unfrozen_j_m3k);
             let d = (2.0 * k / c / omega).sqrt();
             layers.push(WaveLayer {
                 top_m: top,

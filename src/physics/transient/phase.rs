@@ -23,7 +23,7 @@ use crate::physics::materials::{Branch, ConductivityLaw, Material};
 pub const SNOW_CAPACITY_BAND_K: f64 = 2.0;
 
 /// Specific heat of ice at 0 °C and its slope, J/kg/K and J/kg/K² (the linear fit of
-/// [`ice::ice_specific_heat_j_per_kg_k`]: c = 152.5 + 7.122 T_K).
+/// [`ice::ice_specific_heat_j_kg_k`]: c = 152.5 + 7.122 T_K).
 const C_ICE_0C: f64 = 152.5 + 7.122 * ice::KELVIN_OFFSET;
 const C_ICE_SLOPE: f64 = 7.122;
 
@@ -118,7 +118,7 @@ pub enum Phase {
     /// of bulk density ρ, conductivity `conductivity` from the run's snow regression.
     ///
     /// - Below 0 °C the volumetric heat capacity is ρ c_ice(T), c_ice the fit of
-    ///   [`ice::ice_specific_heat_j_per_kg_k`] (Dorsey 1940 via Yen 1981; dry snow stores heat
+    ///   [`ice::ice_specific_heat_j_kg_k`] (Dorsey 1940 via Yen 1981; dry snow stores heat
     ///   as its ice, model reference §1). It is taken constant over bands of
     ///   [`SNOW_CAPACITY_BAND_K`] (c_ice at the band's middle), so that H(T) is exact at every
     ///   band edge, piecewise linear between, and off by at most ρ c₁ B²/8 (3.6 J/kg, 0.002 K)
@@ -145,12 +145,8 @@ impl Phase {
     /// The phase model of a resolved material; `curve` makes a freezing material freeze over
     /// a range instead of at 0 °C.
     pub fn for_material(m: &Material, curve: Option<UnfrozenWater>) -> Phase {
-        let (c_frozen, c_unfrozen, law) = (
-            m.c_frozen_j_per_m3_k,
-            m.c_unfrozen_j_per_m3_k,
-            m.conductivity,
-        );
-        if !m.freezes || m.latent_j_per_m3 <= 0.0 {
+        let (c_frozen, c_unfrozen, law) = (m.c_frozen_j_m3k, m.c_unfrozen_j_m3k, m.conductivity);
+        if !m.freezes || m.latent_j_m3 <= 0.0 {
             return Phase::Inert {
                 c_frozen,
                 c_unfrozen,
@@ -161,14 +157,14 @@ impl Phase {
             Some(curve) => Phase::Range {
                 c_frozen,
                 c_unfrozen,
-                latent: m.latent_j_per_m3,
+                latent: m.latent_j_m3,
                 law,
                 curve,
             },
             None => Phase::Isothermal {
                 c_frozen,
                 c_unfrozen,
-                latent: m.latent_j_per_m3,
+                latent: m.latent_j_m3,
                 law,
             },
         }

@@ -6,7 +6,7 @@
 use super::grid::GridSpec;
 use super::setup::{Forcing, Initial, RunSpec, SinusoidalYear, TopModel};
 use super::BottomCondition;
-use crate::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use crate::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
 
 /// Sinusoidal air and a snow cover from day 300 to day 100 of the next year, peaking at
 /// 0.3 m, density 250 kg/m³.
@@ -71,7 +71,7 @@ pub fn reference_year() -> (RunSpec, ReferenceForcing) {
         },
         top: TopModel::AirFilm {
             film_w_m2k: 20.0,
-            snow_correlation: SnowCorrelation::Sturm1997Quadratic,
+            snow_regression: SnowRegression::Sturm1997Quadratic,
         },
         bottom: BottomCondition::Flux { upward_w_m2: 0.06 },
         initial: Initial::Uniform(4.0),

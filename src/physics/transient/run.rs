@@ -116,7 +116,7 @@ fn top_condition(
     match spec.top {
         TopModel::AirFilm {
             film_w_m2k,
-            snow_correlation,
+            snow_regression,
         } => {
             let snow = forcing
                 .snow(t)
@@ -124,7 +124,7 @@ fn top_condition(
                 .map(|(d, rho)| SnowLayer {
                     depth_m: d,
                     density_kg_m3: rho,
-                    conductivity_w_m_k: snow_correlation.conductivity_w_per_m_k(rho),
+                    conductivity_w_m_k: snow_regression.conductivity_w_m_k(rho),
                 });
             (
                 TopCondition::Air {

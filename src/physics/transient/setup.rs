@@ -5,7 +5,7 @@ use super::grid::GridSpec;
 use super::phase::UnfrozenWater;
 use super::solver::BottomCondition;
 use crate::physics::climate::AnnualWave;
-use crate::physics::materials::{Material, SnowCorrelation};
+use crate::physics::materials::{Material, SnowRegression};
 
 /// What drives the top of the column over time (t in seconds from the start).
 pub trait Forcing {
@@ -40,11 +40,11 @@ impl Forcing for SinusoidalYear {
 pub enum TopModel {
     /// Air through a film. Snow on the ground (from the forcing) becomes snow cells above
     /// the ground cells (see [`Solver::set_snow`]), with the film on top of the snow; their
-    /// conductivity comes from `snow_correlation` at the snow's density, they store sensible
+    /// conductivity comes from `snow_regression` at the snow's density, they store sensible
     /// and latent heat, and their surface stays at or below 0 °C while they hold ice.
     AirFilm {
         film_w_m2k: f64,
-        snow_correlation: SnowCorrelation,
+        snow_regression: SnowRegression,
     },
     /// Surface temperature = n × air temperature, with a freezing n-factor below 0 °C and a
     /// thawing n-factor above (US Army TM 5-852-6 / UFC 3-130-04 n-factor method). The

@@ -9,7 +9,7 @@ use hibernal::document::steady;
 
 use hibernal::physics::analytic::stefan_depth_with_resistance_m;
 use hibernal::physics::least::{
-    least_layer_thickness, least_value, DesignAnswer, FrostLimit, Search, Trial,
+    least_layer_thickness, least_value, FrostLimit, LeastAnswer, Search, Trial,
 };
 use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
 use hibernal::physics::transient::grid::GridSpec;
@@ -53,7 +53,7 @@ fn the_search_finds_the_closed_form_answer_of_stefans_law_with_a_board() {
         synthetic(|t| stefan_depth_with_resistance_m(k, l, f, t / kb), x)(t)
     })
     .unwrap();
-    let DesignAnswer::Found {
+    let LeastAnswer::Found {
         value,
         frost_depth_m,
         slope,
@@ -78,25 +78,25 @@ fn the_search_says_when_no_answer_lies_in_the_range() {
     // with more board) is named.
     let line = |t: f64| 0.6 - 2.0 * t;
     let a = least_value(&SEARCH, synthetic(line, 0.5)).unwrap();
-    let DesignAnswer::Found { value, slope, .. } = a else {
+    let LeastAnswer::Found { value, slope, .. } = a else {
         panic!("{a:?}")
     };
     assert_abs(value, 0.05, SEARCH.tolerance, "linear family");
     assert_rel(slope, -2.0, 1e-9, "its slope");
     assert!(matches!(
         least_value(&SEARCH, synthetic(line, 0.7)).unwrap(),
-        DesignAnswer::SmallestSuffices { .. }
+        LeastAnswer::SmallestSuffices { .. }
     ));
     assert!(matches!(
         least_value(&SEARCH, synthetic(line, -0.1)).unwrap(),
-        DesignAnswer::NotReachable { .. }
+        LeastAnswer::NotReachable { .. }
     ));
     // Frost that deepens again with more board in the range the search walks through
     // (0.9 − 2t, limit 0.45: runs at 0, 0.3, 0.225, then 0.2025, inside the bump).
     let bump = |t: f64| 0.9 - 2.0 * t + if (0.15..0.21).contains(&t) { 1.0 } else { 0.0 };
     assert!(matches!(
         least_value(&SEARCH, synthetic(bump, 0.45)).unwrap(),
-        DesignAnswer::NotMonotone { .. }
+        LeastAnswer::NotMonotone { .. }
     ));
 }
 
@@ -110,9 +110,9 @@ fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
         },
         freezes: latent > 0.0,
         density_kg_m3: 1800.0,
-        c_frozen_j_per_m3_k: c_f,
-        c_unfrozen_j_per_m3_k: c_u,
-        latent_j_per_m3: latent,
+        c_frozen_j_m3k: c_f,
+        c_unfrozen_j_m3k: c_u,
+        latent_j_m3: latent,
         valid_temperature_c: (-100.0, 100.0),
     }
 }
@@ -164,7 +164,7 @@ fn the_least_board_over_frozen_soil_is_bounded_by_stefans_law() {
     };
     let answer =
         least_layer_thickness(&spec, &Held(-10.0), 0, FrostLimit::Depth(limit), &search).unwrap();
-    let DesignAnswer::Found {
+    let LeastAnswer::Found {
         value,
         frost_depth_m,
         trials,
@@ -245,7 +245,7 @@ fn a_soil_cover_over_a_pipe_grows_until_frost_stays_above_it() {
         &search,
     )
     .unwrap();
-    let DesignAnswer::Found {
+    let LeastAnswer::Found {
         value,
         frost_depth_m,
         limit_m,

@@ -7,16 +7,16 @@ mod common;
 use common::*;
 
 use hibernal::physics::error::InputErrorKind;
-use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
 use hibernal::physics::ranges::{
     monte_carlo, one_at_a_time, percentile_sorted, sample_at, Distribution, MonteCarloError,
-    MonteCarloJob, Pcg32, SensitivityError, UncertainInput, MAX_RUNS,
+    MonteCarloJob, Pcg32, RangedInput, SensitivityError, MAX_RUNS,
 };
 use hibernal::physics::stack::{Boundary, Layer, Stack};
 use hibernal::physics::steady;
 
-fn uniform(id: &str, low: f64, high: f64) -> UncertainInput {
-    UncertainInput {
+fn uniform(id: &str, low: f64, high: f64) -> RangedInput {
+    RangedInput {
         id: id.into(),
         low,
         high,
@@ -27,7 +27,7 @@ fn uniform(id: &str, low: f64, high: f64) -> UncertainInput {
 /// y = Σ aᵢxᵢ + b with xᵢ uniform on [lᵢ, hᵢ].
 const A: [f64; 3] = [2.0, -3.0, 0.5];
 const B: f64 = 7.0;
-fn linear_inputs() -> Vec<UncertainInput> {
+fn linear_inputs() -> Vec<RangedInput> {
     vec![
         uniform("x0", 0.0, 1.0),
         uniform("x1", 10.0, 14.0),
@@ -153,7 +153,7 @@ fn triangular_and_truncated_normal_means_match_their_formulas() {
     // Triangular (l, c, h): mean (l + c + h)/3, variance (l² + c² + h² − lc − lh − ch)/18
     // (standard moments of the triangular distribution, from memory).
     let (l, c, h) = (0.0, 2.0, 10.0);
-    let tri = UncertainInput {
+    let tri = RangedInput {
         id: "t".into(),
         low: l,
         high: h,
@@ -181,7 +181,7 @@ fn triangular_and_truncated_normal_means_match_their_formulas() {
     // (Johnson, Kotz & Balakrishnan, Continuous Univariate Distributions vol. 1, §10.1,
     // from memory). Φ and φ here come from libm's erfc and exp.
     let (mu, sd, l, h) = (300.0, 80.0, 250.0, 500.0);
-    let nrm = UncertainInput {
+    let nrm = RangedInput {
         id: "n".into(),
         low: l,
         high: h,
@@ -202,7 +202,7 @@ fn triangular_and_truncated_normal_means_match_their_formulas() {
     );
     assert!(r.min >= l && r.max <= h);
     // Far in one tail the inverse still lands inside the range (mirrored bisection).
-    let tail = UncertainInput {
+    let tail = RangedInput {
         id: "tail".into(),
         low: 0.0,
         high: 1.0,
@@ -246,13 +246,13 @@ fn same_seed_same_result_different_seed_different_samples() {
     );
     let three = [
         inputs[1].clone(),
-        UncertainInput {
+        RangedInput {
             id: "t".into(),
             low: 0.0,
             high: 10.0,
             distribution: Distribution::Triangular { mode: 2.0 },
         },
-        UncertainInput {
+        RangedInput {
             id: "n".into(),
             low: 250.0,
             high: 500.0,
@@ -401,7 +401,7 @@ fn bad_inputs_are_refused_naming_the_field() {
             sd: 0.0,
         },
     ] {
-        let bad = UncertainInput {
+        let bad = RangedInput {
             id: "bad".into(),
             low: 5.0,
             high: 1.0,
@@ -456,7 +456,7 @@ fn one_at_a_time_on_the_linear_function_gives_the_exact_swings_in_order() {
 }
 
 /// Snow of `density` over frozen-capable silt, air at −25 °C above, +4 °C held 2 m down.
-fn snow_over_soil(density: f64, correlation: SnowCorrelation) -> Stack {
+fn snow_over_soil(density: f64, regression: SnowRegression) -> Stack {
     Stack {
         layers: vec![
             Layer {
@@ -464,7 +464,7 @@ fn snow_over_soil(density: f64, correlation: SnowCorrelation) -> Stack {
                 thickness_m: 0.4,
                 material: MaterialSpec::Snow {
                     density_kg_m3: density,
-                    correlation,
+                    regression,
                 },
             },
             Layer {
@@ -482,7 +482,7 @@ fn snow_over_soil(density: f64, correlation: SnowCorrelation) -> Stack {
         ],
         top: Boundary::Air {
             temperature_c: -25.0,
-            film_w_per_m2_k: 20.0,
+            film_w_m2k: 20.0,
         },
         bottom: Boundary::Surface { temperature_c: 4.0 },
     }
@@ -492,9 +492,9 @@ fn snow_over_soil(density: f64, correlation: SnowCorrelation) -> Stack {
 fn snow_density_range_on_a_steady_stack_stays_between_its_ends() {
     // Sturm et al. 1997 (quadratic, valid 156–600 kg/m³): k rises with density over the
     // range, so R falls. Checked here on a grid rather than assumed.
-    let corr = SnowCorrelation::Sturm1997Quadratic;
+    let corr = SnowRegression::Sturm1997Quadratic;
     let (lo, hi) = (160.0, 450.0);
-    let r_of = |rho: f64| steady::solve(&snow_over_soil(rho, corr)).map(|r| r.r_total_m2k_per_w);
+    let r_of = |rho: f64| steady::solve(&snow_over_soil(rho, corr)).map(|r| r.r_total_m2k_w);
     let grid: Vec<f64> = (0..=58)
         .map(|i| r_of(lo + 5.0 * i as f64).unwrap())
         .collect();
@@ -508,7 +508,7 @@ fn snow_density_range_on_a_steady_stack_stays_between_its_ends() {
     assert_eq!(mid.zero_planes.len(), 1);
     assert_eq!(mid.zero_planes[0].layer, 1);
 
-    let inputs = [UncertainInput {
+    let inputs = [RangedInput {
         id: "snow-density".into(),
         low: lo,
         high: hi,
@@ -530,16 +530,16 @@ fn snow_density_range_on_a_steady_stack_stays_between_its_ends() {
     for rho in [lo, 300.0, hi] {
         let band = steady::snow_band(&snow_over_soil(rho, corr), &[0.0, 0.4, 1.0]).unwrap();
         let (rmin, rmax) = band.r_total_range();
-        for c in SnowCorrelation::ALL {
+        for c in SnowRegression::ALL {
             if let Ok(single) = steady::solve(&snow_over_soil(rho, c)) {
-                let v = single.r_total_m2k_per_w;
+                let v = single.r_total_m2k_w;
                 assert!(
                     rmin <= v && v <= rmax,
                     "{c:?} at {rho}: {v} not in {rmin}..{rmax}"
                 );
             }
         }
-        let member = band.members.iter().find(|m| m.correlation == corr).unwrap();
-        assert_eq!(member.result.r_total_m2k_per_w, r_of(rho).unwrap());
+        let member = band.members.iter().find(|m| m.regression == corr).unwrap();
+        assert_eq!(member.result.r_total_m2k_w, r_of(rho).unwrap());
     }
 }

@@ -60,7 +60,7 @@ fn below_base(s: &EdgeSection, q: EdgeQuantity, v: f64) -> f64 {
         .max_frost_below_base_m
 }
 
-fn search_to(s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64, res: f64) -> EdgeDesignReport {
+fn search_to(s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64, res: f64) -> EdgeLeastAnswer {
     let r = least_edge_value(s, &design_winter_climate(), q, lo, hi, res, "edge").unwrap();
     println!(
         "{}: {} value {:?} below base {:.4} slope {:?} jump {:?} in {} runs",
@@ -75,7 +75,7 @@ fn search_to(s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64, res: f64) -> Ed
     r
 }
 
-fn search(s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64) -> EdgeDesignReport {
+fn search(s: &EdgeSection, q: EdgeQuantity, lo: f64, hi: f64) -> EdgeLeastAnswer {
     search_to(s, q, lo, hi, RES)
 }
 
@@ -228,7 +228,7 @@ fn edge_cases_and_errors() {
     assert_eq!((r.value, r.trials.len()), (None, 2));
     assert!(r.frost_below_base_m > 0.0);
     // The run cap: four runs cannot narrow 3 m to 2 cm; the value given still holds.
-    let mut job = EdgeDesignJob::new(
+    let mut job = EdgeLeastSearch::new(
         &shallow(None),
         &c,
         EdgeQuantity::WingWidth,
@@ -244,16 +244,16 @@ fn edge_cases_and_errors() {
     let (a, b) = r.bracket.unwrap();
     assert!(b - a > RES && r.frost_below_base_m <= 0.0);
     // Errors, each naming its field.
-    let field = |e: EdgeDesignError| match e {
-        EdgeDesignError::Input(e) => e.0.iter().map(|e| e.field.clone()).collect::<Vec<_>>(),
+    let field = |e: EdgeLeastError| match e {
+        EdgeLeastError::Input(e) => e.0.iter().map(|e| e.field.clone()).collect::<Vec<_>>(),
         other => panic!("expected an input error, got {other:?}"),
     };
     let no_wing = coarse(true, false, true);
     for q in [EdgeQuantity::WingWidth, EdgeQuantity::WingR] {
-        let e = EdgeDesignJob::new(&no_wing, &c, q, 0.0, 1.0, RES, "edge").unwrap_err();
+        let e = EdgeLeastSearch::new(&no_wing, &c, q, 0.0, 1.0, RES, "edge").unwrap_err();
         assert_eq!(field(e), ["edge.wing"]);
     }
-    let e = EdgeDesignJob::new(
+    let e = EdgeLeastSearch::new(
         &coarse(false, true, true),
         &c,
         EdgeQuantity::WallBoardR,
@@ -266,19 +266,20 @@ fn edge_cases_and_errors() {
     assert_eq!(field(e), ["edge.wall_board"]);
     let s = coarse(true, true, true);
     let q = EdgeQuantity::WingWidth;
-    let e = EdgeDesignJob::new(&s, &c, q, 1.0, 1.0, RES, "edge").unwrap_err();
-    assert_eq!(field(e), ["edge.design.max"]);
-    let e = EdgeDesignJob::new(&s, &c, q, 1.0, 0.5, RES, "edge").unwrap_err();
-    assert_eq!(field(e), ["edge.design.max"]);
+    let e = EdgeLeastSearch::new(&s, &c, q, 1.0, 1.0, RES, "edge").unwrap_err();
+    assert_eq!(field(e), ["edge.least.max"]);
+    let e = EdgeLeastSearch::new(&s, &c, q, 1.0, 0.5, RES, "edge").unwrap_err();
+    assert_eq!(field(e), ["edge.least.max"]);
     for res in [0.0, -0.01, f64::NAN] {
-        let e = EdgeDesignJob::new(&s, &c, q, 0.0, 1.0, res, "edge").unwrap_err();
-        assert_eq!(field(e), ["edge.design.resolution"]);
+        let e = EdgeLeastSearch::new(&s, &c, q, 0.0, 1.0, res, "edge").unwrap_err();
+        assert_eq!(field(e), ["edge.least.resolution"]);
     }
     // A range end the section refuses is named by the section's field.
-    let e = EdgeDesignJob::new(&s, &c, q, 0.0, 50.0, RES, "edge").unwrap_err();
+    let e = EdgeLeastSearch::new(&s, &c, q, 0.0, 50.0, RES, "edge").unwrap_err();
     assert_eq!(field(e), ["edge.wing.width_m"]);
     // (The vertical board follows the base to 0 and is named too.)
-    let e = EdgeDesignJob::new(&s, &c, EdgeQuantity::FootingDepth, 0.0, 1.0, RES, "x").unwrap_err();
+    let e =
+        EdgeLeastSearch::new(&s, &c, EdgeQuantity::FootingDepth, 0.0, 1.0, RES, "x").unwrap_err();
     assert!(field(e).contains(&"x.wall.base_depth_m".to_string()));
     // What `apply` does: a vertical board that reached the base follows it; R is thickness
     // over the board's conductivity; a wing narrower than the least runs without the wing.
@@ -316,7 +317,7 @@ fn slicing_changes_no_number() {
     let q = EdgeQuantity::WingR;
     let whole = least_edge_value(&s, &c, q, 0.0, 6.0, COARSE_RES, "edge").unwrap();
     assert_eq!(whole.outcome, EdgeOutcome::Found);
-    let mut job = EdgeDesignJob::new(&s, &c, q, 0.0, 6.0, COARSE_RES, "edge").unwrap();
+    let mut job = EdgeLeastSearch::new(&s, &c, q, 0.0, 6.0, COARSE_RES, "edge").unwrap();
     let mut last = 0.0;
     let mut slices = 0;
     loop {
@@ -343,7 +344,7 @@ fn slicing_changes_no_number() {
 /// resolution of allowance each way, as above).
 #[test]
 fn a_harsher_winter_needs_no_less() {
-    let job = EdgeDesignJob::new(
+    let job = EdgeLeastSearch::new(
         &shallow(None),
         &design_winter_climate(),
         EdgeQuantity::WingWidth,
@@ -356,7 +357,7 @@ fn a_harsher_winter_needs_no_less() {
     let mild = job.under_scaled_winter(0.9).unwrap().finish().unwrap();
     let harsh = job.under_scaled_winter(1.1).unwrap().finish().unwrap();
     let base = job.finish().unwrap();
-    let v = |r: &EdgeDesignReport| r.value.unwrap();
+    let v = |r: &EdgeLeastAnswer| r.value.unwrap();
     println!(
         "least wing width: F × 0.9 {:.3} m, × 1 {:.3} m, × 1.1 {:.3} m",
         v(&mild),
@@ -372,7 +373,7 @@ fn a_harsher_winter_needs_no_less() {
         coldest_day_of_year: 30,
         snow: None,
     };
-    let job = EdgeDesignJob::new(
+    let job = EdgeLeastSearch::new(
         &shallow(None),
         &series,
         EdgeQuantity::WingWidth,
@@ -384,6 +385,6 @@ fn a_harsher_winter_needs_no_less() {
     .unwrap();
     assert!(matches!(
         job.under_scaled_winter(1.1),
-        Err(EdgeDesignError::Input(e)) if e.0[0].field == "edge.climate"
+        Err(EdgeLeastError::Input(e)) if e.0[0].field == "edge.climate"
     ));
 }

@@ -1,7 +1,7 @@
 //! Benchmark: searches of the edge design (`edge2d::least`) on the invented section and
 //! design winter, at the design grid (4 cm cells at the foci) and at a finer one, and on a
 //! coarse trial grid (10 cm). Prints, for each: outcome, answer, runs, cells and wall time.
-//! Run: `cargo bench --bench edge_design`.
+//! Run: `cargo bench --bench edge_least`.
 
 use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
 use hibernal::physics::edge2d::least::{least_edge_value, EdgeQuantity};

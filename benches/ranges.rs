@@ -1,10 +1,10 @@
 //! Benchmark: a Monte Carlo of 200 trials of a cheap steady case (snow of uncertain
 //! density over silt, R air to surface), the sampler alone, and one reference year, from
 //! which the time of 200 reference years on workers is estimated.
-//! Run: `cargo bench --bench uncertainty`.
+//! Run: `cargo bench --bench ranges`.
 
-use hibernal::physics::materials::{MaterialSpec, SnowCorrelation, SoilInput, SoilModel, Texture};
-use hibernal::physics::ranges::{monte_carlo, sample_at, Distribution, UncertainInput};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
+use hibernal::physics::ranges::{monte_carlo, sample_at, Distribution, RangedInput};
 use hibernal::physics::stack::{Boundary, Layer, Stack};
 use hibernal::physics::steady;
 use hibernal::physics::transient::reference::reference_year;
@@ -19,7 +19,7 @@ fn stack(density: f64) -> Stack {
                 thickness_m: 0.4,
                 material: MaterialSpec::Snow {
                     density_kg_m3: density,
-                    correlation: SnowCorrelation::Sturm1997Quadratic,
+                    regression: SnowRegression::Sturm1997Quadratic,
                 },
             },
             Layer {
@@ -37,7 +37,7 @@ fn stack(density: f64) -> Stack {
         ],
         top: Boundary::Air {
             temperature_c: -25.0,
-            film_w_per_m2_k: 20.0,
+            film_w_m2k: 20.0,
         },
         bottom: Boundary::Surface { temperature_c: 4.0 },
     }
@@ -49,7 +49,7 @@ fn median(mut t: Vec<f64>) -> f64 {
 }
 
 fn main() {
-    let inputs = [UncertainInput {
+    let inputs = [RangedInput {
         id: "snow-density".into(),
         low: 160.0,
         high: 450.0,
@@ -60,7 +60,7 @@ fn main() {
     for _ in 0..9 {
         let t0 = Instant::now();
         let r = monte_carlo(&inputs, 200, 1, |x| {
-            steady::solve(&stack(x[0])).map(|r| r.r_total_m2k_per_w)
+            steady::solve(&stack(x[0])).map(|r| r.r_total_m2k_w)
         })
         .expect("runs");
         times.push(t0.elapsed().as_secs_f64());
@@ -74,8 +74,8 @@ fn main() {
         p.2
     );
 
-    let normal: Vec<UncertainInput> = (0..4)
-        .map(|i| UncertainInput {
+    let normal: Vec<RangedInput> = (0..4)
+        .map(|i| RangedInput {
             id: format!("x{i}"),
             low: 0.0,
             high: 1.0,
