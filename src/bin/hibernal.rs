@@ -17,7 +17,7 @@ mod cli {
     use std::process::ExitCode;
 
     use clap::{Parser, Subcommand};
-    use hibernal::document::{compute, examples, scenario};
+    use hibernal::document::{compute, defaults, examples, scenario};
     use hibernal::physics::units::UnitSystem;
 
     #[derive(Parser)]
@@ -144,7 +144,33 @@ mod cli {
             /// Name of the example to print.
             name: Option<String>,
         },
+        /// List the sections a scenario can have, or print the one a new section starts
+        /// from (JSON, SI), to paste into a scenario under its name.
+        Default {
+            /// The section: winter, shelter, edge or ranges.
+            section: Option<String>,
+        },
     }
+
+    /// The sections `hibernal default` prints, with what each is.
+    const DEFAULT_SECTIONS: [(&str, &str); 4] = [
+        (
+            "winter",
+            "a winter run of the stack: a sine year, film surface, geothermal flux",
+        ),
+        (
+            "shelter",
+            "a snow-block dome for two on a calm -15 °C night",
+        ),
+        (
+            "edge",
+            "the edge of a heated building on a 0.6 m footing with board and wing",
+        ),
+        (
+            "ranges",
+            "a ranges study of the winter's freezing index (±20 %), 200 runs",
+        ),
+    ];
 
     fn fail(msg: impl std::fmt::Display) -> ExitCode {
         eprintln!("hibernal: {msg}");
@@ -180,6 +206,34 @@ mod cli {
                     ))
                 }
             },
+            Command::Default { section: None } => {
+                for (id, what) in DEFAULT_SECTIONS {
+                    println!("{id:<10} {what}");
+                }
+                ExitCode::SUCCESS
+            }
+            Command::Default { section: Some(id) } => {
+                let json = match id.as_str() {
+                    "winter" => serde_json::to_string_pretty(&defaults::winter()),
+                    "shelter" => serde_json::to_string_pretty(&defaults::shelter()),
+                    "edge" => serde_json::to_string_pretty(&defaults::edge()),
+                    "ranges" => serde_json::to_string_pretty(&defaults::ranges()),
+                    _ => {
+                        let ids: Vec<&str> = DEFAULT_SECTIONS.iter().map(|s| s.0).collect();
+                        return fail(format!(
+                            "no section named {id:?}; the sections are: {}",
+                            ids.join(", ")
+                        ));
+                    }
+                };
+                match json {
+                    Ok(s) => {
+                        println!("{s}");
+                        ExitCode::SUCCESS
+                    }
+                    Err(e) => fail(e),
+                }
+            }
             Command::Run {
                 file,
                 svg,

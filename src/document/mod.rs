@@ -5,6 +5,7 @@
 pub mod climate_csv;
 pub mod climate_import;
 pub mod compute;
+pub mod defaults;
 pub mod edge;
 pub mod edge_least;
 pub mod examples;

@@ -63,7 +63,7 @@ pub struct ShelterDoc {
 }
 
 fn default_inside_film() -> f64 {
-    7.0
+    crate::physics::shelter::inputs::INSIDE_FILM_W_M2K
 }
 
 fn default_lining() -> f64 {
@@ -185,7 +185,7 @@ pub struct ConditionsDoc {
 }
 
 fn default_body_area() -> f64 {
-    1.8
+    crate::physics::shelter::inputs::BODY_AREA_M2
 }
 
 fn default_share() -> f64 {

@@ -90,6 +90,11 @@ pub struct SurfacePreset {
     pub source: &'static str,
 }
 
+/// Film coefficient of open ground in light wind, W/(m²·K): 20, between the calm and the
+/// standard outdoor presets below (common practice, no source). The default surface film
+/// of a winter run and of an edge's outside ground.
+pub const GROUND_FILM_W_M2K: f64 = 20.0;
+
 pub const SURFACE_PRESETS: [SurfacePreset; 8] = [
     SurfacePreset {
         id: "held-surface",

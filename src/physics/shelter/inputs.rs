@@ -297,6 +297,14 @@ pub struct Conditions {
     pub stove_heat_share: f64,
 }
 
+/// Body surface area of one adult, m²: about 1.8 (the DuBois area of an average adult,
+/// ASHRAE Fundamentals, chapter on thermal comfort; from memory).
+pub const BODY_AREA_M2: f64 = 1.8;
+
+/// Inside surface film of a snow shelter (convection in still air and radiation between
+/// the snow surfaces together), W/(m²·K): 7 (common practice, no source).
+pub const INSIDE_FILM_W_M2K: f64 = 7.0;
+
 impl Default for Conditions {
     /// An invented calm night: −15 °C outside, 2 m/s wind, snowpack at −8 °C, two people
     /// sleeping, no flame.
@@ -307,7 +315,7 @@ impl Default for Conditions {
             snowpack_c: -8.0,
             people: 2,
             activity: Activity::Sleeping,
-            body_area_m2: 1.8,
+            body_area_m2: BODY_AREA_M2,
             candles: 0,
             stove_w: 0.0,
             stove_heat_share: 1.0,

@@ -87,6 +87,11 @@ pub struct RunSpec {
     pub profile_every_s: f64,
 }
 
+/// Geothermal heat flux entering the column from below, W/m²: 0.06, a typical continental
+/// value (global continental mean about 65 mW/m², Pollack, Hurter & Johnson 1993, Rev.
+/// Geophys. 31:267; from memory). The default deep boundary of a winter run and an edge.
+pub const GEOTHERMAL_FLUX_W_M2: f64 = 0.06;
+
 /// Density assumed for recorded snow whose density is not given, kg/m³: settled snow
 /// (200–300 kg/m³ in Cuffey & Paterson, The Physics of Glaciers, Table 2.1; from memory).
 pub const DEFAULT_SNOW_DENSITY_KG_M3: f64 = 250.0;
