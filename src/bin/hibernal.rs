@@ -1,4 +1,13 @@
 //! The command-line face of Hibernal: runs a scenario file and prints the report as JSON.
+//!
+//! `hibernal run FILE.json [options]` parses the file, runs every section through
+//! `document::compute::compute_all` (stack, winter, shelter, edge, with the least-value
+//! searches the sections ask for) and then, with a `ranges` section, the study on
+//! `--threads` threads into the report's `ranges`, with a summary on stderr. The options
+//! write the charts as SVG and the series as CSV in the `--units` chosen (`hibernal run
+//! --help` lists them). `hibernal schema` prints the format's JSON Schema; `hibernal
+//! example [NAME]` lists the bundled examples or prints one. Bad input exits with code 2
+//! and a message naming the fields.
 
 //! (The CLI is native only; on wasm32 this binary is an empty stub so that `cargo test
 //! --target wasm32-unknown-unknown` can build the crate's targets.)
@@ -126,7 +135,8 @@ mod cli {
             #[arg(long, value_name = "OUT.svg")]
             sensitivity_svg: Option<PathBuf>,
             /// The result --ranges-svg and --sensitivity-svg draw: r-value, frost-depth,
-            /// frost-below-footing or shelter-interior (default: the study's first).
+            /// frost-below-footing, shelter-interior or shelter-melt (default: the study's
+            /// first).
             #[arg(long, value_name = "ID")]
             ranges_result: Option<String>,
             /// Threads for the ranges study (default: the machine's cores). The answers are

@@ -16,10 +16,10 @@ const TARGET: RGBColor = RGBColor(30, 130, 70);
 const SURFACE_LINE: RGBColor = RGBColor(150, 90, 170);
 
 /// Draw the first night in a shelter: the air inside, the inner surface of the main wall
-/// and the warmest snow surface against the hours, with the 0 °C melt limit, the
-/// target and the steady interior temperature marked, and the warm-up time if the air gets
-/// there. `scale` as in [`draw_profile`]. No report makes it fail: an empty night draws
-/// axes and a note.
+/// and the warmest snow surface against the hours, with the 0 °C melt limit, the target and
+/// the steady interior temperature marked, and the warm-up time if the air gets there.
+/// `scale` as in [`super::profile::draw_profile`]. No report makes it fail: an empty night
+/// draws axes and a note.
 pub fn draw_shelter_night<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     r: &ShelterReport,

@@ -1,6 +1,25 @@
 //! A winter run's charts: frost and thaw fronts against time, the ground temperature on one
 //! day over the run's envelope, and the daily air and surface temperatures with the ground
 //! heat flux.
+//!
+//! - [`draw_frost_depth`]: frost and thaw fronts against the day.
+//! - [`draw_winter_profile`] `(root, report, day, units, scale)`: the ground temperature
+//!   against depth on the day whose kept profile is nearest `day`, over the band of the
+//!   coldest and warmest each cell reached in the whole run, with the layers as alternating
+//!   bands named from `layer_names`, the 0 °C line, that day's frost (and thaw) depth and
+//!   that day's snow as a band above the surface. Its axes come from the whole run (the
+//!   envelope, every profile, every surface temperature), so they hold still while the day
+//!   changes; `tests/chart.rs` checks that the curve's pixels are one linear map of the
+//!   data on two different days.
+//! - [`draw_ground_series`] `(root, report, units, scale)`: the daily air and surface
+//!   temperatures with the heat flux into the ground on a right-hand axis, and the two
+//!   freezing indices (quantity `degree_days`) in the upper left corner.
+//!
+//! Each has an `_svg` form for the CLI and the tests (`--winter-svg`; `--profile-svg`, its
+//! day from `--profile-day`, by default the day of the deepest frost; `--series-svg`). No
+//! input makes them fail: empty, one-day, NaN and infinite reports draw (with a caption
+//! saying no profile was kept when there is none), a single point is drawn as a dot, and
+//! `day` may be any number.
 
 use super::frame::{
     chart_scale, day_label, depth_decimals, draw_legend, err, finite_runs, line, padded_range,
@@ -14,7 +33,7 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 /// Draw frost and thaw depth against time for a winter run: the frozen ground shaded
 /// between the thaw front and the frost front, the deepest frost marked. `scale` as in
-/// [`draw_profile`].
+/// [`super::profile::draw_profile`].
 pub fn draw_frost_depth<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     w: &crate::document::winter::WinterReport,
@@ -185,7 +204,7 @@ fn day_near(w: &WinterReport, day: f64) -> Option<&WinterDay> {
 /// frost depth (and thaw depth, when the ground has thawed from the surface over frozen
 /// ground), and that day's snow as a band above the ground surface. Both axes are fixed for
 /// the whole run, so the chart holds still while the day changes. `scale` as in
-/// [`draw_profile`].
+/// [`super::profile::draw_profile`].
 pub fn draw_winter_profile<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     w: &WinterReport,
@@ -478,7 +497,8 @@ pub fn winter_profile_svg(
 
 /// Draw the daily air and ground surface temperatures against the day of the run, with the
 /// heat flux into the ground on a second axis at the right, and the air and surface
-/// freezing indices in the upper left corner. `scale` as in [`draw_profile`].
+/// freezing indices in the upper left corner. `scale` as in
+/// [`super::profile::draw_profile`].
 pub fn draw_ground_series<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     w: &WinterReport,

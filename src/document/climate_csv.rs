@@ -36,6 +36,11 @@
 //! the neighbouring days and counted.
 //!
 //! Unit conversions come from [`crate::physics::units`] (NIST SP 811).
+//!
+//! # Reading
+//!
+//! [`read_daily_csv`] splits each line on its own (the csv crate's reader is used only for
+//! a line with quotes), so the line numbers stay true after comments and empty lines.
 
 use crate::physics::climate::{
     date_step_problem, day_value_problems, DailySeries, DayField, DayRecord, MAX_SERIES_DAYS,

@@ -2,6 +2,12 @@
 //! units the user chose becomes the scenario's daily records, with what a builder wants to
 //! see before running it: the span, the freezing index of each winter, and the design values
 //! of a multi-year record (mean of the three coldest winters, the coldest).
+//!
+//! [`import_csv`] (units named as the CSV reader accepts them, [`ImportOptions`]) gives the
+//! scenario's daily records in SI, every problem with its line, and a summary: the span,
+//! each winter's freezing and thawing index, and the design values or why there are none.
+//! [`summarise_days`] does the same for records already in a scenario. The page calls both
+//! through the wasm face.
 
 use crate::document::climate_csv::{
     read_daily_csv, BadLines, CsvOptions, DensityUnit, DepthUnit, LineProblem, TemperatureUnit,

@@ -1,3 +1,14 @@
+//! Every section of a scenario run over the core, and the report the CLI prints.
+//!
+//! - [`compute_with_winter`]: the steady solve and the winter run, with its least-thickness
+//!   search when the section asks for one.
+//! - [`compute_all`]: that, plus the shelter and the building edge (with its `edge.least`
+//!   search when asked). The errors of the stack, the winter, the shelter and the edge come
+//!   together, so every one is named at once.
+//! - [`report`] makes the [`Report`] (SI) of what was computed. The ranges section is left
+//!   aside here: the CLI runs it afterwards (`ranges::plan::run_ranges`) into
+//!   `Report::ranges`, and the page runs it only when asked.
+
 use super::scenario::{Scenario, FORMAT_VERSION};
 use super::steady::{
     compute, BandDoc, BandMemberDoc, FaceDoc, LayerReport, PropertiesDoc, Steady, ZeroPlaneDoc,

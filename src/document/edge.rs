@@ -1,8 +1,82 @@
 //! The `edge` section of the scenario document (format version 4): a vertical cross-section
-//! through the edge of a slab-on-grade building ([`crate::physics::edge2d`]) run through a winter, the
-//! far-field soil column run by the 1D winter machinery beside it, and the report of both.
-//! The section stands on its own, like the shelter: it reads neither
-//! `layers` nor `top` nor `bottom`.
+//! through the edge of a slab-on-grade building ([`crate::physics::edge2d`]) run through a
+//! winter, the far-field soil column run by the 1D winter machinery beside it, and the
+//! report of both. The section stands on its own, like the shelter: it reads neither
+//! `layers` nor `top` nor `bottom`, which stay required. Files of versions 1 to 3 load
+//! unchanged; an `edge` in a file of an older version is refused (field `edge`).
+//!
+//! ```json
+//! "edge": {
+//!   "inside_half_width_m": 5.0, "outside_extent_m": 8.0, "depth_m": 8.0,
+//!   "slab": { "thickness_m": 0.10, "material": <MaterialDoc> },
+//!   "wall": { "width_m": 0.20, "base_depth_m": 0.60, "material": <MaterialDoc> },
+//!   "wall_board": null | { "material": <insulation>, "thickness_m": 0.05, "depth_m": 0.60 },
+//!   "wing": null | { "material": <insulation>, "thickness_m": 0.05, "width_m": 0.60, "depth_m": 0.30 },
+//!   "soil": [ { "name": "silt", "thickness_m": 8.0, "material": <soil, unfrozen_water allowed> } ],
+//!   "inside": { "kind": "heated", "air_c": 20.0, "film_w_m2k": 6.0 } | { "kind": "closed" },
+//!   "outside": <winter SurfaceDoc>, "climate": <winter ClimateDoc>, "bottom": <winter DeepDoc>,
+//!   "start": { "surface_c": 5.0, "gradient_k_per_m": 0.03 },
+//!   "grid": null | { "fine_m": 0.02, "growth_ratio": 1.15, "max_cell_m": 0.4 },
+//!   "step_s": 86400, "duration_days": null, "field_every_days": 7,
+//!   "least": null | <see the edge_least module>
+//! }
+//! ```
+//!
+//! The start's gradient keeps its published key `gradient_k_per_m` (the Rust field is
+//! `gradient_k_m`).
+//!
+//! **Conversion and checks** (one pass, every error at once). Soil bands are cut to
+//! `depth_m` (the last one reaching the bottom). The far-field column goes through the
+//! winter machinery unchanged: a `WinterDoc` of the same climate, surface, bottom and step
+//! (uniform start at `start.surface_c`) over a stack of the soil bands, so climate,
+//! surface, bottom, step, duration and the soils' unfrozen-water curves are checked by the
+//! winter's own code, their paths moved under `edge.` (`winter.surface` → `edge.outside`,
+//! `layers[i]` → `edge.soil[i]`); when the soil fails, the climate, surface and bottom are
+//! still checked on a stand-in column. Boards must be insulation materials; their
+//! conductivity is the resolved one, which carries `moisture_derating_pct` (k / (1 − d), so
+//! R × (1 − d); `the_boards_are_derated_for_moisture_in_the_run` in
+//! `tests/edge_scenario.rs`), and the report's cautions state the deratings used. Then the
+//! core's `EdgeSection::validate("edge")` (paths `edge.wing.width_m`; `….board.thickness_m`
+//! moved to `edge.wing.thickness_m`, the board's conductivity and heat capacity to
+//! `edge.wing.material.…`) and its cell cap (`MAX_CELLS`, field `edge.grid.fine_m`). Caps
+//! of the section: [`MAX_SOIL_BANDS`] soil bands, [`MAX_EDGE_DAYS`], [`MAX_EDGE_STEPS`]
+//! (field `edge.step_s`).
+//!
+//! **The run** ([`EdgeJob`]: `new`, `section`, `advance(max_steps)`, `progress`, `finish`;
+//! [`run_edge_scenario`] drives one to the end). The 2D `EdgeRun` under the climate and,
+//! beside it, the 1D `WinterJob` of the far-field column; the column (hundreds of times
+//! cheaper) runs to its end in the first `advance`, the 2D run `max_steps` per call.
+//! Slicing changes no number (a run in 7-step slices equals one in one call:
+//! `the_report_carries_cautions_hand_methods_and_outlines`, `tests/edge_scenario.rs`).
+//!
+//! **The report** ([`EdgeReport`], `Report.edge`): `max_frost_below_base_m` (positive below
+//! the base; negative: the 0 °C point stays that far above it), `max_frost_below_base_day`,
+//! `frost_below_base`, `base_depth_m`, `far_frost_depth_m` (2D far side),
+//! `column_frost_depth_m` (1D), `mean_slab_heat_w_m`, `peak_slab_heat_w_m` (per metre of
+//! wall, for the half-building in the section), `air_freezing_index_c_days` and
+//! `surface_freezing_index_c_days` (from the column run), `nx`, `nz`, `cells`, `steps`,
+//! `iterations`, `energy_imbalance_relative`, `width_m`, `depth_m`, `daily` ([`EdgeDay`]:
+//! day, air, frost below the base, far-field frost, slab heat as the mean over the day's
+//! steps, the column's frost), `outlines` (`part`: slab, wall, wall-board, wing; x0, x1,
+//! z0, z1 in m), `field_days`, `warnings`, `hand_methods` and `cautions` (ids
+//! `frost-heave`, `estimates-only`, `board-moisture`, `long-wall`; always present). The
+//! fields and the grid faces stay out of the JSON ([`edge_field_csv`], the charts);
+//! [`edge_daily_csv`] writes the daily series; both name their units in the header.
+//!
+//! **Hand methods** (rows like the winter's `HandMethodRow`): `stefan` (the first freezing
+//! soil from the column run's surface freezing index), `stefan-resistance` (from the air
+//! freezing index with the outside film and the snow, d/k(ρ), as one resistance averaged
+//! over the days below 0 °C; for an n-factor surface the winter's row), `berggren`
+//! (modified Berggren through the soil bands, as the winter report does it), `column` (the
+//! 1D run), `far-field-2d` and `footing-2d` (frost depth below grade under the footing:
+//! base plus the frost below it). The notes say what each ignores (the building's heat, for
+//! all but the last).
+//!
+//! **The far field against the column.** The examples' 2D far side agrees with the 1D
+//! column within 5 cm
+//! (`the_examples_show_both_outcomes_and_the_far_field_agrees_with_the_column`): the 2D run
+//! takes snow as a resistance without heat capacity and starts with the gradient on cells
+//! up to 0.4 m deep, the column has snow cells, a uniform start and 1 cm cells.
 
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};
 use crate::document::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
@@ -33,9 +107,9 @@ pub const MAX_EDGE_STEPS: f64 = 6000.0;
 /// Most soil bands.
 pub const MAX_SOIL_BANDS: usize = 20;
 
-/// The default grid: cells of 2 cm at the foci growing by 1.15 up to 0.4 m (chosen by the
-/// grid study in DEVELOPERS.md, "The edge scenario": frost below the base within 2 cm of a
-/// grid of 1 cm cells growing by 1.1).
+/// The default grid: cells of 2 cm at the foci growing by 1.15 up to 0.4 m, chosen by the
+/// edge's grid study against a grid of 1 cm cells growing by 1.1 (its figures are in
+/// `MEASUREMENTS.md`).
 pub const DEFAULT_GRID: EdgeGridDoc = EdgeGridDoc {
     fine_m: 0.02,
     growth_ratio: 1.15,

@@ -1,7 +1,7 @@
 //! `edge.least`: the search for the least wing width, board R-value or
 //! footing depth that keeps frost at or above the footing base through the edge's winter,
-//! over the 2D solver ([`crate::physics::edge2d::least`]); its sliced job for the page and its
-//! report.
+//! over the 2D solver ([`crate::physics::edge2d::least`]): its sliced job, for the page and
+//! the CLI.
 //!
 //! ```json
 //! "least": { "quantity": "wing-width", "min": 0.0, "max": 2.0, "resolution": 0.02 }
@@ -9,6 +9,15 @@
 //! Values in the quantity's SI unit: m for `wing-width` and `footing-depth`, m²K/W for
 //! `wing-r` and `wall-board-r` (the R of the board as the run takes it, moisture derating
 //! included: the board's thickness is varied at its derated conductivity).
+//!
+//! [`EdgeLeastJob`] (`new(&EdgeDoc)`, `advance`, `progress`, `report`) runs the core's
+//! [`EdgeLeastSearch`] a slice at a time. The core already names the search's own fields
+//! `edge.least.min`, `.max`, `.resolution`; the job moves a board's `….board.thickness_m`
+//! to the document's `….thickness_m`. The document's part (`EdgeLeastDoc`) and report
+//! (`EdgeLeastReport`: outcome, value, frost at it, slope, jump, bracket, every trial) live
+//! in [`crate::document::edge`] with their section. [`run_edge_least`] runs one to its end:
+//! [`crate::document::compute::compute_all`] puts it into `EdgeReport::least` when the
+//! section asks; the page runs it on request through the wasm face.
 
 use super::edge::EdgeLeastReport;
 use crate::document::edge::EdgeDoc;

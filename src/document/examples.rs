@@ -1,3 +1,8 @@
+//! The bundled examples, each a file in `scenarios/` compiled in: invented scenarios, no
+//! real site, product or record. `hibernal example` lists them and prints one; the page's
+//! picker and gallery show them. `tests/example_outputs.rs` keeps every example's report,
+//! CSV files and charts the same to the bit against stored digests.
+
 /// A bundled example: an invented scenario of our own.
 pub struct Example {
     pub id: &'static str,

@@ -3,15 +3,28 @@
 //! faces (page, CLI): serialisable mirrors of the core types, which know nothing of the
 //! format.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 5, ...}`, all values SI. Version 2
-//! adds the optional `winter` section (a transient run of the same stack,
-//! [`crate::scenario_winter`]); version 3 the optional `shelter` section (a snow shelter,
-//! [`crate::scenario_shelter`], which stands on its own beside the stack); version 4 the
-//! optional `edge` section (a building's edge in 2D, [`crate::scenario_edge`], also on its
-//! own); version 5 the optional `ranges` section (uncertain inputs, [`crate::scenario_ranges`])
-//! and a soil's `conductivity_factor`. Documents of versions 1 to 4, which lack the later
-//! sections, still load. A document from a newer version is refused
-//! with a message.
+//! Format: `{"format": "hibernal-scenario", "version": 5, ...}`, all values SI with the
+//! unit in the key (`thickness_m`, `film_w_m2k`). Version 2 adds the optional `winter`
+//! section (a transient run of the same stack, [`crate::document::winter`]); version 3 the
+//! optional `shelter` section (a snow shelter, [`crate::document::shelter`], which stands
+//! on its own beside the stack); version 4 the optional `edge` section (a building's edge
+//! in 2D, [`crate::document::edge`], also on its own); version 5 the optional `ranges`
+//! section (uncertain inputs, [`crate::document::ranges`]) and a soil's
+//! `conductivity_factor`.
+//!
+//! **Versions.** Documents of versions 1 to 4, which lack the later sections, load as they
+//! are: every later section and key is optional, so no upgrade step is needed, and the page
+//! saves what it opened as the current version. A section in a document of a version older
+//! than the one that brought it is refused, naming the section (`edge`); a document from a
+//! newer version is refused with a message (`version`).
+//!
+//! **Reading.** [`parse`] (text) and [`from_value`] (the page's objects) read through
+//! `serde_path_to_error`, so a malformed document is refused naming the path where it went
+//! wrong (`layers[1].thickness_m`); every struct refuses unknown keys, and a document over
+//! [`MAX_DOCUMENT_BYTES`] is not read. Reading checks the shape and the header only: the
+//! values are checked where they are used (the core's checks, each section's own), all
+//! errors of a pass at once. [`schema`] is the format's JSON Schema (`hibernal schema`).
+//! The stack's parts (layers, materials, faces) are in [`crate::document::vocabulary`].
 
 use super::vocabulary::{BoundaryDoc, LayerDoc};
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};

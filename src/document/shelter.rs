@@ -8,6 +8,62 @@
 //! flat cut through the wall, outside air to the inner face). Every field path starts with
 //! `shelter.` (`shelter.shape.inner_radius_m`, `shelter.conditions.people`,
 //! `shelter.night.duration_h`), so errors land beside their inputs on the page.
+//!
+//! Files of versions 1 and 2 load unchanged; a `shelter` in a file of version 1 or 2 is
+//! refused (field `shelter`). A shelter document still carries a stack: the bundled shelter
+//! examples use it for one square metre of the wall laid flat (outside air to air at 0 °C),
+//! so the steady panels show the wall's R-value. This keeps one document shape for every
+//! face (page, CLI, file open and save) and no switch of kinds.
+//!
+//! ```json
+//! "shelter": {
+//!   "shape": { "kind": "block-dome", "inner_radius_m": 1.5, "wall_thickness_m": 0.35 },
+//!   "snow_density_kg_m3": 300, "snow_correlation": "sturm-1997-quadratic",
+//!   "floor": { "kind": "snow" },            // or ground: conductivity_w_m_k, heat_capacity_j_m3_k, temperature_c
+//!   "entrance": { "kind": "cold-trap" },    // or level: opening_width_m, opening_height_m
+//!   "vent_diameter_m": 0.10,
+//!   "inside_film_w_m2k": 7, "lining_m2k_per_w": 0.2, "floor_cover_m2k_per_w": 0.5,   // defaults 7, 0.2, 0
+//!   "conditions": { "outside_c": -20, "wind_m_s": 5, "snowpack_c": -10, "people": 4,
+//!                   "activity": "sleeping", "body_area_m2": 1.8, "candles": 0,
+//!                   "stove_w": 0, "stove_heat_share": 1 },   // the last four have defaults
+//!   "night": { "duration_h": 12, "step_s": 60 },            // optional; snow_start_c, air_start_c, lining
+//!   "design": { "target_c": -5 },                           // optional, default −5 °C (invented)
+//!   "sweeps": { "thickness_m": [0.1, 1.0], "people": [0, 8], "outside_c": [-40, 0], "points": 31 }
+//! }
+//! ```
+//!
+//! Shapes: `block-dome` (inner_radius_m, wall_thickness_m), `hollowed-pile`
+//! (inner_radius_m, crown_thickness_m, base_thickness_m), `drift-cave` (inner_radius_m,
+//! optional exposed_face {share, thickness_m}), `trench` (length_m, width_m, depth_m,
+//! roof_thickness_m). Activities: the ids of the core's `Activity`. The night's starting
+//! snow temperature defaults to the outside air for a dome or pile and to the snowpack for
+//! a cave or trench; the air starts at the outside air; the night's target is the design
+//! target. Keys that keep their published spelling while the Rust names say it another way:
+//! `snow_correlation`, `lining_m2k_per_w`, `floor_cover_m2k_per_w`, `design` (the field
+//! `target`) and, in the report, `melt_kg_per_h`, `melt_mm_per_h`, `by_correlation`.
+//!
+//! **Checks.** The core's (`Shelter::validate`, `Conditions::validate`,
+//! `NightSettings::validate`), then the section's own (night 1–72 h, target −40 to +20 °C,
+//! sweep ranges increasing and within the core's limits, 2 to [`MAX_SERIES_POINTS`]
+//! points), all in one pass. The core names a shape's fields directly under `shelter.`
+//! (`shelter.inner_radius_m`); [`shape_path`] moves them to the document's
+//! `shelter.shape.inner_radius_m`, which is what the page's `data-field` carries.
+//!
+//! **The run** ([`run_shelter`]): every check first, all errors at once; then the steady
+//! balance, the band, the night, the least wall and the three series.
+//!
+//! **The report** ([`ShelterReport`], `Report.shelter`): interior temperature, surface
+//! state (`frozen` or `melting`), warmest surface, melt-free limit, melt kg/h, each inner
+//! surface (area, temperature, melting), gains, losses by path (walls and roof, floor,
+//! vent, doorway, melting snow: W and share of the heat given off; they add up to it,
+//! tested), vent and doorway flow, CO₂ ppm (null without air exchange) and the 5000 ppm
+//! limit, the lining comparison, the band (coldest, warmest, each regression), the night
+//! (samples every 10 minutes with every surface, warm-up and target times, melted kg,
+//! energy imbalance), the least wall (`reached`, `thinnest-suffices`, `not-reachable` with
+//! `melt-limit` or `other-losses`, `no-thickness-to-choose`; a plain message in SI, which
+//! the page words in the units it shows), the three series, warnings (the core's,
+//! deduplicated, with document paths) and the cautions with their sources, always.
+//! [`night_csv`] and [`sweeps_csv`] write the night and the series in either unit system.
 
 use crate::document::vocabulary::{ErrorDoc, SnowRegressionDoc};
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors, Warning};

@@ -1,3 +1,10 @@
+//! The steady part of a scenario: [`compute`] solves the stack and, when it holds snow, the
+//! band across the snow regressions ([`Steady`], beside the sections' results in
+//! [`crate::document::compute::Computed`]); the report's pieces (faces, layers with their
+//! properties, 0 °C planes, the band, whose members keep their published key
+//! `by_correlation`); and [`profile_csv`], the points the profile chart draws with the
+//! band, in either unit system (the page's CSV of the profile; the CLI does not write it).
+
 use super::scenario::Scenario;
 use super::vocabulary::ErrorDoc;
 use crate::physics::error::{InputError, InputErrorKind, InputErrors};

@@ -1,3 +1,18 @@
+//! The vocabulary the sections share: a layer ([`LayerDoc`]), a face ([`BoundaryDoc`]), a
+//! material ([`MaterialDoc`], a soil with its optional unfrozen-water curve,
+//! [`UnfrozenWaterDoc`]), the ids of the core's enumerations, and the error as the faces
+//! see it ([`ErrorDoc`]).
+//!
+//! - Every struct refuses unknown keys; a face and a material are tagged by `kind`, in
+//!   kebab case (`air`, `surface`; `snow`, `soil`, …).
+//! - The ids of snow regressions, textures, soil models and boards are one `id_enum!` each,
+//!   converting both ways to the core's enumeration; `document_ids_match_the_core_ids`
+//!   (`tests/scenario.rs`) checks that they agree with the core's own ids.
+//! - A snow material's regression keeps its published key `correlation` (the Rust field is
+//!   `regression`).
+//! - [`ErrorDoc`] carries the field path, the message, the kind's id and its numbers
+//!   (value, min, max in SI), so the page can word a refusal in the units it shows.
+
 use crate::physics::error::{InputError, Warning};
 use crate::physics::materials::{
     Board, MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture,

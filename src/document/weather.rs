@@ -1,3 +1,16 @@
+//! The weather the winter and the building edge share: the climate ([`ClimateDoc`]: a
+//! sinusoidal year, a design winter from a freezing index and a season length, or daily
+//! records), an optional snow season on the first two ([`SnowSeasonDoc`], into the core's
+//! `SnowSeason`), how the ground surface meets the weather ([`SurfaceDoc`]: a film with the
+//! snow's regression, or n-factors) and the deep boundary ([`DeepDoc`]).
+//!
+//! The winter reads them as `winter.climate`, `winter.surface` and `winter.bottom`; the
+//! edge as `edge.climate`, `edge.outside` and `edge.bottom`. They are checked where they
+//! are turned into the core's climate and run (the winter section; the edge moves the paths
+//! under `edge.`), with field paths such as `winter.climate.snow.peak_depth_m`. A snow
+//! season is optional, so files of format version 2 without one load unchanged. A film's
+//! regression keeps its published key `snow_correlation`.
+
 use crate::document::vocabulary::SnowRegressionDoc;
 use crate::physics::climate::SnowSeason;
 use schemars::JsonSchema;

@@ -1,5 +1,33 @@
 //! The winter section of the scenario document (format version 2): what drives a transient
 //! run of the same stack, and the report of that run.
+//!
+//! - **The section** ([`WinterDoc`]): the climate (a sinusoid, a design winter or daily
+//!   records, with an optional snow season), the surface (a film or n-factors), the deep
+//!   boundary, the start (uniform, spun up, or periodic), the grid ([`GridDoc`], default 1
+//!   cm at the surface growing by 1.05 to 25 cm), the step and the run's length, and an
+//!   optional `least_thickness` search. A soil's optional `unfrozen_water` {α, β} (Anderson
+//!   & Tice) makes it freeze over a range in the winter run; the steady part freezes at 0
+//!   °C. Every check names its field (`winter.grid.surface_cell_m`); a grid of more than
+//!   [`MAX_CELLS`] cells or a run longer than [`MAX_RUN_DAYS`] is refused.
+//! - **The run** ([`WinterJob`]: `new`, `advance(max_steps)`, `progress`, `finish`;
+//!   [`run_winter`] drives one to the end): the core's sliced run
+//!   ([`crate::physics::transient::run::Run`]).
+//! - **The report** ([`WinterReport`]): the deepest frost and its day, the air and surface
+//!   freezing indices, the daily series, the envelope, the layer faces and names, the work
+//!   counters, the energy imbalance, warnings (a start that did not settle, snow under an
+//!   n-factor surface) and the daily profiles, which stay out of the JSON. Daily values are
+//!   those at the end of each day, except the ground heat flux: the mean over the day
+//!   (within a day it swings as the air steps from one daily value to the next).
+//! - **Hand methods** beside the run ([`HandMethodRow`], ids `stefan`, `stefan-resistance`,
+//!   `berggren`, `transient`): Stefan's law for the first freezing layer, Stefan's law
+//!   under the layers above it as a resistance, modified Berggren through every layer, and
+//!   the run itself, each from the run's ground-surface freezing index
+//!   ([`crate::physics::hand`]).
+//! - **CSV**: [`daily_csv_in`] (the daily series in either unit system; [`daily_csv`] in
+//!   SI) and [`profiles_csv`] (a row per kept day, a column per cell centre), units in the
+//!   headers; the CLI's `--csv` and `--profiles-csv`, and the page's buttons.
+//! - **The least thickness** ([`LeastThicknessDoc`], [`LeastThicknessReport`]) lives here
+//!   with its section; its sliced job is in [`crate::document::winter_least`].
 
 use super::weather::{ClimateDoc, DeepDoc, SurfaceDoc};
 use crate::document::vocabulary::{ErrorDoc, LayerDoc, MaterialDoc};

@@ -1,6 +1,15 @@
 //! The `least_thickness` part of a winter section: which layer's thickness to search, the
 //! limit frost must stay above, and the range to search; the search run a slice at a time
 //! (`LeastThicknessJob`) and its report. The search itself is [`crate::physics::least`].
+//!
+//! The part reads `winter.least_thickness`: the layer, `keep_frost_above` (a depth, or a
+//! layer's bottom: a pipe under a cover), `min_m`, `max_m` and `resolution_m`, each checked
+//! with its field path. The job runs the search's stepper a slice at a time, each trial a
+//! whole winter run, at most [`crate::document::winter::MAX_RUNS`] of them; the report
+//! gives the outcome, the thickness, the frost and the limit at it, the slope where frost
+//! does not jump, and every trial. [`crate::document::compute::compute_with_winter`] runs
+//! it for the CLI (into `WinterReport::least_thickness`); the page runs it on request
+//! through the wasm face.
 
 use super::winter::{LeastThicknessReport, TrialDoc, MAX_RUNS};
 use crate::document::vocabulary::LayerDoc;

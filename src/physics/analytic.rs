@@ -17,6 +17,13 @@
 //! All inputs and outputs are SI (m, s, °C or K, W, J) except where a published method is
 //! stated in its own units (lake-ice coefficients in cm/(°C·d)^½), which the name says.
 //! Freezing index F is in K·s: °C·days × 86 400.
+//!
+//! erf and erfc are those of the `libm` crate; [`erfcx`], the scaled erfc, keeps large
+//! arguments from underflowing. Every transcendental equation is put in a strictly monotone
+//! form and solved by bisection on a bracket, to about 1e-15 relative. These are what the
+//! transient solvers are tested against; `tests/analytic.rs` checks them in turn against
+//! values solved independently with scipy (`tools/analytic_reference.py`). The hand methods
+//! as a report applies them to a layered column are in [`crate::physics::hand`].
 
 use std::f64::consts::PI;
 

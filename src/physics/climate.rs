@@ -10,6 +10,18 @@
 //! winter) and the freezing n-factors follow US Army TM 5-852-6 / UFC 3-130-01 and
 //! UFC 3-130-04 Table 4-1, as listed in the project's model reference, §4 (marked there as
 //! read in the source).
+//!
+//! What is here: [`DayRecord`] and [`DailySeries`] (validated: consecutive dates, values in
+//! range, at most 200 years), split into winters by [`DailySeries::seasons`]; [`Climate`]
+//! (`Sinusoid`, `DesignWinter`, `Series`) with [`Climate::air_temperature_c`],
+//! [`Climate::snow_at`] and [`Climate::duration_s`]; the freezing index (the range of the
+//! cumulative degree-day curve, [`freezing_index_c_days`]), the plain freezing degree-day
+//! sum and the thawing index; [`design_freezing_index`] (mean of the three coldest and the
+//! coldest complete winter); [`SnowSeason`], the optional snow cover of the sinusoid and
+//! the design winter; [`Climate::annual_wave`], the mean and first harmonic a periodic
+//! start needs ([`AnnualWave`]); and the freezing n-factors of ground surfaces
+//! ([`Surface`]). Dates are `chrono::NaiveDate` (chrono without default features: dates
+//! only, no clock).
 
 use chrono::{Datelike, NaiveDate};
 
@@ -549,6 +561,11 @@ pub const SEASON_DAY_RANGE: (f64, f64) = (0.0, 730.0);
 ///   (300 → 465), or `start_day` after `end_day` (300 → 100, the same season). It lasts at
 ///   most 365 days. On any day the time since the start is taken modulo 365 days, so the
 ///   first days of a run that starts in midwinter carry the previous winter's snow.
+///
+/// [`SnowSeason::validate`] checks it with field paths under the caller's prefix
+/// (`winter.climate.snow.peak_depth_m`): peak depth within [`SEASON_SNOW_DEPTH_RANGE_M`],
+/// densities within [`SEASON_SNOW_DENSITY_RANGE_KG_M3`] and settled not lighter than fresh,
+/// days within [`SEASON_DAY_RANGE`], the season at most 365 days with its peak inside it.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct SnowSeason {
     pub start_day: f64,

@@ -1,6 +1,18 @@
 //! Typed errors and warnings. Every one names the input field at fault, as a path into the
 //! scenario document (for example `layers[2].thickness_m`), so the page can show the message
 //! beside that field and the CLI can print it.
+//!
+//! - [`InputError`] is one `{ field, kind }`; [`InputErrors`] all the errors of one pass of
+//!   checks (every validator collects them all, never stopping at the first); [`Warning`] a
+//!   model used outside the range its source covers, which does not stop the run.
+//! - Each [`InputErrorKind`] has a stable [`InputErrorKind::id`] and its
+//!   [`InputErrorKind::numbers`] (the offending value and the limits, SI), which the
+//!   reports carry so a face can word a refusal in the units it shows.
+//! - Outside a model's range: warn, don't fail. Outside what is physical (snow denser than
+//!   ice, water beyond saturation, zero thickness): an error naming the field.
+//! - A section that reuses another's checks moves their paths under its own name (the
+//!   edge's far-field column is checked as a winter, its paths moved from `winter.` to
+//!   `edge.`), so a path always names a field of the document as written.
 
 use std::fmt;
 

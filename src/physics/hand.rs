@@ -1,6 +1,6 @@
 //! Hand methods for the deepest frost on a layered column, applied the same way wherever a
 //! run is reported beside them (the winter run of a stack, the far field of a building
-//! edge), so that users see how conservative each is (models.md §4).
+//! edge), so that users see how conservative each is (the project's model reference, §4).
 //!
 //! - **Stefan's law** for the first layer that holds water that freezes, taken to start at
 //!   the surface: X = √(2 k_f I / L) ([`analytic::stefan_depth_m`]), k_f at −1 °C. Ignores

@@ -15,6 +15,15 @@
 //! The frost depth read from a run moves in small steps when a layer's thickness moves the
 //! grid's faces (cells are re-laid for each run); the tolerance should be above that noise
 //! (millimetres for centimetre cells).
+//!
+//! The search is a stepper, [`Searcher`] (ask it for the next value, run it, hand the trial
+//! back), so a sliced job can run each trial a slice at a time; [`least_value`] drives it
+//! in one call. Its answer is a [`LeastAnswer`]: `Found` (the value, the frost and limit at
+//! it, every trial, and the slope d(frost − limit)/d(value) near it), `SmallestSuffices`,
+//! `NotReachable` or `NotMonotone`. [`least_layer_thickness`] runs it over 1D winter runs
+//! of a column, with the limit at a depth or at the bottom of a layer ([`FrostLimit`]: a
+//! pipe under a cover); a trial thinner than [`MIN_LAYER_M`] runs without the layer. Each
+//! trial is a whole run, so the 2D edge's search uses the same stepper over 2D runs.
 
 use crate::physics::transient::run::run;
 use crate::physics::transient::setup::{Forcing, RunSpec};

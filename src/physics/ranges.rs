@@ -23,6 +23,31 @@
 //! deviation (divisor n − 1), two-pass. Statistics are computed in index order from the
 //! values kept by index, so a result merged from several workers is bit-identical to a
 //! single-thread run.
+//!
+//! **Inputs.** A [`RangedInput`] has an id, its low and high ends and a [`Distribution`]:
+//! uniform, triangular with its mode, or normal with its mean and sd truncated to
+//! [low, high] (mean inside the range, sd > 0); each is drawn by its inverse distribution
+//! function from one uniform number (formulas beside each variant). [`validate_inputs`]
+//! checks them all at once with field paths under the caller's prefix
+//! (`ranges.inputs[2].high`, `….distribution.mode`, `….id` for an empty or repeated id), at
+//! most [`MAX_INPUTS`] of them; a job's runs lie between [`MIN_RUNS`] and [`MAX_RUNS`]
+//! (`{prefix}.runs`). `same_seed_same_result_different_seed_different_samples`
+//! (`tests/ranges_sampling.rs`) pins the uniforms and three samples against an independent
+//! Python implementation, and a wasm test checks the browser gives the same bits.
+//!
+//! **Jobs.** [`MonteCarloJob`] keeps each run's outcome by its index: a caller runs it in
+//! order ([`MonteCarloJob::next_sample`], [`MonteCarloJob::record`]), or hands samples out
+//! ([`MonteCarloJob::sample`]) and records them as they come back in any order
+//! ([`MonteCarloJob::record_at`]); [`MonteCarloJob::result`] is the same to the bit either
+//! way (`interleaved_batches_merge_to_the_single_thread_result` checks 2 and 3 interleaved
+//! batches). A trial's error or a value that is not finite is a [`TrialFailure`], kept with
+//! its index and left out of the statistics; every trial failing is
+//! [`MonteCarloError::NoValues`]. [`monte_carlo`] runs a job in one call.
+//!
+//! **One at a time.** [`one_at_a_time`] runs 2n + 1 trials: the base case, and each input
+//! at its low and its high end with the others at the base (each base value checked to lie
+//! in its range); the swings |at_high − at_low| come largest first, for a sensitivity
+//! chart.
 
 use crate::physics::error::{check, InputError, InputErrorKind, InputErrors};
 use std::fmt;

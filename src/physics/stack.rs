@@ -4,6 +4,12 @@
 //! measured from the top face, in metres. For ground, the top face meets the air and the
 //! bottom is deep soil; for a snow wall, the top face is the outside and the bottom the
 //! inside.
+//!
+//! A face is a [`Boundary`]: air at a temperature through a surface film, or a surface held
+//! at a temperature; [`SURFACE_PRESETS`] are the films the page offers, each with its
+//! source. [`Stack::resolve`] checks everything at once against the limits of this file
+//! (every error names its field, `layers[2].thickness_m`) and resolves each layer's
+//! material; the solvers start from the [`ResolvedStack`].
 
 use crate::physics::error::{check, InputErrorKind, InputErrors, Warning};
 use crate::physics::materials::{Material, MaterialSpec};

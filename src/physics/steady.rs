@@ -16,6 +16,19 @@
 //!
 //! Valid for conduction only: no convection inside layers, no radiation across air gaps, no
 //! moisture or vapour transport, and water freezing at exactly 0 °C.
+//!
+//! No separate iteration on the position of a 0 °C plane is needed: the frozen and unfrozen
+//! parts of a soil follow from the march, and the answer is self-consistent by
+//! construction. The property test
+//! `flux_is_the_same_through_every_layer_and_the_profile_is_monotone` (`tests/steady.rs`)
+//! checks that the flux computed independently from each layer's end temperatures, and
+//! through each film, equals q to 1e-8.
+//!
+//! The result ([`SteadyResult`]) gives each layer's state ([`LayerState`]: frozen,
+//! unfrozen, partly frozen, or without water that freezes), every 0 °C plane
+//! ([`ZeroPlane`]) and the exact temperature at any depth
+//! ([`SteadyResult::temperature_at`]); [`snow_band`] solves the same stack with every snow
+//! regression, for the spread the results show.
 
 use crate::physics::error::{InputErrors, Warning};
 use crate::physics::materials::{Family, Material, SnowRegression};

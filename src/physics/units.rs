@@ -3,6 +3,11 @@
 //!
 //! Conversion factors: NIST Special Publication 811 (2008 edition), Appendix B, using the
 //! International Table Btu (1 Btu_IT = 1055.056 J), 1 ft = 0.3048 m, 1 lb = 0.45359237 kg.
+//!
+//! [`QUANTITIES`] is the one table of units: every face converts with it (the charts, the
+//! CSV files, the climate reader), and the page receives it through the wasm face's
+//! catalogue, so no script hard-codes a factor. A value is named by its quantity's id
+//! ([`quantity`]: `thickness`, `temperature`, `degree_days`, …).
 
 /// Which system values are shown in.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -1,3 +1,14 @@
+//! An input's value into a scenario, and back out.
+//!
+//! [`apply`] sets every field of the input's kind in the scenario: the stack's layers, the
+//! edge's soil, slab and boards, the shelter's snow, a snow season's settled density (the
+//! fresh one keeping its ratio to it), daily records' snow densities (scaled to the value
+//! as their mean), and the climate's freezing index (a design winter's directly; any other
+//! climate by a shift of its air temperature found by bisection); with `layer`, that layer
+//! of the stack only. The plan refuses an input that would change nothing, at
+//! `ranges.inputs[i].what` (or `.layer`). [`base_value`] reads the scenario's own value,
+//! from the first field `apply` would set.
+
 use super::{RangeResult, RangedWhat};
 use crate::document::scenario::Scenario;
 use crate::document::vocabulary::{LayerDoc, MaterialDoc};

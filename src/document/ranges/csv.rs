@@ -1,3 +1,8 @@
+//! A study as CSV and as the CLI's summary: [`trials_csv`] (every run's inputs and results)
+//! and [`summary_csv`] (per result: base case, P10, P50, P90, mean, sd, min, max, runs, the
+//! runs past a limit, the snow regressions' spread), units in the headings and the seed in
+//! every row; [`summary_text`] is the summary the CLI prints on stderr.
+
 use super::report::RangesReport;
 
 fn unit_symbol(q: &str, sys: crate::physics::units::UnitSystem) -> String {

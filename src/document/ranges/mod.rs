@@ -4,22 +4,41 @@
 //! ([`crate::physics::ranges`]), the spread across the snow regressions for the base case, and
 //! a one-at-a-time sensitivity study.
 //!
-//! **The work as tasks.** A study is a list of independent tasks ([`RangesPlan::task`]):
-//! the `runs` Monte Carlo samples, then the base case, then each input at its low and its
-//! high end (the others as the scenario has them), then the base case under each snow
-//! regression. A task depends on the plan and its number only, so the page hands tasks to
-//! Web Workers in any order and [`RangesPlan::assemble`] gives the same report, to the bit,
-//! as one thread running them in order ([`run_plan`]).
+//! **The work as tasks.** A study is a list of independent tasks
+//! ([`plan::RangesPlan::task`]): the `runs` Monte Carlo samples, then the base case, then
+//! each input at its low and its high end (the others as the scenario has them), then the
+//! base case under each snow regression. A task depends on the plan and its number only, so
+//! the page hands tasks to Web Workers in any order and [`plan::RangesPlan::assemble`]
+//! gives the same report, to the bit, as one thread running them in order
+//! ([`plan::run_plan`]).
 //!
-//! **What an input changes** ([`RangedWhat`]). An input without `layer` changes every
-//! field of its kind in the scenario (stack layers, the winter's and the edge's climate
-//! and soil, the shelter's snow); with `layer` only that layer of the stack. The base case
-//! is the scenario as written; an input's base value is read from the first field it
-//! changes.
+//! **What an input changes** ([`RangedWhat`]). An input without `layer` changes every field
+//! of its kind in the scenario (stack layers, the winter's and the edge's climate and soil,
+//! the shelter's snow); with `layer` only that layer of the stack (the details are in
+//! [`apply`]). The base case is the scenario as written; an input's base value is read from
+//! the first field it changes.
 //!
 //! Files: this one holds the section's document; [`apply`] puts an input's value into a
 //! scenario and reads it back; [`plan`] makes and runs the tasks; [`report`] is what a study
 //! gives; [`csv`] writes it as CSV and as the CLI's summary.
+//!
+//! **The document.** `ranges { runs (default 200), seed (0 to 2⁵³ − 1, default 1), results
+//! (empty: every one the scenario has), inputs [{ what, layer?, low, high, distribution }]
+//! }`. `what` is one of [`RangedWhat`]: `snow-density`, `water-content`,
+//! `soil-conductivity-factor` (the soil's `conductivity_factor`, new in version 5, which
+//! multiplies its model's frozen and unfrozen k), `insulation-derating`, `freezing-index`.
+//! The results are [`RangeResult`]: `r-value` (steady), `frost-depth` (winter),
+//! `frost-below-footing` (edge; negative: how far above the base the frost stays),
+//! `shelter-interior`, `shelter-melt` (kg/h off the inner surfaces). A result with a limit
+//! ([`RangeResult::limit`]: frost below the footing's base, melt above 0) reports how many
+//! runs went past it and whether the base case does.
+//! [`crate::document::compute::compute_all`] and the page's ordinary runs leave the section
+//! aside.
+//!
+//! **Adding a kind of ranged input**: a [`RangedWhat`] variant with its id, name and unit
+//! quantity; its field or fields in `apply` (a material's in `material_field`), and in
+//! `base_value`; the page's entry for it in `RANGED` (`www/js/ranges.js`) with the layer
+//! kind it applies to; and a test in `tests/ranges.rs` that `apply` changes what it says.
 
 pub mod apply;
 pub mod csv;

@@ -1,3 +1,22 @@
+//! A study as independent tasks, and their run.
+//!
+//! [`RangesPlan::new`] checks the whole section at once (the core's checks of the ranged
+//! inputs under `ranges.inputs[i]`, each input against the scenario) and keeps the scenario
+//! as written without its ranges and its least-size searches. The tasks are in the order
+//! the section's documentation gives ([`super`]); the regressions' tasks come only when a
+//! chosen result's part has snow. [`RangesPlan::run_task`] depends on the plan and `k`
+//! alone; [`RangesPlan::assemble`] makes the report from the outcomes. The report is the
+//! same to the bit for any order and any number of threads or workers
+//! (`the_same_seed_gives_the_same_percentiles_on_any_number_of_threads` in
+//! `tests/ranges.rs`: 1, 2, 3 threads and reverse order; a worker-style split in the wasm
+//! tests).
+//!
+//! [`evaluate_all`] runs each part the chosen results need once (the steady stack serves
+//! the R-value and the winter; the shelter's two results come from one run). [`run_plan`]
+//! runs a plan on std threads natively (one thread on wasm), split by stride;
+//! [`run_ranges`] is what the CLI calls (`hibernal run` runs a ranges section when there is
+//! one: the report's `ranges` key, a summary on stderr, `--threads`).
+
 use super::apply::{apply, base_value, result_has_snow, set_regression};
 use super::report::{
     MemberDoc, PastLimitDoc, RangeResultReport, RangedInputReport, RangesReport, SpreadDoc,

@@ -1,3 +1,9 @@
+//! What a study gives ([`RangesReport`]): per result the base case, P10, P50 and P90,
+//! mean, sd, min and max, the runs that succeeded and failed (the first
+//! [`super::LISTED_FAILURES`] failures listed), the spread across the snow regressions with
+//! every member and the ones skipped, the runs past a limit, and the one-at-a-time swings,
+//! largest first; then every run's inputs and values, and the seed.
+
 use super::DistributionDoc;
 use crate::document::vocabulary::ErrorDoc;
 use serde::Serialize;
@@ -68,7 +74,7 @@ pub struct RangeResultReport {
     pub max: Option<f64>,
     pub runs_ok: usize,
     pub runs_failed: usize,
-    /// The first failed runs (at most [`LISTED_FAILURES`]).
+    /// The first failed runs (at most [`super::LISTED_FAILURES`]).
     pub failures: Vec<ErrorDoc>,
     /// Why there are no statistics (every run failed).
     pub error: Option<String>,
@@ -76,7 +82,8 @@ pub struct RangeResultReport {
     pub spread: Option<SpreadDoc>,
     /// Largest swing first.
     pub sensitivity: Vec<SwingDoc>,
-    /// For a result with a limit ([`RangeResult::limit`]): how many runs went past it.
+    /// For a result with a limit ([`super::RangeResult::limit`]): how many runs went past
+    /// it.
     pub past_limit: Option<PastLimitDoc>,
 }
 

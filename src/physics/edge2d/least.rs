@@ -17,9 +17,27 @@
 //! cell from trial to trial and can jump across the answer (a frozen pocket under the
 //! footing vanishes, or the footing's lowest cell warms above 0 °C, at once): the search's
 //! bisection safeguard handles that, and the report gives the jump beside the slope. The
-//! benchmark grid reads the answer a few per cent short of a grid twice as fine (the demo's
-//! wing width 0.69 m against 0.72 m; see the contributor guide): a design check should be
-//! repeated on a finer grid.
+//! benchmark grid reads the answer a few per cent short of a grid twice as fine (the
+//! figures are in `MEASUREMENTS.md`): a design check should be repeated on a finer grid.
+//!
+//! **The search** ([`EdgeLeastSearch`]): [`EdgeQuantity::apply`] sets the quantity on the
+//! section and checks it (how each quantity is varied, and when a trial runs without the
+//! board or wing, is on its variant); `new` checks `{prefix}.least.min|max|resolution` (min
+//! < max, 0 < resolution < max − min), the climate (`{prefix}.climate`) and the section at
+//! both ends of the range; `advance(max_steps)` runs the current trial's [`EdgeRun`] a
+//! slice at a time and starts the next one in the same call; `report`, `finish`, and
+//! [`least_edge_value`] in one call. Trials keep only their first and last fields. At most
+//! [`MAX_EDGE_RUNS`] runs (`set_max_runs` lowers it): a search stopped by the cap before
+//! its bracket is within the resolution is [`EdgeOutcome::RunLimit`], with the holding end
+//! as its value. The answer ([`EdgeLeastAnswer`]) gives the slope near it, the jump across
+//! it and every trial; `under_scaled_winter(factor)` makes the same search under a design
+//! winter with its freezing index scaled (0.9, 1.1: two more searches, on request).
+//!
+//! **Checks** (`tests/edge_least_search.rs`, on a coarse 10 cm grid with 2-day steps): runs
+//! of their own at the answer and a resolution below it; a scan of footing depths;
+//! orderings by the comparison principle (a warmer inside needs no wider wing and no deeper
+//! footing, a harsher winter needs no less); the unheated footing depth against the
+//! far-field frost; edge cases, errors and slicing (`slicing_changes_no_number`).
 //!
 //! Validity: that of the edge section (conduction with phase change, plane section, no
 //! frost heave, no moisture movement). Engineering estimates only: buried boards lose part

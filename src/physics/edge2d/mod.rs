@@ -38,6 +38,41 @@
 //! estimates; frost-protected shallow foundations must follow the governing standard and
 //! local codes, and buried boards lose part of their R-value to moisture (model reference
 //! §6).
+//!
+//! **Files.** [`section`] holds the inputs ([`EdgeSection`] and its parts), their checks
+//! with field paths and the layout of grid and regions; [`axis`] places the cell faces
+//! along one axis; [`plane`] is the 2D enthalpy solver and its linear solver; [`run`] runs
+//! a section under a forcing a slice at a time ([`EdgeRun`]) and reads off what it reports;
+//! [`least`] searches the least insulation or footing depth; [`demo`] is the invented
+//! section and design winter of the benchmark and the tests. Plain structs in SI: the file
+//! format's `edge` section, the charts and the page build on these.
+//!
+//! **Checks** (`tests/edge2d.rs`, each test naming its source): laterally uniform ground
+//! equals the column solver column for column
+//! (`laterally_uniform_plane_equals_the_column_solver`: 1e-3 K, fronts 2e-4 m, the same
+//! steps); a steady rectangle against its Fourier cosine series (Carslaw & Jaeger §5.3,
+//! from memory), the error falling about fourfold with each halving of the cells
+//! (`steady_rectangle_matches_the_fourier_series_and_converges`); the energy ledger over
+//! the design winter (`energy_balance_closes_over_a_winter`, 1e-9 of the throughput); the
+//! far-field column against Neumann's solution for the published soil
+//! (`far_field_column_follows_the_neumann_solution`, 1.5 %); orderings by the maximum
+//! principle: heating and boards keep frost from the footing, and under a heated slab frost
+//! below the base stays shallower than the far field
+//! (`insulation_and_heating_keep_frost_from_the_footing`); daily steps against 6-hour steps
+//! (1 cm) and the design grid against a finer one (the far field within 2 %; under an
+//! unheated, uninsulated footing the design grid reads frost short:
+//! `daily_steps_and_the_design_grid_are_converged_enough`); slicing changes no number
+//! (`slices_give_the_same_run`). A design check of a footing should use a finer grid than
+//! the benchmark's. What each check measured is in `MEASUREMENTS.md`.
+//!
+//! **How to add a region.** Add a struct for it (plain name, SI fields) and an `Option`
+//! field on [`EdgeSection`]; check its fields in [`EdgeSection::validate`] under
+//! `{prefix}.<name>.<field>`; in [`EdgeSection::layout`] push its faces to the required x
+//! and z faces and its edges to the foci, add a [`Region`] variant, paint it in the cell
+//! loop (after what it covers) and give its phase (a [`Board`] gives `Phase::Inert`; a
+//! material `Phase::for_material`). If its top meets the air differently, give its columns
+//! a top group of their own and a condition in the run's `tops`. Test it against a closed
+//! form or an ordering in `tests/edge2d.rs`, naming the source.
 
 pub mod axis;
 pub mod demo;

@@ -1,5 +1,22 @@
 //! A run of an edge section under a forcing, a slice at a time, and what it reports: frost
 //! under the footing and in the far field, heat lost through the slab, and the fields.
+//!
+//! - The forcing's air sets each step's tops: the inside air through its film or closed,
+//!   the wall's top closed, the outside through a film with the forcing's snow as a
+//!   resistance depth/k(ρ) that stores no heat, or held at n × air.
+//! - Per step an [`EdgeRecord`]: the air, frost below the footing's base (the deepest
+//!   frozen point in the columns under the wall, read from the frozen fraction as the
+//!   column solver does, minus the base depth; zero or negative: the 0 °C point in the
+//!   footing above its base, −base depth when there is none), the far-side column's frost
+//!   depth, and the heat from the inside air into the slab and into the outside surface (W
+//!   per metre of wall).
+//! - Fields ([`EdgeField`]: temperature and frozen fraction, row-major j·nx + i on the
+//!   result's faces, with each cell's [`Region`] in the result) every `field_every_s` and
+//!   at the end; the [`EdgeResult`] adds the deepest frost under the footing and in the far
+//!   field, the mean slab heat, the ledger and the work counters.
+//! - [`EdgeRun::advance`] runs at most `max_steps` steps and returns `Progress`;
+//!   [`EdgeRun::finish`] gives the result; [`run_edge`] runs to the end in one call.
+//!   Slicing changes no number (`slices_give_the_same_run`, `tests/edge2d.rs`).
 
 use super::plane::{PlaneError, TopFace};
 use super::section::{EdgeSection, Inside, Layout, Outside, Region, TOP_INSIDE, TOP_OUTSIDE};

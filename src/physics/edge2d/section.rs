@@ -1,4 +1,17 @@
-//! The cross-section's inputs (slab, wall, boards, soil bands, inside and outside), their checks with field paths, and the grid and regions they lay out.
+//! The cross-section's inputs (slab, wall, boards, soil bands, inside and outside), their
+//! checks with field paths, and the grid and regions they lay out.
+//!
+//! - [`EdgeSection::validate`] checks every input at once, each path under the caller's
+//!   prefix (`edge.wing.width_m`; a board's own fields as `….board.thickness_m`).
+//! - [`EdgeSection::layout`] builds the [`Layout`]: every region face is a required cell
+//!   face along its axis (both faces of a board) and every edge a focus of fine cells
+//!   ([`super::axis`]); more than [`MAX_CELLS`] cells is refused. Regions are painted in
+//!   the order soil, slab, wall, vertical board, wing, each cell taking the region its
+//!   centre lies in; a board is a `Phase::Inert` cell, everything else the phase of its
+//!   material.
+//! - The tops of the columns come in three groups ([`TOP_INSIDE`], [`TOP_WALL`],
+//!   [`TOP_OUTSIDE`]): the inside air through a film or closed, the wall's top closed, the
+//!   outside as [`Outside`] says.
 
 use super::axis::{self, AxisSpacing};
 use super::plane::Plane;

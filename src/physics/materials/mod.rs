@@ -5,6 +5,11 @@
 //! gives a [`Material`]: the conductivity law on either side of 0 °C, heat capacities and
 //! latent heat, all SI. Every model cites its source where it is defined; a model used
 //! outside its published range gives a [`Warning`], not an error.
+//!
+//! One file per physical family: [`snow`] (the snow regressions), [`ice`] (ice, water and
+//! still air), [`soil`] (Kersten, Johansen, Côté & Konrad), [`law`] (the conductivity law
+//! on either side of 0 °C and its Kirchhoff transform). Insulation boards ([`Board`]) and
+//! concrete are here.
 
 pub mod ice;
 pub mod law;

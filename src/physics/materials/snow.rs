@@ -10,6 +10,11 @@
 //! Coefficients are as listed in the project's model reference (marked there as recalled
 //! from the literature, not re-read); the one value read in a source is the check
 //! Sturm et al. 1997 quadratic at 0.30 g/cm³ → 0.126 W/m/K (tested).
+//!
+//! The nine regressions are the variants of [`SnowRegression`] (`SnowRegression::ALL`),
+//! each with its id (the one the file format and the page use), its published name, a short
+//! name for the charts, its citation, the density range its data cover and its formula. A
+//! density outside that range gives a warning, not an error.
 
 /// A published snow conductivity regression.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]

@@ -1,4 +1,14 @@
-//! What a snow shelter is and the night it faces: shape, snow, floor, entrance, vent, films, people and heat sources, with the field paths their checks use.
+//! What a snow shelter is and the night it faces: shape, snow, floor, entrance, vent,
+//! films, people and heat sources, with the field paths their checks use.
+//!
+//! [`Shelter`] (shape, snow density and regression, floor, entrance, vent, inside film,
+//! lining, floor cover) and [`Conditions`] (outside air, wind, snowpack, people, activity,
+//! body area, candles, stove and its heat share) are checked by their `validate(prefix, …)`
+//! in [`super::model`]: every error with its field, directly under the prefix
+//! (`shelter.inner_radius_m`, `shelter.entrance.opening_width_m`,
+//! `shelter.conditions.outside_c`; the night's under `shelter.night`), and warnings for a
+//! wall under 30 cm, a density outside the chosen regression's range, a stove, candles and
+//! an elongated trench. The file format moves a shape's fields under `shelter.shape.`.
 
 use crate::physics::error::InputErrors;
 use crate::physics::materials::snow::SnowRegression;
@@ -43,8 +53,8 @@ pub enum Shape {
     },
     /// A pile of snow, hollowed out: a hemispherical chamber whose wall thickness varies
     /// linearly with the polar angle from the crown (top) to the base (floor level). The
-    /// shell is integrated in [`model::PILE_BANDS`] bands of polar angle, each conducting
-    /// radially on its own.
+    /// shell is integrated in [`super::model::PILE_BANDS`] bands of polar angle, each
+    /// conducting radially on its own.
     HollowedPile {
         inner_radius_m: f64,
         crown_thickness_m: f64,

@@ -7,6 +7,13 @@
 //! (the critical radius of a sphere, Incropera, from memory), below the thinnest wall
 //! accepted. Under the melt limit the interior temperature stops rising: the warm surfaces
 //! stay at 0 °C whatever the thickness. So bisection on the thickness is sound.
+//!
+//! [`least_thickness`] bisects the main thickness (a dome's wall, a pile's crown with its
+//! base in proportion, a cave's exposed face, a trench's roof) over [`SEARCH_THICKNESS_M`]
+//! to 1 µm, and answers with a [`ThicknessAnswer`]: reached, the thinnest suffices, not
+//! reachable (the melt limit, or the other losses, with the shares of the losses), or no
+//! thickness to choose. The sweeps over thickness, people and outside temperature return
+//! [`SweepPoint`]s, at most [`MAX_SWEEP_POINTS`].
 
 use super::inputs::{Conditions, Shelter, ShelterError, SHELTER_FIELD};
 use super::steady::{self, SteadyResult};

@@ -22,6 +22,22 @@
 //! at or below 0 °C, conduction through dry snow (no vapour transport, which can raise the
 //! effective conductivity of low-density snow by up to about 50 %: Fourteau et al. 2021, The
 //! Cryosphere 15:2739), no solar gain, no rain. The geometry is idealised (see each shape).
+//! Melting surfaces are not moved, and people's latent heat is counted as heat.
+//!
+//! Files: [`inputs`] (what the shelter is, [`ShelterError`]); [`model`] (checks with field
+//! paths, the zones, films, vent and doorway flows, heat sources); [`mod@steady`];
+//! [`mod@night`]; [`least`]; [`mod@cautions`].
+//!
+//! **How to add a shape.** Add the variant to [`Shape`] (plain name, SI fields) with the
+//! thickness the least-wall search varies (`main_thickness_m`, `with_main_thickness`,
+//! `main_thickness_field`); check its fields in `Shelter::validate` (limits in
+//! `model::limits`, paths `{prefix}.<field>`); in the model's assembly push its zones (each
+//! a [`model::Geometry`]: a sphere sector, a plane, or `Geometry::equivalent_sphere(area,
+//! shape_factor)` for a deep surface, with its `Sink`, `Part`, whether it melts and whether
+//! a lining covers it), its air volume, and its inner height in [`model::inner_height_m`].
+//! The steady balance, the night, the band and the least wall pick it up. Test its
+//! conductance against a published shape factor or closed form in `tests/shelter.rs`,
+//! naming the source.
 
 pub mod cautions;
 pub mod inputs;

@@ -1,5 +1,18 @@
 //! The shelter reduced to zones, its heat sources and its air exchange.
 //!
+//! # Zones
+//!
+//! | zone | geometry | sink |
+//! |---|---|---|
+//! | block dome | sphere sector Ω = 2π, r_i → r_i + t | outside air through h_o |
+//! | hollowed pile | [`PILE_BANDS`] bands of polar angle, thickness linear from crown to base, each radial on its own (no sideways flow between bands) | outside air |
+//! | drift cave | exposed share f: Ω = 2πf to the air; the rest Ω = 2π(1 − f), r_o = ∞ | air; snowpack temperature |
+//! | trench | flat roof (plane, L × W); walls and floor: half-body shape factor S = √(2π A) split by area | air; snowpack (floor: its medium) |
+//! | floor of dome, pile, cave | disk on a half-space, S = 2D | snowpack or ground temperature |
+//!
+//! A trench longer than about four widths is warned of: beyond that the compact-body shape
+//! factor of its walls and floor may be 10–20 % low.
+//!
 //! # Conduction
 //! Each zone is a piece of the inner surface joined to its sink by 1D conduction:
 //!

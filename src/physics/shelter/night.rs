@@ -28,6 +28,16 @@
 //!
 //! The melting surface is not moved (a night's melt is millimetres); the outside stays at
 //! the conditions' temperature.
+//!
+//! Checked in `tests/shelter.rs`: a column at rest reaches the steady shell formula to 1e-9
+//! (`radial_column_reaches_the_steady_shell`), the ledger closes to 1e-9 and the snow stays
+//! at or below 0 °C (`night_conserves_energy_and_warms_up`, `night_holds_the_melt_limit`).
+//!
+//! **Warm-up time**: the first time the air reaches its start plus
+//! [`NightSettings::warmup_share`] (default 90 %) of the rise to the steady interior
+//! temperature, interpolated within the step; `None` if not within the night. It refers to
+//! the steady state with infinitely deep snow, which the night's columns only approach over
+//! weeks.
 
 use super::inputs::{Conditions, Shelter, ShelterError, NIGHT_FIELD};
 use super::model::{Geometry, Model, Sink};

@@ -23,6 +23,19 @@
 //! to met; candles and stove: from their fuel power by stoichiometry, see
 //! [`super::model::FUEL_CO2_M3_PER_J`]), C_o = 420 ppm (outdoor air of the 2020s, NOAA
 //! global mean, from memory). Perfect mixing assumed.
+//!
+//! **What it gives** ([`SteadyResult`]): every zone's surface temperature and heat, the
+//! breakdown (walls, floor, vent, doorway, melt), melt kg/h, CO₂, the highest melt-free
+//! interior temperature (−T_s R_in/R_out, the least over the snow zones) and, when
+//! something melts, the same with the lining. The bracket of the bisection is proved by the
+//! resistances; a failed one is `ShelterError::NoConvergence`. [`regression_band`] repeats
+//! the balance with each of the nine snow regressions and names the coldest and warmest.
+//!
+//! **Well-mixed air.** The air is one temperature. A real shelter is colder at the floor,
+//! so a bare snow floor's melt limit fires here earlier than in reality, before the dome's
+//! (`floor_cover_moves_the_melt_limit_to_the_dome` in `tests/shelter.rs`; its figures are
+//! in `MEASUREMENTS.md`). A floor cover (mats, branches; `floor_cover_m2k_w`,
+//! area-averaged) adds a resistance on the floor zones.
 
 use super::inputs::{Conditions, Shelter, ShelterError};
 use super::model::{Model, Part};

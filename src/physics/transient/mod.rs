@@ -25,12 +25,20 @@
 //!   temperatures alone ([`Solver::fronts`]).
 //! - Snow on the ground is a stack of cells of its own above the ground cells, whose depth
 //!   and density the climate prescribes ([`Solver::set_snow`]): they store heat and latent
-//!   heat ([`Phase::Snow`]), their surface cannot warm above 0 °C while they hold ice, and
-//!   the energy that arrives or leaves with snow mass is booked in the energy ledger as a
-//!   term of its own.
+//!   heat ([`phase::Phase::Snow`]), their surface cannot warm above 0 °C while they hold
+//!   ice, and the energy that arrives or leaves with snow mass is booked in the energy
+//!   ledger as a term of its own.
 //!
 //! Valid for conduction with phase change in a column: no water or vapour movement, no frost
 //! heave, no snowmelt infiltration.
+//!
+//! Files: [`grid`] lays the cells out; [`phase`] is one cell's T(H) (`Phase::Inert`,
+//! `Isothermal`, `Range` with an unfrozen-water curve, `Snow`); [`solver`] takes the steps
+//! (the step in detail, the snow cells, and what keeps it fast); [`setup`] is what a run
+//! needs besides the solver (the forcing, the top model, the start, the
+//! [`setup::RunSpec`]); [`run`] drives a run a slice at a time and keeps what a builder
+//! reads off; [`periodic`] is the periodic start; [`mod@reference`] is the invented year
+//! the benchmarks run.
 
 pub mod grid;
 pub mod periodic;

@@ -35,6 +35,13 @@
 //! - **Latent heat is ignored**: this is a start point. Under a freezing winter it puts the
 //!   0 °C isotherm too deep; a spin-up from it ([`super::setup::Initial::SpinUp`] with a wave)
 //!   refines it.
+//!
+//! A run asks for it with [`super::setup::Initial::Periodic`] (the file format's `periodic`
+//! start), or spins up from it with `Initial::SpinUp { from_periodic: Some(wave), .. }`
+//! (`spin_up_from_the_periodic_start_needs_fewer_years_than_from_uniform` in
+//! `tests/transient.rs` checks it needs no more years than a uniform start). The wave comes
+//! from [`crate::physics::climate::Climate::annual_wave`]: a sinusoid's own, a design
+//! winter's first harmonic, a daily series' least-squares fit over whole years.
 
 use super::setup::{RunSpec, TopModel};
 use super::BottomCondition;

@@ -2,6 +2,11 @@
 //! hourly steps for 365 days, with snow cover (up to 8 snow cells of its own above the
 //! ground while it lies). An invented case: silt over sand, a sinusoidal year (mean +2 °C,
 //! amplitude 16 K, coldest on day 30), snow building to 30 cm in midwinter.
+//!
+//! Run by `benches/reference_year.rs` and `benches/ranges.rs` natively, and as wasm by the
+//! wasm face's `benchmark_reference_year`, which `e2e/bench.mjs` times in headless
+//! Chromium. The invented silt-yard example (`scenarios/silt-yard-how-sure.json`) is its
+//! column and climate as a scenario. What they measured is in `MEASUREMENTS.md`.
 
 use super::grid::GridSpec;
 use super::setup::{Forcing, Initial, RunSpec, SinusoidalYear, TopModel};

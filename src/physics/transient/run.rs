@@ -2,6 +2,27 @@
 //! builder reads off: frost and thaw depth against time, the deepest frost and its date, the
 //! temperature profile at any date, the envelope of temperatures, the ground heat flux and
 //! the freezing indices.
+//!
+//! **A slice at a time.** The top meets the weather through a film (with the forcing's snow
+//! as snow cells under it) or by n-factors; the run starts uniform, periodic or spun up
+//! ([`super::setup::Initial`]). [`Run`] holds a run in progress: [`Run::advance`] moves it
+//! on by at most `max_steps` steps (spin-up years too) and reports [`Progress`]
+//! (`fraction`, `finished`); [`Run::finish`] gives the [`RunResult`]. [`run`] is a `Run`
+//! driven to the end in one call, and slicing changes no number
+//! (`a_run_advanced_in_slices_gives_the_same_results_as_one_call`, `tests/transient.rs`).
+//!
+//! **Spin-up** repeats the first year until no ground cell's enthalpy changed over the year
+//! by more than [`SPIN_UP_TOLERANCE_K`] of its thawed heat capacity. It is judged on
+//! enthalpy, not temperature, so a frozen lens held at 0 °C while it slowly thaws is not
+//! taken for rest (judged on temperature it was, and a run reported it as frost on day 0).
+//! [`RunResult::spin_up_change_k`] carries the last year's change, so a report can warn
+//! when the year limit stopped the spin-up first.
+//!
+//! **Ground only.** Frost and thaw depths (from the ground surface), the kept profiles and
+//! the envelope (of fixed length), [`RunResult::depths_m`] and [`RunResult::cells`] are of
+//! the ground cells. The ground surface temperature and flux in the samples are those of
+//! the snow/ground interface under snow. The snow cells of each profile are in
+//! [`RunResult::snow_profiles`] (height of the cell centre m, °C, from the ground up).
 
 use super::periodic::PeriodicProfile;
 use super::setup::{Forcing, Initial, RunSpec, TopModel};

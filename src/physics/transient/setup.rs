@@ -39,9 +39,10 @@ impl Forcing for SinusoidalYear {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum TopModel {
     /// Air through a film. Snow on the ground (from the forcing) becomes snow cells above
-    /// the ground cells (see [`Solver::set_snow`]), with the film on top of the snow; their
-    /// conductivity comes from `snow_regression` at the snow's density, they store sensible
-    /// and latent heat, and their surface stays at or below 0 °C while they hold ice.
+    /// the ground cells (see [`super::solver::Solver::set_snow`]), with the film on top of
+    /// the snow; their conductivity comes from `snow_regression` at the snow's density,
+    /// they store sensible and latent heat, and their surface stays at or below 0 °C while
+    /// they hold ice.
     AirFilm {
         film_w_m2k: f64,
         snow_regression: SnowRegression,
@@ -66,7 +67,7 @@ pub enum Initial {
         from_periodic: Option<AnnualWave>,
     },
     /// The periodic profile of conduction without freezing under the climate's annual wave
-    /// ([`PeriodicProfile`]).
+    /// ([`super::periodic::PeriodicProfile`]).
     Periodic(AnnualWave),
 }
 

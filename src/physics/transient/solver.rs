@@ -1,5 +1,96 @@
 //! The column solver: backward Euler in enthalpy with Newton passes, one tridiagonal solve
-//! per pass in preallocated buffers (the method is described in the module above).
+//! per pass in preallocated buffers (the method in outline is in [`super`]; this file holds
+//! its details, the snow cells and what keeps it fast).
+//!
+//! # A step
+//!
+//! - Newton passes on the cells' enthalpy with T linearised about the iterate; each pass is
+//!   one Thomas solve, eliminated from the bottom row up.
+//! - Face conductances are taken at the step's start and held through its passes; once the
+//!   residual has converged they are compared with the state and taken afresh (a Picard
+//!   update of k) until they agree with it to 1e-4 relative. The fluxes booked use the same
+//!   conductances as the residual, so energy is conserved whatever k is held.
+//! - A step has converged when every cell's residual, as an enthalpy error |R| Δt/Δz, is
+//!   below [`Tolerances::enthalpy_j_m3`], or when a pass left every cell, and the top flux,
+//!   on the linear piece of T(H) it started on with the conductances settled (no
+//!   unfrozen-water curve in the column): that pass solved the step's equations exactly.
+//! - After 12 passes the update is halved, to break a cycle between two states at a kink of
+//!   T(H). A step whose passes run out (`max_iterations`) is split in halves, down to
+//!   `min_step_fraction` (1/1024) of the requested step; below that
+//!   [`TransientError::NoConvergence`].
+//! - [`Solver::fronts`] reads frost and thaw depth from the frozen fraction inside the
+//!   ground cells. The energy ledger, [`Solver::energy_imbalance_j_m2`], is stored change −
+//!   face fluxes − snow-mass exchange.
+//!
+//! # Snow cells
+//!
+//! Under an air film (`TopModel::AirFilm` of [`super::setup`]) the snow the forcing gives
+//! (depth, density) lies on the ground as cells of its own at the start of
+//! [`Solver::cells`], above the ground cells ([`Solver::snow_cells`] of them; their `top_m`
+//! is negative, the height above the ground negated). Before every step the run
+//! ([`super::run::Run`]) calls [`Solver::set_snow`] with the snow at the end of the step.
+//!
+//! - **Added, removed, resized.** Snow of [`SNOW_MIN_DEPTH_M`] (5 mm) or less has no cells;
+//!   otherwise ⌈depth / [`SNOW_CELL_M`]⌉ equal cells, at most [`MAX_SNOW_CELLS`]. The cell
+//!   arrays and the kept rows of the system are reallocated only when that number changes;
+//!   otherwise the snow cells are rewritten in place, and the deep ground rows keep their
+//!   factors.
+//! - **Remapped by mass.** The enthalpy is carried over in mass coordinates counted from
+//!   the ground up: each new cell takes the mass-weighted mean of the old cells' specific
+//!   enthalpy (J/kg) over the mass it spans. Settling (denser, thinner, same mass) keeps
+//!   every parcel's temperature. Mass gained is snowfall on top at the air temperature
+//!   capped at 0 °C (frozen); mass lost leaves from the top with the specific enthalpy it
+//!   had.
+//! - **Booked.** The energy that comes and goes with snow mass is
+//!   [`Solver::snow_exchange_j_m2`], so stored change = face fluxes + snow-mass exchange
+//!   closes to round-off (`tests/transient.rs` asserts 1e-9 of the throughput over a snowy
+//!   year, and that it would not close without the term).
+//! - **At the surface.** The film sits on top of the snow. The snow surface cannot warm
+//!   above 0 °C while the top cell holds ice: the top flux is max(plain conduction, h
+//!   (T_air − 0)), handed over linearly to plain conduction as the top cell's last tenth of
+//!   ice melts ([`SNOW_MELT_OUT_SHARE`]), so the flux stays continuous and its derivatives
+//!   go into the Newton matrix. The depth is prescribed: a snow cell whose ice has all
+//!   melted (the climate keeps snow the energy has melted) holds its water in place and
+//!   warms above 0 °C. What a snow cell stores and conducts is its phase, `Phase::Snow` of
+//!   [`super::phase`].
+//!
+//! # Speed without changing a number
+//!
+//! Every shortcut here keeps numbers that are bit for bit what computing them afresh gives:
+//! a number is a pure function of the cells and their state, and it is kept only while its
+//! inputs are unchanged. [`Solver::clear_step_cache`] forgets all of it, and
+//! `the_state_kept_between_steps_changes_no_number` (`tests/transient.rs`) compares a run
+//! with one that clears it before every step; debug builds, so every `cargo test`, check
+//! the kept rows, factors, faces, stretches, pieces and held k against fresh values at
+//! every pass.
+//!
+//! - Each converged step keeps every cell's k, dT/dH and stretch of constant k for the next
+//!   step where its enthalpy is unchanged (`h_key`; snow remapping and states set from
+//!   outside leave it unmatched, and the step's start evaluates those cells afresh).
+//! - Each cell's phase is unpacked once (`Pieces` of [`super::phase`]): an inert or
+//!   isothermal cell's T(H) is linear below one enthalpy and above another, with one dT/dH
+//!   and one stretch on each piece, so most cells cost a comparison and a division; a cell
+//!   found on the same piece as before is not compared again (tested against `Phase` bit
+//!   for bit).
+//! - k is evaluated only in `k_unsure`, the range of cells off a stretch of constant k
+//!   (`Phase::constant_k_stretch`, tested) or moved to another stretch since their k was
+//!   taken; the face conductances of the others are kept.
+//! - Only rows 0..`rows_changed` of the tridiagonal system are built and factorised again:
+//!   every change of a cell's Δz/Δt, face conductance or dT/dH marks the rows it enters,
+//!   and the factorisation runs from the bottom row up, so the deep ground's rows and
+//!   factors are kept while the freezing front and the snow move.
+//! - The residual runs from the bottom row up and makes the solve's upward sweep as it
+//!   goes; the downward sweep updates each cell as it reaches it. Each row's data (Δz/Δt,
+//!   start enthalpy, super-diagonal, factors, sweep value, piece) sit side by side in one
+//!   array (`Row`), which matters in wasm, where every separate array costs an address
+//!   computation on every read.
+//!
+//! What is left is the solve itself and the number of passes. The solve's two sweeps are
+//! chains of dependent multiplications and subtractions that no reordering can shorten
+//! without changing the numbers. The Picard agreement of k stays at 1e-4: loosening it
+//! saves passes but moves the deepest frost by centimetres in long steps with an
+//! unfrozen-water curve. The figures behind both statements, and the speed before and after
+//! this work, are in `MEASUREMENTS.md`.
 
 use super::phase::{stretch_of, Phase, Pieces, BETWEEN, VARYING_K};
 use crate::physics::materials::Material;
