@@ -7,7 +7,6 @@ use common::*;
 use hibernal::document::compute;
 use hibernal::document::examples;
 
-use std::process::Command;
 use std::sync::OnceLock;
 
 use hibernal::charts::winter::{
@@ -497,10 +496,6 @@ proptest! {
         let caption = format!("Ground temperature on day {expected:.0}");
         prop_assert!(has_text(&svg, &caption), "day {}: no {}", day, caption);
     }
-}
-
-fn cli() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_hibernal"))
 }
 
 #[test]

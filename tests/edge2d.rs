@@ -6,9 +6,9 @@ use common::*;
 
 use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
 use hibernal::physics::edge2d::{
-    run_edge, AxisSpacing, EdgeRun, EdgeSection, Inside, Outside, Plane, StartTemperature, TopFace,
+    run_edge, AxisSpacing, EdgeRun, EdgeSection, Inside, Plane, TopFace,
 };
-use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
+use hibernal::physics::materials::ConductivityLaw;
 use hibernal::physics::transient::grid::{self, GridSpec};
 use hibernal::physics::transient::phase::{Phase, UnfrozenWater};
 use hibernal::physics::transient::setup::{Forcing, SinusoidalYear};
@@ -16,27 +16,10 @@ use hibernal::physics::transient::{cells_for, BottomCondition, Solver, TopCondit
 
 const DAY: f64 = 86_400.0;
 
-fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
-    Material {
-        family: Family::Custom,
-        label: "test".into(),
-        conductivity: ConductivityLaw {
-            frozen: Branch::Constant(k_f),
-            unfrozen: Branch::Constant(k_u),
-        },
-        freezes: latent > 0.0,
-        density_kg_m3: 1800.0,
-        c_frozen_j_m3k: c_f,
-        c_unfrozen_j_m3k: c_u,
-        latent_j_m3: latent,
-        valid_temperature_c: (-100.0, 100.0),
-    }
-}
-
 /// (a) Laterally uniform ground (no building): every column of the plane is the column
 /// solver's column. Source of the reference: this project's 1D solver (`transient::Solver`),
 /// itself checked against the Neumann solution and the exact steady solver in
-/// tests/transient.rs. Two layers, one freezing at 0 °C and one over a range (Anderson &
+/// tests/closed_form.rs. Two layers, one freezing at 0 °C and one over a range (Anderson &
 /// Tice curve), air through a film, a winter's sinusoidal air, daily steps.
 #[test]
 fn laterally_uniform_plane_equals_the_column_solver() {
@@ -264,63 +247,6 @@ fn energy_balance_closes_over_a_winter() {
     );
     assert!(r.max_far_frost_depth_m > 0.5, "the winter froze the ground");
     assert!(rel < 1e-9, "relative imbalance {rel}");
-}
-
-/// A constant air temperature.
-struct Constant(f64);
-impl Forcing for Constant {
-    fn air_c(&self, _t: f64) -> f64 {
-        self.0
-    }
-}
-
-/// (d) Far from the building, deep uniform ground under a surface held at −10 °C freezes as
-/// Neumann's two-phase solution says (Carslaw & Jaeger 1959 §11.2; `analytic::NeumannProblem`,
-/// itself checked against scipy in tests/analytic.rs), with the published soil example of
-/// Lunardini 1981 (after Jumikis 1966): front ≈ 1.36 m after 60 days.
-#[test]
-fn far_field_column_follows_the_neumann_solution() {
-    let p = lunardini_soil();
-    let soil = material(
-        p.k_frozen,
-        p.k_unfrozen,
-        p.c_frozen_j_m3k,
-        p.c_unfrozen_j_m3k,
-        p.latent_j_m3,
-    );
-    let mut s = design_winter_section();
-    s.soil = vec![hibernal::physics::edge2d::SoilBand {
-        thickness_m: 12.0,
-        material: soil,
-        curve: None,
-    }];
-    s.depth_m = 12.0;
-    s.outside_extent_m = 15.0;
-    s.outside = Outside::NFactor {
-        freezing: 1.0,
-        thawing: 1.0,
-    };
-    s.bottom = BottomCondition::Temperature {
-        temperature_c: p.initial_c,
-    };
-    s.start = StartTemperature {
-        surface_c: p.initial_c,
-        gradient_k_m: 0.0,
-    };
-    s.duration_s = 60.0 * DAY;
-    let air = Constant(p.surface_c);
-    let exact = p.solve().unwrap();
-    let mut run = EdgeRun::new(&s, "edge").unwrap();
-    run.advance(&air, usize::MAX).unwrap();
-    let r = run.finish();
-    for day in [30usize, 60] {
-        let got = r.records[day - 1].far_frost_depth_m;
-        let want = exact.front_depth_m(day as f64 * DAY);
-        println!("day {day}: far column {got:.4} m, Neumann {want:.4} m");
-        // 1.5 %: the grid under the outside grows from 2.5 cm to 60 cm cells; the front at
-        // 1 m lies in cells of about 20 cm.
-        assert_rel(got, want, 0.015, "far-field front");
-    }
 }
 
 /// (e) Physical ordering (no outside source; it follows from the maximum principle, since

@@ -13,7 +13,6 @@ use hibernal::document::edge::{
 use hibernal::document::scenario;
 use hibernal::physics::units::UnitSystem;
 use serde_json::{json, Value};
-use std::process::Command;
 
 const EDGE_EXAMPLES: [&str; 2] = ["heated-workshop-edge", "unheated-storage-edge"];
 
@@ -351,10 +350,6 @@ fn charts_render_and_never_fail() {
     assert!(hibernal::charts::edge::edge_series_svg(&nan, UnitSystem::Us, 400, 300).is_ok());
 }
 
-fn cli() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_hibernal"))
-}
-
 #[test]
 fn cli_runs_an_edge_and_writes_its_files() {
     let dir = std::env::temp_dir().join(format!("hibernal-cli-edge-{}", std::process::id()));
@@ -430,15 +425,47 @@ fn cli_runs_an_edge_and_writes_its_files() {
 
 #[test]
 fn the_schema_describes_the_edge() {
-    let s = serde_json::to_string(&scenario::schema()).unwrap();
-    for key in [
-        "inside_half_width_m",
-        "field_every_days",
-        "wall_board",
-        "base_depth_m",
-    ] {
-        assert!(s.contains(key), "{key}");
+    use common::schema::*;
+    let s = schema();
+    let edge = prop(&s, "edge");
+    assert_eq!(refers_to(edge), "EdgeDoc");
+    assert!(nullable(edge));
+    let e = def(&s, "EdgeDoc");
+    assert_eq!(e["additionalProperties"], false, "unknown keys are refused");
+    assert_properties(
+        e,
+        &[
+            ("inside_half_width_m", "number", true),
+            ("outside_extent_m", "number", true),
+            ("depth_m", "number", true),
+            ("soil", "array", true),
+            ("field_every_days", "number", false),
+            ("step_s", "number", false),
+        ],
+    );
+    assert_eq!(prop(e, "field_every_days")["default"], 7.0);
+    assert_eq!(refers_to(&prop(e, "soil")["items"]), "LayerDoc");
+    // The wall is required; its board and the wing are optional sections of their own.
+    assert_eq!(refers_to(prop(e, "wall")), "EdgeWallDoc");
+    for (key, def_name) in [("wall_board", "EdgeWallBoardDoc"), ("wing", "EdgeWingDoc")] {
+        let p = prop(e, key);
+        assert_eq!(refers_to(p), def_name);
+        assert!(
+            nullable(p) && !required(e).contains(&key),
+            "{key} is optional"
+        );
     }
+    assert_properties(
+        def(&s, "EdgeWallDoc"),
+        &[
+            ("width_m", "number", true),
+            ("base_depth_m", "number", true),
+        ],
+    );
+    assert_properties(
+        def(&s, "EdgeWallBoardDoc"),
+        &[("thickness_m", "number", true), ("depth_m", "number", true)],
+    );
 }
 
 /// A soil band's unfrozen-water curve (Anderson & Tice) reaches the 2D run, and a bad one is
@@ -466,54 +493,8 @@ fn soil_bands_carry_their_unfrozen_water_curve() {
 
 mod never_panics {
     use super::*;
+    use crate::common::fuzz::{any_section_leaf, mutate, picks};
     use proptest::prelude::*;
-
-    /// Paths of every numeric leaf under `edge`.
-    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
-        match v {
-            Value::Number(_) => out.push(path.clone()),
-            Value::Object(m) => {
-                for (k, x) in m {
-                    path.push(k.clone());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            Value::Array(a) => {
-                for (i, x) in a.iter().enumerate() {
-                    path.push(i.to_string());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            _ => {}
-        }
-    }
-
-    fn set(v: &mut Value, path: &[String], new: Value) {
-        let mut cur = v;
-        for k in path {
-            cur = match cur {
-                Value::Object(m) => m.get_mut(k).unwrap(),
-                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
-                _ => unreachable!(),
-            };
-        }
-        *cur = new;
-    }
-
-    fn arb_leaf() -> impl Strategy<Value = Value> {
-        prop_oneof![
-            (-100f64..100.0).prop_map(|x| json!(x)),
-            (0f64..3.0).prop_map(|x| json!(x)),
-            prop::num::f64::NORMAL.prop_map(|x| json!(x)),
-            (0u32..80).prop_map(|x| json!(x)),
-            Just(json!(0.0)),
-            Just(json!(1e-300)),
-            Just(Value::Null),
-            Just(json!("x")),
-        ]
-    }
 
     proptest! {
         #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
@@ -525,15 +506,10 @@ mod never_panics {
         #[test]
         fn mutated_edges_never_panic(
             which in 0usize..EDGE_EXAMPLES.len(),
-            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+            picks in picks(any_section_leaf()),
         ) {
             let mut v = quick(EDGE_EXAMPLES[which], 6.0);
-            let mut paths = Vec::new();
-            numeric_paths(&v["edge"], &mut vec!["edge".to_string()], &mut paths);
-            for (idx, leaf) in picks {
-                let p = idx.get(&paths).clone();
-                set(&mut v, &p, leaf);
-            }
+            mutate(&mut v, Some("edge"), picks);
             let s = match scenario::from_value(v) {
                 Ok(s) => s,
                 Err(e) => {

@@ -11,7 +11,6 @@ use hibernal::physics::analytic::stefan_depth_with_resistance_m;
 use hibernal::physics::least::{
     least_layer_thickness, least_value, FrostLimit, LeastAnswer, Search, Trial,
 };
-use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
 use hibernal::physics::transient::grid::GridSpec;
 use hibernal::physics::transient::run::run;
 use hibernal::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
@@ -98,23 +97,6 @@ fn the_search_says_when_no_answer_lies_in_the_range() {
         least_value(&SEARCH, synthetic(bump, 0.45)).unwrap(),
         LeastAnswer::NotMonotone { .. }
     ));
-}
-
-fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
-    Material {
-        family: Family::Custom,
-        label: "test".into(),
-        conductivity: ConductivityLaw {
-            frozen: Branch::Constant(k_f),
-            unfrozen: Branch::Constant(k_u),
-        },
-        freezes: latent > 0.0,
-        density_kg_m3: 1800.0,
-        c_frozen_j_m3k: c_f,
-        c_unfrozen_j_m3k: c_u,
-        latent_j_m3: latent,
-        valid_temperature_c: (-100.0, 100.0),
-    }
 }
 
 struct Held(f64);

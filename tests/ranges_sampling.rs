@@ -7,7 +7,7 @@ mod common;
 use common::*;
 
 use hibernal::physics::error::InputErrorKind;
-use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression};
 use hibernal::physics::ranges::{
     monte_carlo, one_at_a_time, percentile_sorted, sample_at, Distribution, MonteCarloError,
     MonteCarloJob, Pcg32, RangedInput, SensitivityError, MAX_RUNS,
@@ -470,14 +470,7 @@ fn snow_over_soil(density: f64, regression: SnowRegression) -> Stack {
             Layer {
                 name: "silt".into(),
                 thickness_m: 2.0,
-                material: MaterialSpec::Soil(SoilInput {
-                    texture: Texture::Silt,
-                    model: SoilModel::Kersten1949,
-                    dry_density_kg_m3: 1600.0,
-                    water_content_pct: 20.0,
-                    quartz_fraction: 0.3,
-                    conductivity_factor: 1.0,
-                }),
+                material: MaterialSpec::Soil(silt_input()),
             },
         ],
         top: Boundary::Air {

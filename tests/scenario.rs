@@ -9,7 +9,6 @@ use hibernal::document::steady;
 use hibernal::document::scenario;
 use hibernal::document::vocabulary::{BoardDoc, SnowRegressionDoc, SoilModelDoc, TextureDoc};
 use hibernal::physics::materials::{Board, SnowRegression, SoilModel, Texture};
-use std::process::Command;
 
 #[test]
 fn every_example_parses_computes_and_round_trips() {
@@ -138,21 +137,76 @@ fn malformed_documents_are_refused_naming_the_field() {
 
 #[test]
 fn the_schema_describes_the_format() {
-    let s = scenario::schema();
-    let text = s.to_string();
-    for key in [
-        "layers",
-        "thickness_m",
-        "sturm-1997-quadratic",
-        "kersten-1949",
-        "film_w_m2k",
-    ] {
-        assert!(text.contains(key), "schema mentions {key}");
+    use common::schema::*;
+    let s = schema();
+    // The document: an object with its required keys and the stack's three parts.
+    assert_eq!(s["type"], "object");
+    assert_eq!(s["additionalProperties"], false, "unknown keys are refused");
+    assert_eq!(
+        required(&s),
+        ["format", "version", "layers", "top", "bottom"]
+    );
+    assert_eq!(type_of(prop(&s, "format")), "string");
+    assert_eq!(type_of(prop(&s, "version")), "integer");
+    let layers = prop(&s, "layers");
+    assert_eq!(type_of(layers), "array");
+    assert_eq!(refers_to(&layers["items"]), "LayerDoc");
+    assert_eq!(refers_to(prop(&s, "top")), "BoundaryDoc");
+    assert_eq!(refers_to(prop(&s, "bottom")), "BoundaryDoc");
+    // A layer: its thickness a number, required with its material.
+    let layer = def(&s, "LayerDoc");
+    assert_properties(
+        layer,
+        &[("thickness_m", "number", true), ("name", "string", false)],
+    );
+    assert_eq!(required(layer), ["thickness_m", "material"]);
+    assert_eq!(refers_to(prop(layer, "material")), "MaterialDoc");
+    // The materials by kind; snow names its regression and soil its model, each an enum
+    // holding every id of the core.
+    let material = def(&s, "MaterialDoc");
+    for kind in ["snow", "ice", "water", "air", "soil", "custom"] {
+        assert!(kinds(material).contains(&kind), "material kind {kind}");
     }
-}
-
-fn cli() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_hibernal"))
+    let snow = variant(material, "snow");
+    assert_properties(snow, &[("density_kg_m3", "number", true)]);
+    assert_eq!(refers_to(prop(snow, "correlation")), "SnowRegressionDoc");
+    let regressions = enum_values(def(&s, "SnowRegressionDoc"));
+    assert_eq!(regressions.len(), SnowRegression::ALL.len());
+    assert!(regressions.contains(&"sturm-1997-quadratic"));
+    assert_eq!(
+        refers_to(prop(variant(material, "soil"), "model")),
+        "SoilModelDoc"
+    );
+    let models = enum_values(def(&s, "SoilModelDoc"));
+    assert_eq!(models.len(), SoilModel::ALL.len());
+    assert!(models.contains(&"kersten-1949"));
+    // A face: air through a film (both numbers, required) or a held surface.
+    let boundary = def(&s, "BoundaryDoc");
+    assert_eq!(kinds(boundary), ["air", "surface"]);
+    assert_properties(
+        variant(boundary, "air"),
+        &[
+            ("temperature_c", "number", true),
+            ("film_w_m2k", "number", true),
+        ],
+    );
+    assert_properties(
+        variant(boundary, "surface"),
+        &[("temperature_c", "number", true)],
+    );
+    // The optional sections, each its own definition and nullable.
+    for (key, def_name) in [
+        ("winter", "WinterDoc"),
+        ("shelter", "ShelterDoc"),
+        ("edge", "EdgeDoc"),
+        ("ranges", "RangesDoc"),
+    ] {
+        let p = prop(&s, key);
+        assert_eq!(refers_to(p), def_name, "{key}");
+        assert!(nullable(p), "{key} is optional");
+        assert!(!required(&s).contains(&key));
+        def(&s, def_name);
+    }
 }
 
 #[test]
@@ -218,55 +272,9 @@ fn cli_answers_bad_files_with_a_message_and_exit_code() {
 
 mod never_panics {
     use super::*;
+    use crate::common::fuzz::{any_leaf, mutate, picks};
     use proptest::prelude::*;
     use serde_json::Value;
-
-    /// Paths of every numeric leaf in a JSON value.
-    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
-        match v {
-            Value::Number(_) => out.push(path.clone()),
-            Value::Object(m) => {
-                for (k, x) in m {
-                    path.push(k.clone());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            Value::Array(a) => {
-                for (i, x) in a.iter().enumerate() {
-                    path.push(i.to_string());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            _ => {}
-        }
-    }
-
-    fn set(v: &mut Value, path: &[String], new: Value) {
-        let mut cur = v;
-        for k in path {
-            cur = match cur {
-                Value::Object(m) => m.get_mut(k).unwrap(),
-                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
-                _ => unreachable!(),
-            };
-        }
-        *cur = new;
-    }
-
-    fn arb_leaf() -> impl Strategy<Value = Value> {
-        prop_oneof![
-            (-1e6f64..1e6).prop_map(|x| serde_json::json!(x)),
-            prop::num::f64::NORMAL.prop_map(|x| serde_json::json!(x)),
-            Just(serde_json::json!(0.0)),
-            Just(serde_json::json!(-0.0)),
-            Just(serde_json::json!(1e-300)),
-            Just(Value::Null),
-            ".{0,12}".prop_map(Value::String),
-            Just(serde_json::json!([])),
-        ]
-    }
 
     proptest! {
         #![proptest_config(ProptestConfig { cases: 600, ..ProptestConfig::default() })]
@@ -276,16 +284,11 @@ mod never_panics {
         #[test]
         fn mutated_examples_never_panic(
             which in 0usize..examples::EXAMPLES.len(),
-            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+            picks in picks(any_leaf()),
             repeat in 1usize..30,
         ) {
             let mut v: Value = serde_json::from_str(examples::EXAMPLES[which].json).unwrap();
-            let mut paths = Vec::new();
-            numeric_paths(&v, &mut Vec::new(), &mut paths);
-            for (idx, leaf) in picks {
-                let p = idx.get(&paths).clone();
-                set(&mut v, &p, leaf);
-            }
+            mutate(&mut v, None, picks);
             if let Value::Array(layers) = &mut v["layers"] {
                 let copy = layers.clone();
                 for _ in 1..repeat {
@@ -635,16 +638,40 @@ fn bad_snow_seasons_are_refused_naming_the_field() {
     bad["colour"] = serde_json::json!("white");
     let e = with_snow(bad);
     assert!(e.to_string().contains("colour"), "{e}");
-    // The schema carries the new shapes.
-    let text = scenario::schema().to_string();
-    for key in [
-        "peak_depth_m",
-        "settled_density_kg_m3",
-        "periodic",
-        "from_periodic",
-    ] {
-        assert!(text.contains(key), "schema mentions {key}");
+    // The schema carries the new shapes: the snow season on a sinusoidal year and a design
+    // winter, every field a required number; the periodic start and spin-up from it.
+    use common::schema::*;
+    let s = schema();
+    let season = def(&s, "SnowSeasonDoc");
+    assert_properties(
+        season,
+        &[
+            ("start_day", "number", true),
+            ("peak_day", "number", true),
+            ("end_day", "number", true),
+            ("peak_depth_m", "number", true),
+            ("fresh_density_kg_m3", "number", true),
+            ("settled_density_kg_m3", "number", true),
+        ],
+    );
+    let climate = def(&s, "ClimateDoc");
+    for kind in ["sinusoid", "design-winter"] {
+        let snow = prop(variant(climate, kind), "snow");
+        assert_eq!(refers_to(snow), "SnowSeasonDoc", "{kind}");
+        assert!(nullable(snow), "snow is optional on {kind}");
     }
+    let initial = def(&s, "InitialDoc");
+    assert_eq!(kinds(initial), ["uniform", "spin-up", "periodic"]);
+    let spin_up = variant(initial, "spin-up");
+    assert_properties(
+        spin_up,
+        &[
+            ("start_c", "number", true),
+            ("max_years", "integer", true),
+            ("from_periodic", "boolean", false),
+        ],
+    );
+    assert_eq!(required(variant(initial, "periodic")), ["kind"]);
 }
 
 fn cabin() -> serde_json::Value {

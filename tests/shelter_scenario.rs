@@ -10,7 +10,6 @@ use hibernal::document::scenario;
 use hibernal::document::shelter::{night_csv, sweeps_csv};
 use hibernal::physics::units::UnitSystem;
 use serde_json::{json, Value};
-use std::process::Command;
 
 const SHELTER_EXAMPLES: [&str; 2] = ["training-dome-four", "drift-cave-two"];
 
@@ -369,10 +368,6 @@ fn the_charts_carry_their_axes_series_and_limits() {
     );
 }
 
-fn cli() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_hibernal"))
-}
-
 #[test]
 fn cli_runs_a_shelter_and_writes_its_files() {
     let dir = std::env::temp_dir().join(format!("hibernal-cli-shelter-{}", std::process::id()));
@@ -449,68 +444,64 @@ fn cli_runs_a_shelter_and_writes_its_files() {
 
 #[test]
 fn the_schema_describes_the_shelter() {
-    let schema = scenario::schema().to_string();
-    for want in [
-        "ShelterDoc",
-        "block-dome",
-        "drift-cave",
-        "cold-trap",
-        "target_c",
-    ] {
-        assert!(schema.contains(want), "schema has {want}");
+    use common::schema::*;
+    let s = schema();
+    let shelter = prop(&s, "shelter");
+    assert_eq!(refers_to(shelter), "ShelterDoc");
+    assert!(nullable(shelter));
+    let d = def(&s, "ShelterDoc");
+    assert_eq!(d["additionalProperties"], false, "unknown keys are refused");
+    assert_eq!(
+        required(d),
+        [
+            "shape",
+            "snow_density_kg_m3",
+            "snow_correlation",
+            "floor",
+            "entrance",
+            "vent_diameter_m",
+            "conditions"
+        ]
+    );
+    assert_properties(
+        d,
+        &[
+            ("snow_density_kg_m3", "number", true),
+            ("vent_diameter_m", "number", true),
+            ("inside_film_w_m2k", "number", false),
+        ],
+    );
+    assert_eq!(refers_to(prop(d, "snow_correlation")), "SnowRegressionDoc");
+    // The shapes and entrances by kind, each with its own required fields.
+    let shape = def(&s, refers_to(prop(d, "shape")).as_str());
+    for kind in ["block-dome", "hollowed-pile", "drift-cave", "trench"] {
+        assert!(kinds(shape).contains(&kind), "shape {kind}");
     }
+    assert_properties(
+        variant(shape, "block-dome"),
+        &[
+            ("inner_radius_m", "number", true),
+            ("wall_thickness_m", "number", true),
+        ],
+    );
+    let cave = variant(shape, "drift-cave");
+    assert_properties(cave, &[("inner_radius_m", "number", true)]);
+    assert_eq!(refers_to(prop(cave, "exposed_face")), "ExposedFaceDoc");
+    let entrance = def(&s, refers_to(prop(d, "entrance")).as_str());
+    assert_eq!(kinds(entrance), ["cold-trap", "level"]);
+    assert_eq!(required(variant(entrance, "cold-trap")), ["kind"]);
+    // The design target: a number defaulting to −5 °C.
+    let design = prop(d, "design");
+    assert_eq!(refers_to(design), "TargetDoc");
+    let target = prop(def(&s, "TargetDoc"), "target_c");
+    assert_eq!(type_of(target), "number");
+    assert_eq!(target["default"], -5.0);
 }
 
 mod never_panics {
     use super::*;
+    use crate::common::fuzz::{any_section_leaf, mutate, picks};
     use proptest::prelude::*;
-
-    /// Paths of every numeric leaf under `shelter`.
-    fn numeric_paths(v: &Value, path: &mut Vec<String>, out: &mut Vec<Vec<String>>) {
-        match v {
-            Value::Number(_) => out.push(path.clone()),
-            Value::Object(m) => {
-                for (k, x) in m {
-                    path.push(k.clone());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            Value::Array(a) => {
-                for (i, x) in a.iter().enumerate() {
-                    path.push(i.to_string());
-                    numeric_paths(x, path, out);
-                    path.pop();
-                }
-            }
-            _ => {}
-        }
-    }
-
-    fn set(v: &mut Value, path: &[String], new: Value) {
-        let mut cur = v;
-        for k in path {
-            cur = match cur {
-                Value::Object(m) => m.get_mut(k).unwrap(),
-                Value::Array(a) => &mut a[k.parse::<usize>().unwrap()],
-                _ => unreachable!(),
-            };
-        }
-        *cur = new;
-    }
-
-    fn arb_leaf() -> impl Strategy<Value = Value> {
-        prop_oneof![
-            (-100f64..100.0).prop_map(|x| json!(x)),
-            (0f64..3.0).prop_map(|x| json!(x)),
-            prop::num::f64::NORMAL.prop_map(|x| json!(x)),
-            (0u32..80).prop_map(|x| json!(x)),
-            Just(json!(0.0)),
-            Just(json!(1e-300)),
-            Just(Value::Null),
-            Just(json!("x")),
-        ]
-    }
 
     proptest! {
         #![proptest_config(ProptestConfig { cases: 200, ..ProptestConfig::default() })]
@@ -521,15 +512,10 @@ mod never_panics {
         #[test]
         fn mutated_shelters_never_panic(
             which in 0usize..SHELTER_EXAMPLES.len(),
-            picks in proptest::collection::vec((any::<prop::sample::Index>(), arb_leaf()), 1..4),
+            picks in picks(any_section_leaf()),
         ) {
             let mut v = value(SHELTER_EXAMPLES[which]);
-            let mut paths = Vec::new();
-            numeric_paths(&v["shelter"], &mut vec!["shelter".to_string()], &mut paths);
-            for (idx, leaf) in picks {
-                let p = idx.get(&paths).clone();
-                set(&mut v, &p, leaf);
-            }
+            mutate(&mut v, Some("shelter"), picks);
             match run(v) {
                 Ok(r) => {
                     prop_assert!(r.interior_c.is_finite());

@@ -1,95 +1,20 @@
-//! The steady solver against closed forms. Each check names its source.
+//! The steady solver against closed forms. Each check names its source. Its check against
+//! the series formula of a layered stack is in tests/closed_form.rs, beside the other
+//! solvers'.
 
 mod common;
 use common::*;
 
-use hibernal::physics::materials::{
-    Board, MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture,
-};
-use hibernal::physics::stack::{Boundary, Layer, Stack, MAX_LAYERS};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
+use hibernal::physics::stack::{Boundary, Stack, MAX_LAYERS};
 use hibernal::physics::steady::{self, LayerState};
 use proptest::prelude::*;
-
-fn custom(k: f64) -> MaterialSpec {
-    MaterialSpec::Custom {
-        label: String::new(),
-        conductivity_w_m_k: k,
-        frozen_conductivity_w_m_k: None,
-        density_kg_m3: 1000.0,
-        specific_heat_j_kg_k: 1000.0,
-    }
-}
-
-fn layer(d: f64, m: MaterialSpec) -> Layer {
-    Layer {
-        name: String::new(),
-        thickness_m: d,
-        material: m,
-    }
-}
-
-#[test]
-fn three_layers_with_films_equal_the_series_resistance() {
-    // Series thermal resistance (Incropera & DeWitt, Fundamentals of Heat and Mass Transfer,
-    // §3.1): q = ΔT / (1/h₁ + Σ dᵢ/kᵢ + 1/h₂), exact for constant conductivities.
-    let stack = Stack {
-        layers: vec![
-            layer(
-                0.30,
-                MaterialSpec::Snow {
-                    density_kg_m3: 300.0,
-                    regression: SnowRegression::Sturm1997Quadratic,
-                },
-            ),
-            layer(
-                0.05,
-                MaterialSpec::Insulation {
-                    board: Board::ExtrudedPolystyrene,
-                    conductivity_w_m_k: None,
-                    moisture_derating_pct: 0.0,
-                },
-            ),
-            layer(
-                0.10,
-                MaterialSpec::Concrete {
-                    conductivity_w_m_k: None,
-                },
-            ),
-        ],
-        top: Boundary::Air {
-            temperature_c: -30.0,
-            film_w_m2k: 25.0,
-        },
-        bottom: Boundary::Air {
-            temperature_c: -2.0,
-            film_w_m2k: 8.0,
-        },
-    };
-    let r = steady::solve(&stack).unwrap();
-    let k_snow = 0.138 - 1.01 * 0.3 + 3.233 * 0.09;
-    let r_exact = 1.0 / 25.0 + 0.30 / k_snow + 0.05 / 0.029 + 0.10 / 1.7 + 1.0 / 8.0;
-    assert_rel(r.r_total_m2k_w, r_exact, 1e-12, "R air to air");
-    assert_rel(r.heat_flux_w_m2, -28.0 / r_exact, 1e-12, "flux");
-    assert_rel(r.u_w_m2k, 1.0 / r_exact, 1e-12, "U");
-    // Interface temperatures: T = T_air − q · (resistance above).
-    let q = r.heat_flux_w_m2;
-    let t1 = -30.0 - q * (1.0 / 25.0 + 0.30 / k_snow);
-    assert_abs(r.layers[0].bottom_c, t1, 1e-10, "snow/board interface");
-    assert!(r.zero_planes.is_empty());
-}
 
 #[test]
 fn a_soil_layer_splits_at_its_0c_plane_self_consistently() {
     // Two-region steady conduction with held faces: k_f (0 − T_s)/X = k_u (T_b − 0)/(d − X),
     // so X = d k_f |T_s| / (k_f |T_s| + k_u T_b) (standard, by flux continuity).
-    let soil = SoilInput {
-        texture: Texture::Silt,
-        model: SoilModel::Kersten1949,
-        dry_density_kg_m3: 1600.0,
-        water_content_pct: 20.0,
-        quartz_fraction: 0.3,
-        conductivity_factor: 1.0,
-    };
+    let soil = silt_input();
     let mut w = Vec::new();
     let p = hibernal::physics::materials::soil::soil_properties(&soil, "m", &mut w).unwrap();
     let (kf, ku) = (p.k_frozen_w_m_k, p.k_unfrozen_w_m_k);

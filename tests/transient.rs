@@ -1,10 +1,12 @@
-//! The transient solver against closed forms and conservation. Each check names its source.
+//! The transient solver against the steady solver, published ranges and conservation. Each
+//! check names its source. Its checks against the closed forms (Neumann, Stefan, the
+//! periodic wave) are in tests/closed_form.rs, beside the other solvers'.
 
 mod common;
 use common::*;
 
-use hibernal::physics::materials::{Branch, ConductivityLaw, Family, Material};
-use hibernal::physics::stack::{Boundary, Layer, Stack};
+use hibernal::physics::materials::{Branch, ConductivityLaw, Material};
+use hibernal::physics::stack::{Boundary, Stack};
 use hibernal::physics::steady;
 use hibernal::physics::transient::grid::GridSpec;
 use hibernal::physics::transient::phase::UnfrozenWater;
@@ -13,29 +15,6 @@ use std::f64::consts::PI;
 
 const DAY: f64 = 86_400.0;
 const YEAR: f64 = 365.0 * DAY;
-
-fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
-    Material {
-        family: Family::Custom,
-        label: "test".into(),
-        conductivity: ConductivityLaw {
-            frozen: Branch::Constant(k_f),
-            unfrozen: Branch::Constant(k_u),
-        },
-        freezes: latent > 0.0,
-        density_kg_m3: 1800.0,
-        c_frozen_j_m3k: c_f,
-        c_unfrozen_j_m3k: c_u,
-        latent_j_m3: latent,
-        valid_temperature_c: (-100.0, 100.0),
-    }
-}
-
-fn column(layers: &[(f64, Material)], grid: GridSpec, initial_c: f64) -> Solver {
-    let d: Vec<f64> = layers.iter().map(|l| l.0).collect();
-    let m: Vec<Material> = layers.iter().map(|l| l.1.clone()).collect();
-    Solver::new(cells_for(&d, &m, &grid, &[]), initial_c)
-}
 
 #[test]
 fn grid_puts_layer_interfaces_on_faces_and_grows_with_depth() {
@@ -93,92 +72,11 @@ fn a_year_of_freezing_and_thawing_conserves_energy() {
 }
 
 #[test]
-fn periodic_surface_temperature_damps_and_lags_as_the_closed_form() {
-    // Semi-infinite solid with T(0, t) = A sin ωt: amplitude A e^{−z/d}, lag z/d radians,
-    // d = √(2a/ω) (Carslaw & Jaeger 1959 §2.6). No phase change. 1 % on amplitude.
-    let (k, c) = (1.5, 2.0e6);
-    let a = k / c;
-    let omega = 2.0 * PI / YEAR;
-    let d = (2.0 * a / omega).sqrt();
-    let amp = 10.0;
-    let mut s = column(
-        &[(12.0 * d, material(k, k, c, c, 0.0))],
-        GridSpec {
-            surface_cell_m: 0.02,
-            growth_ratio: 1.02,
-            max_cell_m: 0.2,
-        },
-        0.0,
-    );
-    let dt = 6.0 * 3600.0;
-    let bottom = BottomCondition::Flux { upward_w_m2: 0.0 };
-    let probe: Vec<usize> = [1.0, 2.0]
-        .iter()
-        .map(|m| {
-            s.cells
-                .iter()
-                .position(|cell| cell.top_m + cell.dz_m > m * d)
-                .unwrap()
-        })
-        .collect();
-    let mut hist: Vec<Vec<(f64, f64)>> = vec![Vec::new(); probe.len()];
-    while s.time_s < 4.0 * YEAR - 1.0 {
-        let t = s.time_s + dt;
-        s.step(
-            dt,
-            &TopCondition::Surface {
-                surface_c: amp * (omega * t).sin(),
-            },
-            &bottom,
-        )
-        .unwrap();
-        if s.time_s > 3.0 * YEAR {
-            for (j, &i) in probe.iter().enumerate() {
-                hist[j].push((s.time_s, s.temperature[i]));
-            }
-        }
-    }
-    for (j, &i) in probe.iter().enumerate() {
-        let z = s.cells[i].center_m();
-        // Fit A_z sin(ωt − φ) by projection over the last whole year.
-        let (mut ss, mut cc) = (0.0, 0.0);
-        for &(t, v) in &hist[j] {
-            ss += v * (omega * t).sin();
-            cc += v * (omega * t).cos();
-        }
-        let nn = hist[j].len() as f64;
-        let (ss, cc) = (2.0 * ss / nn, 2.0 * cc / nn);
-        let a_z = (ss * ss + cc * cc).sqrt();
-        let lag = (-cc).atan2(ss);
-        assert_rel(
-            a_z,
-            amp * (-z / d).exp(),
-            0.01,
-            &format!("amplitude at {z:.2} m"),
-        );
-        assert_abs(lag, z / d, 0.02, &format!("lag at {z:.2} m"));
-    }
-}
-
-#[test]
 fn held_conditions_lead_to_the_steady_solution() {
     // The exact steady solver (Kirchhoff transform) is the long-time limit of the transient
     // one under held conditions: the 0 °C plane must agree within a cell.
-    let soil =
-        hibernal::physics::materials::MaterialSpec::Soil(hibernal::physics::materials::SoilInput {
-            texture: hibernal::physics::materials::Texture::Silt,
-            model: hibernal::physics::materials::SoilModel::Kersten1949,
-            dry_density_kg_m3: 1600.0,
-            water_content_pct: 20.0,
-            quartz_fraction: 0.3,
-            conductivity_factor: 1.0,
-        });
     let stack = Stack {
-        layers: vec![Layer {
-            name: String::new(),
-            thickness_m: 3.0,
-            material: soil,
-        }],
+        layers: vec![layer(3.0, silt_spec())],
         top: Boundary::Surface {
             temperature_c: -8.0,
         },
@@ -239,111 +137,7 @@ fn freezing_over_a_range_spreads_the_front_and_still_conserves_energy() {
     assert!(rel < 1e-9, "relative imbalance {rel:e}");
 }
 
-use hibernal::physics::analytic::{self, NeumannProblem};
-
-/// Freeze a column from a held surface and return the front depth after `days`.
-fn freeze_from_surface(
-    p: &NeumannProblem,
-    depth: f64,
-    cell: f64,
-    dt: f64,
-    days: f64,
-) -> (f64, f64) {
-    let m = material(
-        p.k_frozen,
-        p.k_unfrozen,
-        p.c_frozen_j_m3k,
-        p.c_unfrozen_j_m3k,
-        p.latent_j_m3,
-    );
-    let mut s = column(&[(depth, m)], GridSpec::uniform(cell), p.initial_c);
-    let top = TopCondition::Surface {
-        surface_c: p.surface_c,
-    };
-    let bottom = BottomCondition::Temperature {
-        temperature_c: p.initial_c,
-    };
-    let steps = (days * DAY / dt).round() as usize;
-    for _ in 0..steps {
-        s.step(dt, &top, &bottom).unwrap();
-    }
-    (
-        s.fronts().frost_depth_m,
-        s.work.iterations as f64 / s.work.steps as f64,
-    )
-}
-
-#[test]
-fn soil_front_matches_the_neumann_solution_within_one_percent() {
-    // Neumann two-phase solution (Carslaw & Jaeger 1959 §11.2), published soil example: front
-    // about 1.36 m after 60 days. 1 cm cells, hourly steps: within 1 % of exact.
-    let p = lunardini_soil();
-    let exact = p.solve().unwrap();
-    let (x, per_step) = freeze_from_surface(&p, 8.0, 0.01, 3600.0, 60.0);
-    let x_exact = exact.front_depth_m(60.0 * DAY);
-    assert_rel(x, x_exact, 0.01, "front at 60 days");
-    assert_abs(x_exact, 1.36, 0.01, "the published figure");
-    // A front crossing about a cell per step costs a few passes (measured 4.8), not tens.
-    assert!(per_step < 6.0, "iterations per step {per_step}");
-}
-
-#[test]
-fn water_freezing_to_ice_matches_the_neumann_solution() {
-    // Water at +4 °C under a −10 °C surface: ice k 2.2, water k 0.556 (model reference §2),
-    // C = ρc of ice and water, L = ρ_ice × 333.4 kJ/kg. Neumann solution, 1 % at 1 cm cells.
-    let p = NeumannProblem {
-        surface_c: -10.0,
-        initial_c: 4.0,
-        freezing_c: 0.0,
-        k_frozen: 2.2,
-        k_unfrozen: 0.556,
-        c_frozen_j_m3k: 916.7 * 2097.0,
-        c_unfrozen_j_m3k: 999.8 * 4219.0,
-        latent_j_m3: 916.7 * 333.4e3,
-    };
-    let exact = p.solve().unwrap();
-    let (x, _) = freeze_from_surface(&p, 3.0, 0.01, 3600.0, 30.0);
-    assert_rel(
-        x,
-        exact.front_depth_m(30.0 * DAY),
-        0.01,
-        "ice thickness at 30 days",
-    );
-}
-
-#[test]
-fn one_phase_stefan_problem_matches_its_solution() {
-    // One-phase Stefan problem: ground initially at the freezing point; X = 2λ√(a_f t) with
-    // λ e^{λ²} erf λ = Ste/√π (Crank, Free and Moving Boundary Problems §1.3).
-    let mut p = lunardini_soil();
-    p.initial_c = 0.0;
-    let lambda = analytic::one_phase_lambda(p.c_frozen_j_m3k * 10.0 / p.latent_j_m3).unwrap();
-    let a = p.k_frozen / p.c_frozen_j_m3k;
-    let (x, _) = freeze_from_surface(&p, 4.0, 0.01, 3600.0, 60.0);
-    assert_rel(
-        x,
-        2.0 * lambda * (a * 60.0 * DAY).sqrt(),
-        0.01,
-        "one-phase front",
-    );
-}
-
-#[test]
-fn the_front_converges_with_grid_and_time_step() {
-    // Refining cells (4, 2, 1 cm) and steps (4, 2, 1 h) moves the front towards the Neumann
-    // solution; the finest is within 1 %, and the error falls as the grid is refined.
-    let p = lunardini_soil();
-    let x_exact = p.solve().unwrap().front_depth_m(20.0 * DAY);
-    let errs: Vec<f64> = [(0.04, 4.0), (0.02, 2.0), (0.01, 1.0)]
-        .iter()
-        .map(|&(cell, hours)| {
-            let (x, _) = freeze_from_surface(&p, 5.0, cell, hours * 3600.0, 20.0);
-            ((x - x_exact) / x_exact).abs()
-        })
-        .collect();
-    assert!(errs[2] < 0.01, "finest error {:?}", errs);
-    assert!(errs[2] < errs[0], "refinement helps: {:?}", errs);
-}
+use hibernal::physics::analytic;
 
 #[test]
 fn lake_ice_grows_within_the_published_range_of_stefan_coefficients() {
@@ -498,22 +292,9 @@ fn a_run_advanced_in_slices_gives_the_same_results_as_one_call() {
 
 // ------------------------------------------------------------------------- snow cells
 
-use hibernal::physics::materials::{MaterialSpec, SnowRegression, SoilInput, SoilModel, Texture};
+use hibernal::physics::materials::{MaterialSpec, SnowRegression};
 use hibernal::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
 use hibernal::physics::transient::SnowLayer;
-
-fn silt() -> Material {
-    MaterialSpec::Soil(SoilInput {
-        texture: Texture::Silt,
-        model: SoilModel::Kersten1949,
-        dry_density_kg_m3: 1600.0,
-        water_content_pct: 20.0,
-        quartz_fraction: 0.3,
-        conductivity_factor: 1.0,
-    })
-    .resolve("silt", &mut Vec::new())
-    .unwrap()
-}
 
 fn snow_layer(depth_m: f64, density: f64) -> SnowLayer {
     SnowLayer {
@@ -528,34 +309,15 @@ fn snow_cells_under_held_air_carry_the_steady_series_flux() {
     // Fourier's law through layers in series: the long-time limit of snow cells over soil
     // under held air is the steady solution of the same stack, snow as a layer of its own
     // with k from the same regression (the steady solver's Kirchhoff march, itself checked
-    // against the series formula 1/h + d/k + Σ R in tests/steady.rs). 0.3 m of snow at
+    // against the series formula 1/h + d/k + Σ R in tests/closed_form.rs). 0.3 m of snow at
     // 250 kg/m³ (Sturm et al. 1997) over 3 m of silt that freezes; air −15 °C through
     // h = 20 W/m²K; bottom held at +3 °C. Flux within 1e-3 relative.
     let snow_spec = MaterialSpec::Snow {
         density_kg_m3: 250.0,
         regression: SnowRegression::Sturm1997Quadratic,
     };
-    let soil_spec = MaterialSpec::Soil(SoilInput {
-        texture: Texture::Silt,
-        model: SoilModel::Kersten1949,
-        dry_density_kg_m3: 1600.0,
-        water_content_pct: 20.0,
-        quartz_fraction: 0.3,
-        conductivity_factor: 1.0,
-    });
     let stack = Stack {
-        layers: vec![
-            Layer {
-                name: String::new(),
-                thickness_m: 0.3,
-                material: snow_spec,
-            },
-            Layer {
-                name: String::new(),
-                thickness_m: 3.0,
-                material: soil_spec,
-            },
-        ],
+        layers: vec![layer(0.3, snow_spec), layer(3.0, silt_spec())],
         top: Boundary::Air {
             temperature_c: -15.0,
             film_w_m2k: 20.0,

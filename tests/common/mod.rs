@@ -1,7 +1,94 @@
 //! Shared test helpers.
 #![allow(dead_code)]
 
+use hibernal::physics::materials::{
+    Branch, ConductivityLaw, Family, Material, MaterialSpec, SoilInput, SoilModel, Texture,
+};
+use hibernal::physics::stack::Layer;
+use hibernal::physics::transient::grid::GridSpec;
+use hibernal::physics::transient::{cells_for, Solver};
 use serde_json::Value;
+
+pub mod fuzz;
+pub mod schema;
+
+// ------------------------------------------------------------------- material builders
+
+/// A material of constant conductivities and heat capacities that freezes at 0 °C when
+/// `latent` > 0 (an invented test material).
+pub fn material(k_f: f64, k_u: f64, c_f: f64, c_u: f64, latent: f64) -> Material {
+    Material {
+        family: Family::Custom,
+        label: "test".into(),
+        conductivity: ConductivityLaw {
+            frozen: Branch::Constant(k_f),
+            unfrozen: Branch::Constant(k_u),
+        },
+        freezes: latent > 0.0,
+        density_kg_m3: 1800.0,
+        c_frozen_j_m3k: c_f,
+        c_unfrozen_j_m3k: c_u,
+        latent_j_m3: latent,
+        valid_temperature_c: (-100.0, 100.0),
+    }
+}
+
+/// A custom material of one conductivity as the format gives it (ρ 1000 kg/m³, c 1000
+/// J/kg/K: invented).
+pub fn custom(k: f64) -> MaterialSpec {
+    MaterialSpec::Custom {
+        label: String::new(),
+        conductivity_w_m_k: k,
+        frozen_conductivity_w_m_k: None,
+        density_kg_m3: 1000.0,
+        specific_heat_j_kg_k: 1000.0,
+    }
+}
+
+/// The invented silt of the tests: Kersten 1949, 1600 kg/m³ dry, 20 % water, quartz 0.3.
+pub fn silt_input() -> SoilInput {
+    SoilInput {
+        texture: Texture::Silt,
+        model: SoilModel::Kersten1949,
+        dry_density_kg_m3: 1600.0,
+        water_content_pct: 20.0,
+        quartz_fraction: 0.3,
+        conductivity_factor: 1.0,
+    }
+}
+
+pub fn silt_spec() -> MaterialSpec {
+    MaterialSpec::Soil(silt_input())
+}
+
+/// The silt, resolved.
+pub fn silt() -> Material {
+    silt_spec().resolve("silt", &mut Vec::new()).unwrap()
+}
+
+// ---------------------------------------------------------------------- stack builders
+
+/// An unnamed layer of a stack.
+pub fn layer(d: f64, m: MaterialSpec) -> Layer {
+    Layer {
+        name: String::new(),
+        thickness_m: d,
+        material: m,
+    }
+}
+
+/// A column of the 1D solver over `(thickness, material)` layers, none freezing over a
+/// range, at a uniform start.
+pub fn column(layers: &[(f64, Material)], grid: GridSpec, initial_c: f64) -> Solver {
+    let d: Vec<f64> = layers.iter().map(|l| l.0).collect();
+    let m: Vec<Material> = layers.iter().map(|l| l.1.clone()).collect();
+    Solver::new(cells_for(&d, &m, &grid, &[]), initial_c)
+}
+
+/// The command-line tool built with the tests.
+pub fn cli() -> std::process::Command {
+    std::process::Command::new(env!("CARGO_BIN_EXE_hibernal"))
+}
 
 /// Reference values made by tools/reference.py (IAPWS, CoolProp and independent
 /// implementations of the published formulas).
