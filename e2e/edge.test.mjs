@@ -1,33 +1,18 @@
 // End-to-end tests of the building-edge section of dist/hibernal.html (file://, network
 // refused): the cross-section run, its results, charts, exports, cautions and the search.
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { launch, openPage, assertNoProblems, andRecompute, field, msgFor } from './helpers.mjs';
+import {
+  browserForFile, andRecompute, andSectionRun, outcomes as outcomesOf, field, msgFor,
+} from './helpers.mjs';
 
-let browser;
-before(async () => { browser = await launch(); });
-after(async () => { if (browser) await browser.close(); });
+const { withPage } = browserForFile();
 
-async function withPage(body, viewport) {
-  const { context, page, problems } = await openPage(browser, viewport);
-  try {
-    await body(page, problems);
-    assertNoProblems(problems);
-  } finally {
-    await context.close();
-  }
-}
-
-const outcomes = (page) => page.evaluate(() => Number(document.querySelector('#edge-results').dataset.outcomes || 0));
+const outcomes = (page) => outcomesOf(page, 'edge-results');
 
 // Does `action`, then waits until the edge run after it has ended; returns its state.
-async function andEdge(page, action) {
-  const b = await outcomes(page);
-  await andRecompute(page, action);
-  await page.waitForFunction((n) => Number(document.querySelector('#edge-results').dataset.outcomes || 0) > n, b, { timeout: 60000 });
-  return page.evaluate(() => document.querySelector('#edge-results').dataset.state);
-}
+const andEdge = (page, action) => andSectionRun(page, 'edge-results', action, 60000);
 
 // A length as shown ("0.123 m", "1.2 ft"), in metres.
 function metres(text) {

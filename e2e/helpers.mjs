@@ -1,5 +1,6 @@
 // Shared set-up for the browser tests: Debian's Chromium, the single-file page
 // opened from file://, every network request refused and recorded.
+import { before, after } from 'node:test';
 import { chromium } from 'playwright-core';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { dirname, resolve } from 'node:path';
@@ -95,6 +96,17 @@ export const chartDigest = (page) => page.evaluate(() => {
   return h.toString(16) + ':' + url.length;
 });
 
+// How many pixels of the canvas `id` differ from its corner pixel in colour (alpha aside),
+// and how many it has.
+export const inkedPixels = (page, id) => page.evaluate((id) => {
+  const c = document.getElementById(id);
+  const { data } = c.getContext('2d').getImageData(0, 0, c.width, c.height);
+  const [r0, g0, b0] = data;
+  let n = 0;
+  for (let i = 0; i < data.length; i += 4) if (Math.abs(data[i] - r0) + Math.abs(data[i + 1] - g0) + Math.abs(data[i + 2] - b0) > 24) n++;
+  return { n, size: c.width * c.height };
+}, id);
+
 // How many pixels of the chart differ from its corner pixel.
 export const chartInkedPixels = (page) => page.evaluate(() => {
   const c = document.getElementById('profile-chart');
@@ -107,3 +119,39 @@ export const chartInkedPixels = (page) => page.evaluate(() => {
   }
   return { n, width: c.width, height: c.height };
 });
+
+// One browser for a test file: launched before its tests, closed after them. Returns
+// `withPage(body, viewport, init)`, which opens a fresh page (see openPage), runs
+// `body(page, problems)`, checks that nothing went wrong on the way and closes the page;
+// and `openPage(viewport, …)`, which opens another page in the same browser.
+export function browserForFile() {
+  let browser;
+  before(async () => { browser = await launch(); });
+  after(async () => { if (browser) await browser.close(); });
+  async function withPage(body, viewport, init = null) {
+    const { context, page, problems } = await openPage(browser, viewport, undefined, init);
+    try {
+      await body(page, problems);
+      assertNoProblems(problems);
+    } finally {
+      await context.close();
+    }
+  }
+  return { withPage, openPage: (...args) => openPage(browser, ...args) };
+}
+
+// How many runs of the section whose results box is `resultsId` have ended (finished or
+// refused) so far: the box's data-outcomes.
+export const outcomes = (page, resultsId) => page.evaluate(
+  (id) => Number(document.getElementById(id).dataset.outcomes || 0), resultsId);
+
+// Does `action`, then waits for the recompute it causes and for the next run of the section
+// whose results box is `resultsId` to end (within `timeout` ms, or Playwright's default);
+// returns that box's data-state.
+export async function andSectionRun(page, resultsId, action, timeout = undefined) {
+  const b = await outcomes(page, resultsId);
+  await andRecompute(page, action);
+  await page.waitForFunction(([id, n]) => Number(document.getElementById(id).dataset.outcomes || 0) > n,
+    [resultsId, b], timeout === undefined ? {} : { timeout });
+  return page.evaluate((id) => document.getElementById(id).dataset.state, resultsId);
+}

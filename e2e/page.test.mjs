@@ -1,27 +1,15 @@
 // End-to-end tests of dist/hibernal.html in Chromium, opened from file:// with the
 // network refused. Run from the repository root: node --test e2e/
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import {
-  launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor,
+  browserForFile, andRecompute, shown, field, msgFor,
   chartDigest, chartInkedPixels, parseShown,
 } from './helpers.mjs';
 
-let browser;
-before(async () => { browser = await launch(); });
-after(async () => { if (browser) await browser.close(); });
-
 // Opens a fresh page, runs `body`, then checks nothing went wrong on the way.
-async function withPage(body, viewport) {
-  const { context, page, problems } = await openPage(browser, viewport);
-  try {
-    await body(page, problems);
-    assertNoProblems(problems);
-  } finally {
-    await context.close();
-  }
-}
+const { withPage } = browserForFile();
 
 async function pickExample(page, id) {
   const ids = await page.locator('#example-pick option').evaluateAll((os) => os.map((o) => o.value));

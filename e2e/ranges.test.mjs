@@ -1,24 +1,13 @@
 // End-to-end tests of the ranges view of dist/hibernal.html (file://, network refused):
 // uncertain inputs, the study over Web Workers with progress and stop, the percentiles,
 // the charts, the CSV files, reproducibility from the seed, and bad input.
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { launch, openPage, assertNoProblems, andRecompute, field, msgFor } from './helpers.mjs';
+import { browserForFile, andRecompute, field, msgFor } from './helpers.mjs';
 
-let browser;
-before(async () => { browser = await launch(); });
-after(async () => { if (browser) await browser.close(); });
-
-async function withPage(body, init = null) {
-  const { context, page, problems } = await openPage(browser, undefined, undefined, init);
-  try {
-    await body(page, problems);
-    assertNoProblems(problems);
-  } finally {
-    await context.close();
-  }
-}
+const { withPage: withPageAt } = browserForFile();
+const withPage = (body, init = null) => withPageAt(body, undefined, init);
 
 const studies = (page) => page.evaluate(() => Number(document.querySelector('#ranges-results').dataset.runs || 0));
 

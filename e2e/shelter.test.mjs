@@ -1,32 +1,14 @@
 // End-to-end tests of the snow shelter section of dist/hibernal.html (file://, network refused).
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor } from './helpers.mjs';
+import {
+  browserForFile, andRecompute, andSectionRun, shown, field, msgFor, inkedPixels,
+} from './helpers.mjs';
 
-let browser;
-before(async () => { browser = await launch(); });
-after(async () => { if (browser) await browser.close(); });
-
-async function withPage(body, viewport) {
-  const { context, page, problems } = await openPage(browser, viewport);
-  try {
-    await body(page, problems);
-    assertNoProblems(problems);
-  } finally {
-    await context.close();
-  }
-}
-
-// Shelter computations that ended (done or refused) so far.
-const outcomes = (page) => page.evaluate(() => Number(document.querySelector('#shelter-results').dataset.outcomes || 0));
+const { withPage } = browserForFile();
 
 // Does `action`, then waits for the shelter to be computed again; returns its state.
-async function andShelter(page, action) {
-  const before = await outcomes(page);
-  await andRecompute(page, action);
-  await page.waitForFunction((b) => Number(document.querySelector('#shelter-results').dataset.outcomes || 0) > b, before);
-  return page.evaluate(() => document.querySelector('#shelter-results').dataset.state);
-}
+const andShelter = (page, action) => andSectionRun(page, 'shelter-results', action);
 
 async function openDome(page) {
   const st = await andShelter(page, () => page.selectOption('#example-pick', 'training-dome-four'));
@@ -40,14 +22,7 @@ async function type(page, path, text) {
 
 const interior = async (page) => (await shown(page, '#s-interior')).value;
 
-const inked = (page, id) => page.evaluate((id) => {
-  const c = document.getElementById(id);
-  const { data } = c.getContext('2d').getImageData(0, 0, c.width, c.height);
-  const [r0, g0, b0] = data;
-  let n = 0;
-  for (let i = 0; i < data.length; i += 4) if (Math.abs(data[i] - r0) + Math.abs(data[i + 1] - g0) + Math.abs(data[i + 2] - b0) > 24) n++;
-  return { n, size: c.width * c.height };
-}, id);
+const inked = inkedPixels;
 
 test('a shelter example shows the air inside, the cautions and drawn charts', () => withPage(async (page) => {
   await openDome(page);

@@ -1,23 +1,14 @@
 // End-to-end tests of the winter section of dist/hibernal.html (file://, network refused).
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { REPO, launch, openPage, assertNoProblems, andRecompute, shown, field, msgFor, parseShown } from './helpers.mjs';
+import {
+  REPO, browserForFile, assertNoProblems, andRecompute, shown, field, msgFor, parseShown,
+  inkedPixels,
+} from './helpers.mjs';
 
-let browser;
-before(async () => { browser = await launch(); });
-after(async () => { if (browser) await browser.close(); });
-
-async function withPage(body, viewport) {
-  const { context, page, problems } = await openPage(browser, viewport);
-  try {
-    await body(page, problems);
-    assertNoProblems(problems);
-  } finally {
-    await context.close();
-  }
-}
+const { withPage, openPage: openAnother } = browserForFile();
 
 // Winter runs that ended (finished or refused) so far.
 const winterRuns = (page) => page.evaluate(() => Number(document.querySelector('#winter-results').dataset.outcomes || 0));
@@ -37,14 +28,8 @@ async function pickExample(page, id, hasWinter = true) {
   if (hasWinter) assert.equal(await winterDone(page, before), 'done', 'the winter run finishes');
 }
 
-const inked = (page, id) => page.evaluate((id) => {
-  const c = document.getElementById(id);
-  const { data } = c.getContext('2d').getImageData(0, 0, c.width, c.height);
-  const [r0, g0, b0] = data;
-  let n = 0;
-  for (let i = 0; i < data.length; i += 4) if (Math.abs(data[i] - r0) + Math.abs(data[i + 1] - g0) + Math.abs(data[i + 2] - b0) > 24) n++;
-  return n;
-}, id);
+// Inked pixels of the canvas `id`.
+const inked = async (page, id) => (await inkedPixels(page, id)).n;
 
 test('a design winter runs on the page: indices as asked and a frost chart drawn', () => withPage(async (page) => {
   await pickExample(page, 'silty-yard-design-winter');
@@ -339,7 +324,7 @@ test('a link carries the whole scenario to another page, and a broken one is nam
   await page.waitForFunction(() => /#s=/.test(document.querySelector('#share-link').value));
   const url = await page.inputValue('#share-link');
   assert.ok(url.startsWith('file://') && url.length < 4000, `${url.length} characters`);
-  const { context, page: other, problems } = await openPage(browser);
+  const { context, page: other, problems } = await openAnother();
   try {
     // Only the fragment differs from the page already open: reload to open it afresh.
     await other.goto(url);

@@ -500,8 +500,7 @@ proptest! {
 
 #[test]
 fn cli_writes_the_day_profile_the_series_and_the_profiles_csv() {
-    let dir = std::env::temp_dir().join(format!("hibernal-cli-charts-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = test_dir("cli-charts");
     let file = dir.join("yard.json");
     std::fs::write(
         &file,
@@ -513,24 +512,18 @@ fn cli_writes_the_day_profile_the_series_and_the_profiles_csv() {
         dir.join("series.svg"),
         dir.join("profiles.csv"),
     );
-    let out = cli()
-        .args(["run", file.to_str().unwrap(), "--units", "us"])
-        .args([
-            "--profile-svg",
-            profile.to_str().unwrap(),
-            "--profile-day",
-            "40",
-        ])
-        .args(["--series-svg", series.to_str().unwrap()])
-        .args(["--profiles-csv", csv.to_str().unwrap()])
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
+    let report = report_of(
+        cli()
+            .args(["run", file.to_str().unwrap(), "--units", "us"])
+            .args([
+                "--profile-svg",
+                profile.to_str().unwrap(),
+                "--profile-day",
+                "40",
+            ])
+            .args(["--series-svg", series.to_str().unwrap()])
+            .args(["--profiles-csv", csv.to_str().unwrap()]),
     );
-    let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     let cells = report["winter"]["cells"].as_u64().unwrap() as usize;
     let profile = std::fs::read_to_string(profile).unwrap();
     assert_well_formed(&profile);

@@ -5,9 +5,7 @@ mod common;
 use common::*;
 
 use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::physics::edge2d::{
-    run_edge, AxisSpacing, EdgeRun, EdgeSection, Inside, Plane, TopFace,
-};
+use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeRun, EdgeSection, Plane, TopFace};
 use hibernal::physics::materials::ConductivityLaw;
 use hibernal::physics::transient::grid::{self, GridSpec};
 use hibernal::physics::transient::phase::{Phase, UnfrozenWater};
@@ -220,17 +218,7 @@ fn steady_rectangle_matches_the_fourier_series_and_converges() {
 }
 
 fn heated_house(wall_board: bool, wing: bool, heated: bool) -> EdgeSection {
-    let mut s = design_winter_section();
-    if !wall_board {
-        s.wall_board = None;
-    }
-    if !wing {
-        s.wing = None;
-    }
-    if !heated {
-        s.inside = Inside::Closed;
-    }
-    s
+    demo_section(wall_board, wing, heated)
 }
 
 /// (c) Energy over a winter with freezing and thawing: stored change − heat in through the

@@ -10,14 +10,11 @@
 mod common;
 use common::*;
 
-use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
-use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeResult, Inside};
+use hibernal::physics::edge2d::demo::design_winter_climate;
+use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeResult};
 
 fn unheated_bare_on(fine_m: f64, growth_ratio: f64, max_cell_m: f64) -> EdgeResult {
-    let mut s = design_winter_section();
-    s.wall_board = None;
-    s.wing = None;
-    s.inside = Inside::Closed;
+    let mut s = demo_section(false, false, false);
     s.grid = AxisSpacing {
         fine_m,
         growth_ratio,

@@ -6,7 +6,10 @@
 //! in release; the orderings and the agreement with a scan checked here hold on any grid,
 //! and the design grid's own error is studied in tests/edge2d.rs.
 
-use hibernal::physics::edge2d::demo::{design_winter_climate, design_winter_section};
+mod common;
+use common::*;
+
+use hibernal::physics::edge2d::demo::design_winter_climate;
 use hibernal::physics::edge2d::least::*;
 use hibernal::physics::edge2d::{run_edge, AxisSpacing, EdgeSection, Inside};
 
@@ -18,22 +21,13 @@ const COARSE_RES: f64 = 0.05;
 
 /// The invented demo section on a coarse grid, with or without its boards and heating.
 fn coarse(wall_board: bool, wing: bool, heated: bool) -> EdgeSection {
-    let mut s = design_winter_section();
+    let mut s = demo_section(wall_board, wing, heated);
     s.grid = AxisSpacing {
         fine_m: 0.1,
         growth_ratio: 1.35,
         max_cell_m: 1.0,
     };
     s.step_s = 2.0 * DAY;
-    if !wall_board {
-        s.wall_board = None;
-    }
-    if !wing {
-        s.wing = None;
-    }
-    if !heated {
-        s.inside = Inside::Closed;
-    }
     s
 }
 

@@ -352,36 +352,26 @@ fn charts_render_and_never_fail() {
 
 #[test]
 fn cli_runs_an_edge_and_writes_its_files() {
-    let dir = std::env::temp_dir().join(format!("hibernal-cli-edge-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = test_dir("cli-edge");
     let file = dir.join("storage.json");
     std::fs::write(&file, quick("unheated-storage-edge", 21.0).to_string()).unwrap();
     let p = |n: &str| dir.join(n).to_string_lossy().into_owned();
-    let out = cli()
-        .args([
-            "run",
-            &file.to_string_lossy(),
-            "--edge-svg",
-            &p("f.svg"),
-            "--edge-day",
-            "14",
-            "--edge-series-svg",
-            &p("s.svg"),
-            "--edge-csv",
-            &p("d.csv"),
-            "--edge-field-csv",
-            &p("f.csv"),
-            "--units",
-            "us",
-        ])
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let report: Value = serde_json::from_slice(&out.stdout).unwrap();
+    let report = report_of(cli().args([
+        "run",
+        &file.to_string_lossy(),
+        "--edge-svg",
+        &p("f.svg"),
+        "--edge-day",
+        "14",
+        "--edge-series-svg",
+        &p("s.svg"),
+        "--edge-csv",
+        &p("d.csv"),
+        "--edge-field-csv",
+        &p("f.csv"),
+        "--units",
+        "us",
+    ]));
     assert!(report["edge"]["max_frost_below_base_m"].is_number());
     assert_eq!(report["edge"]["cautions"].as_array().unwrap().len(), 4);
     assert!(std::fs::read_to_string(dir.join("f.svg"))

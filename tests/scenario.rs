@@ -211,28 +211,16 @@ fn the_schema_describes_the_format() {
 
 #[test]
 fn cli_runs_an_example_and_writes_the_chart() {
-    let dir = std::env::temp_dir().join(format!("hibernal-cli-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = test_dir("cli");
     let file = dir.join("wall.json");
-    let out = cli().args(["example", "snow-block-wall"]).output().unwrap();
-    assert!(out.status.success());
-    std::fs::write(&file, &out.stdout).unwrap();
+    write_example("snow-block-wall", &file);
     let svg = dir.join("wall.svg");
-    let out = cli()
-        .args([
-            "run",
-            file.to_str().unwrap(),
-            "--svg",
-            svg.to_str().unwrap(),
-        ])
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let report = report_of(cli().args([
+        "run",
+        file.to_str().unwrap(),
+        "--svg",
+        svg.to_str().unwrap(),
+    ]));
     assert!(report["r_total_m2k_w"].as_f64().unwrap() > 2.0);
     let svg = std::fs::read_to_string(svg).unwrap();
     assert!(
@@ -433,35 +421,21 @@ fn version_1_documents_load_and_a_winter_needs_version_2() {
 
 #[test]
 fn cli_writes_the_winter_series_as_csv() {
-    let dir = std::env::temp_dir().join(format!("hibernal-cli-winter-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = test_dir("cli-winter");
     let file = dir.join("yard.json");
-    let out = cli()
-        .args(["example", "silty-yard-design-winter"])
-        .output()
-        .unwrap();
-    std::fs::write(&file, &out.stdout).unwrap();
+    write_example("silty-yard-design-winter", &file);
     let csv = dir.join("yard.csv");
     let svg = dir.join("yard-frost.svg");
-    let out = cli()
-        .args([
-            "run",
-            file.to_str().unwrap(),
-            "--csv",
-            csv.to_str().unwrap(),
-            "--winter-svg",
-            svg.to_str().unwrap(),
-            "--units",
-            "us",
-        ])
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let report: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let report = report_of(cli().args([
+        "run",
+        file.to_str().unwrap(),
+        "--csv",
+        csv.to_str().unwrap(),
+        "--winter-svg",
+        svg.to_str().unwrap(),
+        "--units",
+        "us",
+    ]));
     assert!(report["winter"]["max_frost_depth_m"].as_f64().unwrap() > 0.5);
     assert_eq!(std::fs::read_to_string(csv).unwrap().lines().count(), 367);
     let svg = std::fs::read_to_string(svg).unwrap();

@@ -370,27 +370,16 @@ fn the_charts_carry_their_axes_series_and_limits() {
 
 #[test]
 fn cli_runs_a_shelter_and_writes_its_files() {
-    let dir = std::env::temp_dir().join(format!("hibernal-cli-shelter-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = test_dir("cli-shelter");
     let file = dir.join("dome.json");
-    let out = cli()
-        .args(["example", "training-dome-four"])
-        .output()
-        .unwrap();
-    std::fs::write(&file, &out.stdout).unwrap();
+    write_example("training-dome-four", &file);
     let p = |n: &str| dir.join(n).to_str().unwrap().to_string();
-    let out = cli()
-        .args(["run", file.to_str().unwrap(), "--units", "us"])
-        .args(["--night-svg", &p("n.svg"), "--night-csv", &p("n.csv")])
-        .args(["--sweeps-svg", &p("s.svg"), "--sweeps-csv", &p("s.csv")])
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
+    let report = report_of(
+        cli()
+            .args(["run", file.to_str().unwrap(), "--units", "us"])
+            .args(["--night-svg", &p("n.svg"), "--night-csv", &p("n.csv")])
+            .args(["--sweeps-svg", &p("s.svg"), "--sweeps-csv", &p("s.csv")]),
     );
-    let report: Value = serde_json::from_slice(&out.stdout).unwrap();
     let sh = &report["shelter"];
     assert!(sh["interior_c"].as_f64().unwrap() > -20.0);
     assert!(sh["cautions"].as_array().unwrap().len() >= 8);

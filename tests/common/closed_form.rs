@@ -110,6 +110,16 @@ impl Freezing {
         }
     }
 
+    /// The column's cells: uniform, `cell_m` thick.
+    fn cells(&self, cell_m: f64) -> Vec<Cell> {
+        cells_for(
+            &[self.depth_m],
+            &[self.material()],
+            &GridSpec::uniform(cell_m),
+            &[None],
+        )
+    }
+
     /// A material with the problem's constant properties, freezing at 0 °C.
     pub fn material(&self) -> Material {
         let p = &self.problem;
@@ -173,13 +183,7 @@ pub fn stefan_one_phase() -> Freezing {
 /// per step.
 pub fn column_fronts(case: &Freezing, cell_m: f64, step_s: f64) -> (Vec<f64>, f64) {
     let p = &case.problem;
-    let cells = cells_for(
-        &[case.depth_m],
-        &[case.material()],
-        &GridSpec::uniform(cell_m),
-        &[None],
-    );
-    let mut s = Solver::new(cells, p.initial_c);
+    let mut s = Solver::new(case.cells(cell_m), p.initial_c);
     let top = TopCondition::Surface {
         surface_c: p.surface_c,
     };
@@ -200,13 +204,7 @@ pub fn column_fronts(case: &Freezing, cell_m: f64, step_s: f64) -> (Vec<f64>, f6
 /// middle column; also the largest difference between its columns' fronts, m.
 pub fn plane_fronts(case: &Freezing, cell_m: f64, step_s: f64) -> (Vec<f64>, f64) {
     let p = &case.problem;
-    let cells = cells_for(
-        &[case.depth_m],
-        &[case.material()],
-        &GridSpec::uniform(cell_m),
-        &[None],
-    );
-    let mut plane = plane_over(&cells, |_| p.initial_c);
+    let mut plane = plane_over(&case.cells(cell_m), |_| p.initial_c);
     let tops = [TopFace::Held {
         surface_c: p.surface_c,
     }];

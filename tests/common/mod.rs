@@ -66,6 +66,26 @@ pub fn silt() -> Material {
     silt_spec().resolve("silt", &mut Vec::new()).unwrap()
 }
 
+/// The invented demo edge section with or without its vertical board, its wing and its
+/// heating (unheated: a closed floor).
+pub fn demo_section(
+    wall_board: bool,
+    wing: bool,
+    heated: bool,
+) -> hibernal::physics::edge2d::EdgeSection {
+    let mut s = hibernal::physics::edge2d::demo::design_winter_section();
+    if !wall_board {
+        s.wall_board = None;
+    }
+    if !wing {
+        s.wing = None;
+    }
+    if !heated {
+        s.inside = hibernal::physics::edge2d::Inside::Closed;
+    }
+    s
+}
+
 // ---------------------------------------------------------------------- stack builders
 
 /// An unnamed layer of a stack.
@@ -88,6 +108,34 @@ pub fn column(layers: &[(f64, Material)], grid: GridSpec, initial_c: f64) -> Sol
 /// The command-line tool built with the tests.
 pub fn cli() -> std::process::Command {
     std::process::Command::new(env!("CARGO_BIN_EXE_hibernal"))
+}
+
+/// A folder for one test's files, `hibernal-<tag>-<process id>` in the system's temporary
+/// folder, created.
+pub fn test_dir(tag: &str) -> std::path::PathBuf {
+    let dir = std::env::temp_dir().join(format!("hibernal-{tag}-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    dir
+}
+
+/// Writes the bundled example `id`, as `hibernal example` prints it, to `file`.
+pub fn write_example(id: &str, file: &std::path::Path) {
+    let out = cli().args(["example", id]).output().unwrap();
+    assert!(out.status.success(), "hibernal example {id}");
+    std::fs::write(file, &out.stdout).unwrap();
+}
+
+/// Runs the command, asserting that it succeeded (its standard error shown if not), and
+/// reads the report it prints.
+#[track_caller]
+pub fn report_of(cmd: &mut std::process::Command) -> Value {
+    let out = cmd.output().unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    serde_json::from_slice(&out.stdout).unwrap()
 }
 
 /// Reference values made by tools/reference.py (IAPWS, CoolProp and independent
