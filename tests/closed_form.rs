@@ -122,11 +122,11 @@ fn the_column_front_converges_to_neumann_with_grid_and_time_step() {
 fn the_periodic_wave_on_every_solver() {
     // Amplitude within 1 % and lag within 0.02 rad at one and two damping depths, for
     // every solver on the same grid and steps (the column's tolerance before the checker
-    // held the others to it): backward Euler damps the annual wave by about ωΔt/2 ≈ 1.5e-3
-    // per radian of travel at 6-hour steps and the 2 cm to 20 cm cells add (Δz/d)²/12 ≲
-    // 5e-4; the start from rest, whose slowest part at two damping depths decays over
-    // (2d)²/a ≈ 1.3 years, has had three. Measured: 0.56 % and 0.008 rad at 2 d, all three
-    // solvers alike.
+    // held the others to it). Error estimates, per damping depth the wave travels: of
+    // order ωΔt/2 ≈ 2e-3 from backward Euler at 6-hour steps and (Δz/d)²/12 ≲ 5e-4 from the
+    // 2 cm to 20 cm cells, so about 5e-3 at two damping depths; the start from rest, whose
+    // slowest part there decays over (2d)²/a ≈ 1.3 years, has had three. Measured 0.56 % and
+    // 0.008 rad at 2 d, all three solvers alike: the tolerances leave a margin of about 2.
     let w = annual_wave();
     let closed = w.closed();
     for (solver, readings) in [
