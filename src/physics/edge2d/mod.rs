@@ -54,8 +54,8 @@
 //! from memory), the error falling about fourfold with each halving of the cells
 //! (`steady_rectangle_matches_the_fourier_series_and_converges`); the energy ledger over
 //! the design winter (`energy_balance_closes_over_a_winter`, 1e-9 of the throughput); the
-//! far-field column against Neumann's solution for the published soil
-//! (`far_field_column_follows_the_neumann_solution`, 1.5 %); orderings by the maximum
+//! far-field column against Neumann's solution for the published soil (in the shared
+//! closed-form checker, `tests/closed_form.rs` `neumann_soil_on_every_solver`, 1.5 %); orderings by the maximum
 //! principle: heating and boards keep frost from the footing, and under a heated slab frost
 //! below the base stays shallower than the far field
 //! (`insulation_and_heating_keep_frost_from_the_footing`); daily steps against 6-hour steps
