@@ -1,7 +1,7 @@
 //! Benchmarks timed with the page's clock, for the benchmark script (`e2e/bench.mjs`), not
 //! for users.
 
-use super::{clock_ms, to_js};
+use super::shared::{clock_ms, to_js};
 use crate::document::{examples, scenario};
 use serde::Serialize;
 use wasm_bindgen::prelude::*;

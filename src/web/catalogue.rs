@@ -3,7 +3,7 @@
 //! defaults a new section and each of its parts start from (`defaults`, the JSON a scenario
 //! holds, from [`crate::document::defaults`]).
 
-use super::to_js;
+use super::shared::to_js;
 use crate::document::defaults;
 use crate::document::scenario;
 use crate::physics::materials::{Board, SnowRegression, SoilModel, Texture};

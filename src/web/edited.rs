@@ -11,7 +11,7 @@
 //! is refused for its own errors only.
 
 use super::jobs::{Finished, Job, Kind, Running};
-use super::{draw_on, error_docs, to_js, units};
+use super::shared::{draw_on, error_docs, to_js, units};
 use crate::document::compute::{self, Computed};
 use crate::document::scenario::{self, Scenario};
 use crate::document::vocabulary::ErrorDoc;

@@ -6,7 +6,10 @@
 //! `draw(what, …)` give the tables and charts of its kind by name. A name the kind does not
 //! have is answered with an error value, never a throw.
 
-use super::{clock_ms, draw_on, draw_outcome, error_docs, to_js, units, CanvasArea};
+use super::shared::{
+    clock_ms, draw_on, draw_outcome, error_docs, slice_budget, step_outcome, to_js, units,
+    CanvasArea,
+};
 use crate::charts::frame::ChartError;
 use crate::document::vocabulary::ErrorDoc;
 use crate::document::{edge, edge_least, shelter, winter, winter_least};
@@ -105,37 +108,8 @@ pub enum Finished {
     Shelter(Box<shelter::ShelterReport>),
 }
 
-/// The time a slice may take, ms: what the page asks, within 1 ms and 10 s (16 ms for
-/// anything that is not a number).
-pub fn slice_budget(budget_ms: f64) -> f64 {
-    if budget_ms.is_finite() {
-        budget_ms.clamp(1.0, 10_000.0)
-    } else {
-        16.0
-    }
-}
-
-#[derive(Serialize)]
-struct Step<'a> {
-    ok: bool,
-    fraction: f64,
-    finished: bool,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    errors: Option<&'a [ErrorDoc]>,
-}
-
-/// `{ok, fraction, finished, errors?}` of a sliced job.
-pub fn step_outcome(fraction: f64, finished: bool, errors: &[ErrorDoc]) -> JsValue {
-    to_js(&Step {
-        ok: errors.is_empty(),
-        fraction,
-        finished,
-        errors: (!errors.is_empty()).then_some(errors),
-    })
-}
-
-/// A section's job, run a slice at a time, or its report once finished. Made by
-/// [`super::EditedScenario::start`]; never throws: a job that cannot run is reported by
+/// A section's job, run a slice at a time, or its report once finished. Made by the
+/// edited scenario's `start`; never throws: a job that cannot run is reported by
 /// `errors()`, each error naming its field, and a run that fails by `advance`.
 #[wasm_bindgen]
 pub struct Job {

@@ -7,15 +7,16 @@
 //! edits, [`EditedScenario`]: read and checked once per edit, and the report, the profile
 //! chart, its CSV and the section jobs served from it); [`jobs`] (one sliced job, [`Job`],
 //! over every section run: a winter, a least-thickness search, an edge, an edge search, a
-//! shelter); [`ranges`] (the ranges study, split over Web Workers); [`benchmarks`]. This
-//! file holds the start, the panic hook, the bundled examples, the climate import and the
-//! conversions the others share.
+//! shelter); [`ranges`] (the ranges study, split over Web Workers); [`benchmarks`]; and
+//! `shared.rs`, the conversions and the one canvas-drawing path the others share. This
+//! file holds the start, the panic hook, the bundled examples and the climate import.
 
 pub mod benchmarks;
 pub mod catalogue;
 pub mod edited;
 pub mod jobs;
 pub mod ranges;
+mod shared;
 
 pub use benchmarks::{benchmark_edge_winter, benchmark_reference_year};
 pub use catalogue::catalogue;
@@ -26,32 +27,9 @@ pub use ranges::{ranges_base_value, RangesStudy};
 use crate::document::examples;
 use crate::document::scenario;
 use crate::document::vocabulary::ErrorDoc;
-use crate::physics::error::InputErrors;
-use crate::physics::units::UnitSystem;
 use serde::Serialize;
+use shared::to_js;
 use wasm_bindgen::prelude::*;
-
-/// The unit system a page string names (SI for anything else).
-fn units(id: &str) -> UnitSystem {
-    UnitSystem::from_id(id).unwrap_or(UnitSystem::Si)
-}
-
-fn to_js<T: Serialize>(v: &T) -> JsValue {
-    let ser = serde_wasm_bindgen::Serializer::json_compatible();
-    v.serialize(&ser).unwrap_or(JsValue::NULL)
-}
-
-/// Errors as the page reads them, each naming its field.
-fn error_docs(e: &InputErrors) -> Vec<ErrorDoc> {
-    e.0.iter().map(ErrorDoc::from).collect()
-}
-
-/// The page's clock, ms.
-fn clock_ms() -> f64 {
-    web_sys::window()
-        .and_then(|w| w.performance())
-        .map_or(0.0, |p| p.now())
-}
 
 /// Show a panic on the page (element `#panic`) and in the console.
 fn panic_hook(info: &std::panic::PanicHookInfo<'_>) {
@@ -74,48 +52,6 @@ pub fn show_internal_error(msg: &str) {
 #[wasm_bindgen(start)]
 pub fn start() {
     std::panic::set_hook(Box::new(panic_hook));
-}
-
-#[derive(Serialize)]
-struct DrawOutcome {
-    ok: bool,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    message: Option<String>,
-}
-
-/// `{ok: true}`, or `{ok: false, message}`.
-fn draw_outcome(message: Option<String>) -> JsValue {
-    to_js(&DrawOutcome {
-        ok: message.is_none(),
-        message,
-    })
-}
-
-/// A canvas as plotters draws on it.
-type CanvasArea =
-    plotters::drawing::DrawingArea<plotters_canvas::CanvasBackend, plotters::coord::Shift>;
-
-/// Draw `report` with `f` on a canvas at its current pixel size: `{ok: true}`, or
-/// `{ok: false, message}` when there is nothing to draw (`Err` carries why), the canvas has
-/// no 2D context, or the chart fails. Every chart of the page goes through here.
-fn draw_on<R>(
-    canvas: web_sys::HtmlCanvasElement,
-    report: Result<&R, &str>,
-    f: impl FnOnce(&CanvasArea, &R) -> Result<(), crate::charts::frame::ChartError>,
-) -> JsValue {
-    let r = match report {
-        Ok(r) => r,
-        Err(why) => return draw_outcome(Some(why.to_string())),
-    };
-    let Some(backend) = plotters_canvas::CanvasBackend::with_canvas_object(canvas) else {
-        return draw_outcome(Some("the canvas has no 2D context".into()));
-    };
-    use plotters::prelude::IntoDrawingArea;
-    draw_outcome(
-        f(&backend.into_drawing_area(), r)
-            .err()
-            .map(|e| e.to_string()),
-    )
 }
 
 #[derive(Serialize)]

@@ -1,15 +1,15 @@
 //! The ranges study of a scenario (its `ranges` section) as independent tasks, so the page
 //! can spread them over Web Workers, and the scenario's own value of an uncertain input.
 
-use super::jobs::{slice_budget, step_outcome};
-use super::{clock_ms, draw_on, error_docs, to_js, units, CanvasArea};
+use super::shared::{
+    clock_ms, draw_on, error_docs, slice_budget, step_outcome, to_js, units, CanvasArea,
+};
 use crate::document::scenario;
 use crate::document::vocabulary::ErrorDoc;
 use serde::Serialize;
 use wasm_bindgen::prelude::*;
 
-/// A scenario from the page (a worker has no [`super::EditedScenario`]: it is handed the
-/// scenario).
+/// A scenario from the page (a worker has no edited scenario: it is handed the scenario).
 fn read_scenario(v: JsValue) -> Result<scenario::Scenario, Vec<ErrorDoc>> {
     let value: serde_json::Value = serde_wasm_bindgen::from_value(v).map_err(|e| {
         vec![ErrorDoc::plain(
