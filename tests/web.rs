@@ -518,6 +518,7 @@ fn the_job_refuses_an_unknown_kind_chart_or_table_without_throwing() {
         .unwrap()
         .contains("no-such-job"));
     assert!(none.report().is_null());
+    assert_eq!(none.kind(), "unknown");
     assert_eq!(get(&none.advance(1.0), "finished").as_bool(), Some(false));
 
     let shelter = d.start("shelter");

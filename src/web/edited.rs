@@ -264,16 +264,15 @@ impl EditedScenario {
     /// `edge`, `edge-least` or `shelter` (computed at once). A job that cannot run, or a
     /// kind there is none of, comes back with its `errors()`.
     pub fn start(&self, kind: &str) -> Job {
-        let Some(k) = Kind::from_id(kind) else {
-            return Job::refused(
-                Kind::Winter,
-                vec![ErrorDoc::plain("", format!("there is no job \"{kind}\""))],
-            );
-        };
+        let k = Kind::from_id(kind).unwrap_or(Kind::Unknown);
         match k {
             Kind::Winter | Kind::LeastThickness => Job::made(k, self.winter_job(k)),
             Kind::Edge | Kind::EdgeLeast => Job::made(k, self.edge_job(k)),
             Kind::Shelter => self.shelter_job(),
+            Kind::Unknown => Job::refused(
+                k,
+                vec![ErrorDoc::plain("", format!("there is no job \"{kind}\""))],
+            ),
         }
     }
 }

@@ -26,6 +26,8 @@ pub enum Kind {
     Edge,
     EdgeLeast,
     Shelter,
+    /// A kind the page asked for and there is none of (its job is refused).
+    Unknown,
 }
 
 impl Kind {
@@ -44,6 +46,7 @@ impl Kind {
             Kind::Edge => "edge",
             Kind::EdgeLeast => "edge-least",
             Kind::Shelter => "shelter",
+            Kind::Unknown => "unknown",
         }
     }
 
@@ -55,6 +58,7 @@ impl Kind {
     fn not_yet(self) -> &'static str {
         match self {
             Kind::Shelter => "the shelter has no result",
+            Kind::Unknown => "there is no such job",
             _ => "the run has not finished",
         }
     }
@@ -197,7 +201,8 @@ struct Refusal {
 
 #[wasm_bindgen]
 impl Job {
-    /// Its kind: `winter`, `least-thickness`, `edge`, `edge-least` or `shelter`.
+    /// Its kind: `winter`, `least-thickness`, `edge`, `edge-least` or `shelter` (`unknown`
+    /// for a kind there is none of).
     pub fn kind(&self) -> String {
         self.kind.id().to_string()
     }
