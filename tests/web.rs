@@ -18,6 +18,23 @@ fn example(id: &str) -> JsValue {
     v
 }
 
+/// The stack's outcome of a scenario, as the page gets it from its edited scenario.
+fn compute(s: JsValue) -> JsValue {
+    web::EditedScenario::new().set(s)
+}
+
+/// A section's job of a scenario, as the page starts it.
+fn start(s: JsValue, kind: &str) -> web::Job {
+    let mut d = web::EditedScenario::new();
+    d.set(s);
+    d.start(kind)
+}
+
+/// A job's table as text.
+fn csv(job: &web::Job, what: &str, units: &str, at: f64) -> String {
+    job.csv(what, units, at).as_string().expect("a table")
+}
+
 #[wasm_bindgen_test]
 fn catalogue_lists_every_regression_and_unit() {
     let c = web::catalogue();
@@ -30,7 +47,7 @@ fn catalogue_lists_every_regression_and_unit() {
 
 #[wasm_bindgen_test]
 fn compute_gives_the_series_r_of_the_wall_example() {
-    let out = web::compute(example("snow-block-wall"));
+    let out = compute(example("snow-block-wall"));
     assert_eq!(get(&out, "ok").as_bool(), Some(true));
     let r = get(&get(&out, "report"), "r_total_m2k_w").as_f64().unwrap();
     // Plane wall with films: 1/20 + 0.40/k + 1/7, k by Sturm et al. 1997 at 350 kg/m³.
@@ -43,14 +60,14 @@ fn bad_input_returns_errors_naming_the_field_and_never_throws() {
     let s = example("snow-over-foam-on-silt");
     let layer0 = Reflect::get_u32(&get(&s, "layers"), 0).unwrap();
     Reflect::set(&layer0, &"thickness_m".into(), &JsValue::from_f64(-1.0)).unwrap();
-    let out = web::compute(s.clone());
+    let out = compute(s.clone());
     assert_eq!(get(&out, "ok").as_bool(), Some(false));
     let errs: Array = get(&out, "errors").dyn_into().unwrap();
     let field = get(&errs.get(0), "field").as_string().unwrap();
     assert_eq!(field, "layers[0].thickness_m");
 
     Reflect::set(&layer0, &"thickness_m".into(), &JsValue::from_str("abc")).unwrap();
-    let out = web::compute(s);
+    let out = compute(s);
     assert_eq!(get(&out, "ok").as_bool(), Some(false));
 
     for junk in [
@@ -60,7 +77,7 @@ fn bad_input_returns_errors_naming_the_field_and_never_throws() {
         JsValue::from_str("{}"),
         Array::new().into(),
     ] {
-        let out = web::compute(junk);
+        let out = compute(junk);
         assert_eq!(get(&out, "ok").as_bool(), Some(false));
     }
 }
@@ -73,7 +90,9 @@ fn the_chart_draws_on_a_canvas() {
     canvas.set_width(800);
     canvas.set_height(500);
     doc.body().unwrap().append_child(&canvas).unwrap();
-    let out = web::draw_profile(canvas.clone(), example("snow-over-foam-on-silt"), "us", 2.0);
+    let mut d = web::EditedScenario::new();
+    d.set(example("snow-over-foam-on-silt"));
+    let out = d.draw_profile(canvas.clone(), "us", 2.0);
     assert_eq!(
         get(&out, "ok").as_bool(),
         Some(true),
@@ -95,7 +114,10 @@ fn the_chart_draws_on_a_canvas() {
         non_white > 2000,
         "the chart drew something: {non_white} dark pixels"
     );
-    let bad = web::draw_profile(canvas, JsValue::NULL, "si", 1.0);
+    // Nothing that computed, nothing to draw.
+    let mut d = web::EditedScenario::new();
+    d.set(JsValue::NULL);
+    let bad = d.draw_profile(canvas, "si", 1.0);
     assert_eq!(get(&bad, "ok").as_bool(), Some(false));
 }
 
@@ -122,21 +144,21 @@ fn a_winter_run_advances_in_slices_and_never_throws() {
         JsValue::from_str("x"),
         example("snow-block-wall"),
     ] {
-        let r = web::WinterRun::new(junk);
+        let r = start(junk, "winter");
         let errs: Array = r.errors().dyn_into().unwrap();
         assert!(errs.length() > 0);
     }
     let s = example("silty-yard-design-winter");
     let climate = get(&get(&s, "winter"), "climate");
     Reflect::set(&climate, &"season_days".into(), &JsValue::from_f64(400.0)).unwrap();
-    let r = web::WinterRun::new(s);
+    let r = start(s, "winter");
     let errs: Array = r.errors().dyn_into().unwrap();
     assert_eq!(
         get(&errs.get(0), "field").as_string().as_deref(),
         Some("winter.climate.season_days")
     );
 
-    let mut r = web::WinterRun::new(example("silty-yard-design-winter"));
+    let mut r = start(example("silty-yard-design-winter"), "winter");
     assert_eq!(Array::from(&r.errors()).length(), 0);
     let mut slices = 0;
     let mut last = 0.0;
@@ -157,7 +179,7 @@ fn a_winter_run_advances_in_slices_and_never_throws() {
     // The design winter's air freezing index is the one it was built from.
     let fi = get(&rep, "air_freezing_index_c_days").as_f64().unwrap();
     assert!((fi - 1200.0).abs() < 3.0, "{fi}");
-    let csv = r.csv("si");
+    let csv = csv(&r, "daily", "si", 0.0);
     assert!(csv.starts_with("day,air temperature [°C]"));
     // Finished runs stay finished.
     assert_eq!(get(&r.advance(5.0), "finished").as_bool(), Some(true));
@@ -183,7 +205,7 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
     let shapes: Array = get(&c, "shelter_shapes").dyn_into().unwrap();
     assert_eq!(shapes.length(), 4);
 
-    let r = web::ShelterRun::new(example("training-dome-four"));
+    let r = start(example("training-dome-four"), "shelter");
     assert_eq!(Array::from(&r.errors()).length(), 0);
     let rep = r.report();
     let t = get(&rep, "interior_c").as_f64().unwrap();
@@ -191,15 +213,15 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
     assert!(t > -20.0 && t < 1.0, "{t}");
     let rc: Array = get(&rep, "cautions").dyn_into().unwrap();
     assert_eq!(rc.length(), cautions.length());
-    assert!(r.night_csv("us").starts_with("time [h],air inside [°F]"));
-    assert!(r.sweeps_csv("si").contains("thickness,"));
+    assert!(csv(&r, "night", "us", 0.0).starts_with("time [h],air inside [°F]"));
+    assert!(csv(&r, "sweeps", "si", 0.0).contains("thickness,"));
 
     let doc = web_sys::window().unwrap().document().unwrap();
     let canvas: web_sys::HtmlCanvasElement =
         doc.create_element("canvas").unwrap().dyn_into().unwrap();
     canvas.set_width(600);
     canvas.set_height(360);
-    let out = r.draw_night(canvas.clone(), "si", 1.0);
+    let out = r.draw("night", canvas.clone(), 0.0, "si", 1.0);
     assert_eq!(get(&out, "ok").as_bool(), Some(true));
     let ctx: web_sys::CanvasRenderingContext2d = canvas
         .get_context("2d")
@@ -212,12 +234,16 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
     assert!(dark > 200, "the night chart has ink ({dark} dark pixels)");
     for which in 0..3 {
         assert_eq!(
-            get(&r.draw_sweep(canvas.clone(), which, "us", 2.0), "ok").as_bool(),
+            get(
+                &r.draw("sweep", canvas.clone(), which as f64, "us", 2.0),
+                "ok"
+            )
+            .as_bool(),
             Some(true)
         );
     }
     assert_eq!(
-        get(&r.draw_sweep(canvas, 7, "si", 1.0), "ok").as_bool(),
+        get(&r.draw("sweep", canvas, 7.0, "si", 1.0), "ok").as_bool(),
         Some(false)
     );
 
@@ -236,7 +262,7 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
         &JsValue::from_f64(5.0),
     )
     .unwrap();
-    let bad = web::ShelterRun::new(s);
+    let bad = start(s, "shelter");
     let errs: Array = bad.errors().dyn_into().unwrap();
     let fields: Vec<String> = errs
         .iter()
@@ -256,7 +282,7 @@ fn a_shelter_computes_draws_and_names_its_bad_fields() {
         JsValue::from_str("x"),
         example("snow-block-wall"),
     ] {
-        let r = web::ShelterRun::new(junk);
+        let r = start(junk, "shelter");
         assert!(Array::from(&r.errors()).length() > 0);
     }
 }
@@ -268,14 +294,14 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
         JsValue::from_str("x"),
         example("snow-block-wall"),
     ] {
-        let r = web::EdgeRun::new(junk);
+        let r = start(junk, "edge");
         let errs: Array = r.errors().dyn_into().unwrap();
         assert!(errs.length() > 0);
     }
     let s = example("unheated-storage-edge");
     let wing = get(&get(&s, "edge"), "wing");
     Reflect::set(&wing, &"width_m".into(), &JsValue::from_f64(-1.0)).unwrap();
-    let r = web::EdgeRun::new(s);
+    let r = start(s, "edge");
     let errs: Array = r.errors().dyn_into().unwrap();
     assert_eq!(
         get(&errs.get(0), "field").as_string().as_deref(),
@@ -292,7 +318,7 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
         Reflect::set(&grid, &k.into(), &JsValue::from_f64(v)).unwrap();
     }
     Reflect::set(&edge, &"grid".into(), &grid).unwrap();
-    let mut r = web::EdgeRun::new(s);
+    let mut r = start(s, "edge");
     assert_eq!(Array::from(&r.errors()).length(), 0);
     let mut slices = 0;
     let mut last = 0.0;
@@ -315,8 +341,8 @@ fn an_edge_runs_in_slices_reports_and_names_its_bad_fields() {
     assert!(get(&rep, "fields").is_undefined());
     let days = Array::from(&r.field_days());
     assert_eq!(days.get(days.length() - 1).as_f64(), Some(14.0));
-    assert!(r.csv("us").starts_with("day,air temperature [°F]"));
-    assert!(r.field_csv(7.0, "si").starts_with("# field of day 7.000"));
+    assert!(csv(&r, "daily", "us", 0.0).starts_with("day,air temperature [°F]"));
+    assert!(csv(&r, "field", "si", 7.0).starts_with("# field of day 7.000"));
     assert_eq!(get(&r.advance(5.0), "finished").as_bool(), Some(true));
 }
 
@@ -325,7 +351,7 @@ fn edge_least_run_searches_in_slices_and_never_throws() {
     // Junk and a scenario without `edge.least` give errors, not exceptions; a short coarse
     // search of the invented store's wing runs to an answer in 5 ms slices.
     for junk in [JsValue::NULL, example("unheated-storage-edge")] {
-        let r = web::EdgeLeastRun::new(junk);
+        let r = start(junk, "edge-least");
         assert!(Array::from(&r.errors()).length() > 0);
         assert!(r.report().is_null());
     }
@@ -343,7 +369,7 @@ fn edge_least_run_searches_in_slices_and_never_throws() {
         Reflect::set(&least, &k.into(), &JsValue::from_f64(v)).unwrap();
     }
     Reflect::set(&edge, &"least".into(), &least).unwrap();
-    let mut r = web::EdgeLeastRun::new(s);
+    let mut r = start(s, "edge-least");
     assert_eq!(Array::from(&r.errors()).length(), 0);
     let mut slices = 0;
     loop {
@@ -440,4 +466,118 @@ fn a_ranges_study_split_over_studies_gives_the_report_of_one_run_in_order() {
             .as_f64()
             .is_some()
     );
+}
+
+#[wasm_bindgen_test]
+fn the_edited_scenario_serves_report_csv_and_jobs_after_one_set() {
+    let mut d = web::EditedScenario::new();
+    // Before any set: no report, no CSV, and a job is refused, not thrown.
+    assert!(d.report().is_null());
+    assert_eq!(d.profile_csv("si"), "");
+    assert!(Array::from(&d.start("winter").errors()).length() > 0);
+
+    let out = d.set(example("silty-yard-design-winter"));
+    assert_eq!(get(&out, "ok").as_bool(), Some(true));
+    // The report again, the profile CSV and a job, all without the scenario crossing again.
+    let r = get(&d.report(), "r_total_m2k_w").as_f64().unwrap();
+    assert_eq!(get(&get(&out, "report"), "r_total_m2k_w").as_f64(), Some(r));
+    assert!(
+        d.profile_csv("si").starts_with("depth"),
+        "{}",
+        d.profile_csv("si")
+    );
+    let job = d.start("winter");
+    assert_eq!(Array::from(&job.errors()).length(), 0);
+    assert_eq!(job.kind(), "winter");
+
+    // A newer scenario that does not compute keeps the last profile for the chart and
+    // CSV, and refuses its jobs naming the field.
+    let s = example("silty-yard-design-winter");
+    let layer0 = Reflect::get_u32(&get(&s, "layers"), 0).unwrap();
+    Reflect::set(&layer0, &"thickness_m".into(), &JsValue::from_f64(-1.0)).unwrap();
+    let out = d.set(s);
+    assert_eq!(get(&out, "ok").as_bool(), Some(false));
+    assert!(d.report().is_null());
+    assert!(!d.profile_csv("si").is_empty());
+    let errs = Array::from(&d.start("least-thickness").errors());
+    assert_eq!(
+        get(&errs.get(0), "field").as_string().as_deref(),
+        Some("layers[0].thickness_m")
+    );
+}
+
+#[wasm_bindgen_test]
+fn the_job_refuses_an_unknown_kind_chart_or_table_without_throwing() {
+    let mut d = web::EditedScenario::new();
+    d.set(example("training-dome-four"));
+    let mut none = d.start("no-such-job");
+    let errs = Array::from(&none.errors());
+    assert!(errs.length() > 0);
+    assert!(get(&errs.get(0), "message")
+        .as_string()
+        .unwrap()
+        .contains("no-such-job"));
+    assert!(none.report().is_null());
+    assert_eq!(none.kind(), "unknown");
+    assert_eq!(get(&none.advance(1.0), "finished").as_bool(), Some(false));
+
+    let shelter = d.start("shelter");
+    assert_eq!(Array::from(&shelter.errors()).length(), 0);
+    // A shelter has no daily table and no frost chart: error values, not exceptions.
+    let t = shelter.csv("daily", "si", 0.0);
+    assert_eq!(get(&t, "ok").as_bool(), Some(false));
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let canvas: web_sys::HtmlCanvasElement =
+        doc.create_element("canvas").unwrap().dyn_into().unwrap();
+    let c = shelter.draw("frost-depth", canvas.clone(), 0.0, "si", 1.0);
+    assert_eq!(get(&c, "ok").as_bool(), Some(false));
+    assert!(get(&c, "message")
+        .as_string()
+        .unwrap()
+        .contains("frost-depth"));
+    // A winter not yet run has no chart yet.
+    let mut w = web::EditedScenario::new();
+    w.set(example("silty-yard-design-winter"));
+    let job = w.start("winter");
+    let c = job.draw("frost-depth", canvas, 0.0, "si", 1.0);
+    assert_eq!(get(&c, "ok").as_bool(), Some(false));
+    assert_eq!(csv(&job, "daily", "si", 0.0), "");
+}
+
+#[wasm_bindgen_test]
+fn the_catalogue_carries_the_defaults_of_every_new_section() {
+    let d = get(&web::catalogue(), "defaults");
+    let winter = get(&d, "winter");
+    assert_eq!(
+        get(&get(&winter, "surface"), "film_w_m2k").as_f64(),
+        Some(20.0)
+    );
+    assert_eq!(
+        get(&get(&winter, "bottom"), "upward_w_m2").as_f64(),
+        Some(0.06)
+    );
+    // Left out, as a file that does not name them.
+    assert!(!Reflect::has(&winter, &"grid".into()).unwrap());
+    assert!(!Reflect::has(&winter, &"duration_days".into()).unwrap());
+    let shelter = get(&d, "shelter");
+    assert_eq!(
+        get(&get(&shelter, "conditions"), "body_area_m2").as_f64(),
+        Some(1.8)
+    );
+    assert_eq!(get(&shelter, "inside_film_w_m2k").as_f64(), Some(7.0));
+    let edge = get(&d, "edge");
+    assert_eq!(get(&get(&edge, "inside"), "film_w_m2k").as_f64(), Some(6.0));
+    assert_eq!(Array::from(&get(&d, "edge_least_quantities")).length(), 4);
+    // Each default section computes as it is.
+    for (key, kind) in [
+        ("winter", "winter"),
+        ("shelter", "shelter"),
+        ("edge", "edge"),
+    ] {
+        let s = example("snow-over-foam-on-silt");
+        Reflect::set(&s, &"version".into(), &JsValue::from_f64(5.0)).unwrap();
+        Reflect::set(&s, &key.into(), &get(&d, key)).unwrap();
+        let job = start(s, kind);
+        assert_eq!(Array::from(&job.errors()).length(), 0, "{key}");
+    }
 }

@@ -1,67 +1,39 @@
 // The building edge section (#edge): scenario.edge (SI, as the core reads it), a
 // cross-section in the plane through a heated or unheated building's slab, wall and
 // footing, boards and soil bands; its inputs (the weather ones are the winter's own editors,
-// shared), and its run: an EdgeRun in the core, started 400 ms after each recompute and
+// shared), and its run: the core's edge job, started 400 ms after each recompute and
 // advanced a slice at a time, like the winter's; any newer input cancels the run under
 // way. Its report and charts (the day slider shows the kept field nearest that day) and the
 // least-insulation search (#e-design).
 import { $, el, clear, focusField, jobChart } from './dom.js';
-import { core } from './core.js';
-import { state, flow, clone, scenarioWithout } from './state.js';
+import { core, coreDefault } from './core.js';
+import { state, flow, clone } from './state.js';
 import { badText, field, numField, fmtU, fmtUpU, fromDisplay, typedErrors, switchPart, showUnitSymbols, fieldGrid, fillBox } from './fields.js';
-import { defaultMaterial, materialFieldsOf } from './materials.js';
+import { materialFieldsOf } from './materials.js';
 import { describePath } from './messages.js';
 import { slicedRun, searchBox } from './jobs.js';
 import { download, fileStem } from './downloads.js';
 import { section } from './section.js';
-import { defaultSnowSeason, defaultSurface, defaultBottom, climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
+import { climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
 
-// ---------- the page's own defaults for the edge section ----------
-// Invented defaults: a heated building on a shallow footing with a board against the
-// wall and a wing board, in silt, through a design winter of 1500 °C·days with snow.
-function defaultBoard(extra) {
-  return Object.assign({ material: { kind: 'insulation', board: 'xps', conductivity_w_m_k: null, moisture_derating_pct: 10 }, thickness_m: 0.05 }, extra);
-}
-const defaultWing = () => defaultBoard({ width_m: 0.6, depth_m: 0.3 });
-// Film on a floor, heat flowing down: about 6 W/m²K (common practice, no source).
-const defaultInside = (kind) => (kind === 'heated' ? { kind, air_c: 20, film_w_m2k: 6 } : { kind });
-function defaultEdge() {
-  return {
-    inside_half_width_m: 5,
-    outside_extent_m: 8,
-    depth_m: 8,
-    slab: { thickness_m: 0.1, material: { kind: 'concrete', conductivity_w_m_k: null } },
-    wall: { width_m: 0.2, base_depth_m: 0.6, material: { kind: 'concrete', conductivity_w_m_k: null } },
-    wall_board: defaultBoard({ depth_m: 0.6 }),
-    wing: defaultWing(),
-    soil: [{ name: 'silt', thickness_m: 8, material: defaultMaterial('soil') }],
-    inside: defaultInside('heated'),
-    outside: defaultSurface.film(),
-    climate: { kind: 'design-winter', freezing_index_c_days: 1500, season_days: 160, mean_annual_c: 2, snow: defaultSnowSeason('design-winter') },
-    bottom: defaultBottom.flux(),
-    start: { surface_c: 5, gradient_k_per_m: 0.03 },
-    step_s: 86400,
-    // The freezing season and some weeks of thaw after it: frost under a footing is
-    // deepest near the end of the season.
-    duration_days: 200,
-    field_every_days: 7,
-  };
-}
-// The core's default grid (scenario_edge::DEFAULT_GRID), shown until changed.
-const defaultGrid = () => ({ fine_m: 0.02, growth_ratio: 1.15, max_cell_m: 0.4 });
+// ---------- a new edge section and its parts (the core's defaults) ----------
+// A heated building on a shallow footing with a board against the wall and a wing board,
+// in silt, through a design winter with snow.
+const defaultEdge = () => coreDefault('edge');
+// A board against the wall, reaching down to `depth_m`.
+const defaultWallBoard = (depth_m) => Object.assign(coreDefault('edge_wall_board'), { depth_m });
+const defaultWing = () => coreDefault('edge_wing');
+const defaultInside = (kind) => coreDefault('edge_insides', kind);
+// The core's grid, shown until changed.
+const defaultGrid = () => coreDefault('edge_grid');
 // What the least-insulation search can vary, with the quantity its values are shown in,
 // the board it needs, and the range and resolution it starts with.
-const EDGE_QUANTITIES = [
-  { value: 'wing-width', text: 'Width of the wing board', q: 'length', needs: 'wing', range: [0, 2.0], resolution: 0.02 },
-  { value: 'wing-r', text: 'R-value of the wing board', q: 'r_value', needs: 'wing', range: [0.2, 6.0], resolution: 0.05 },
-  { value: 'wall-board-r', text: 'R-value of the board against the wall', q: 'r_value', needs: 'wall_board', range: [0.2, 6.0], resolution: 0.05 },
-  { value: 'footing-depth', text: 'Depth of the footing base', q: 'depth', needs: null, range: [0.3, 3.0], resolution: 0.02 },
-];
-const edgeQuantity = (id) => EDGE_QUANTITIES.find((x) => x.value === id) || EDGE_QUANTITIES[0];
+const leastQuantities = () => core.CAT.defaults.edge_least_quantities;
+const edgeQuantity = (id) => leastQuantities().find((x) => x.id === id) || leastQuantities()[0];
 // The search starts on the wing's width when there is a wing, else on the footing's depth.
-function defaultDesign(e) {
-  const q = e && e.wing ? EDGE_QUANTITIES[0] : EDGE_QUANTITIES[3];
-  return { quantity: q.value, min: q.range[0], max: q.range[1], resolution: q.resolution };
+function defaultLeast(e) {
+  const q = edgeQuantity(e && e.wing ? 'wing-width' : 'footing-depth');
+  return { quantity: q.id, min: q.min, max: q.max, resolution: q.resolution };
 }
 
 const EDGE_DEBOUNCE_MS = 400;
@@ -70,27 +42,26 @@ const edge = {
   day: null, // the day the field map shows
   past: {}, // earlier sub-sections by kind, so switching back restores them
   nPreset: null, // the n-factor preset chosen
-  design: null, // the search being set up (copied into the scenario when run)
+  least: null, // the search being set up (copied into the scenario when run)
 };
-
-const edgeScenario = () => scenarioWithout('winter', 'shelter', 'ranges');
 
 const edgeRun = slicedRun({
   key: 'edge', results: 'edge-results', errors: 'e-errors', bar: 'e-progress', status: 'e-status',
   busy: 'Running the cross-section…', what: 'The building edge', delayMs: EDGE_DEBOUNCE_MS,
-  make: () => new core.W.EdgeRun(edgeScenario()),
+  make: () => core.doc.start('edge'),
   describe: describePath,
   render: () => { renderEdgeReport(); drawEdge(); },
 });
 
 const search = searchBox({
   id: 'e-design',
-  draft: designDraft,
+  draft: leastDraft,
   typed: (d) => typedErrors([[d, '']]),
   keep: (d) => { state.scenario.edge.least = clone(d); },
-  make: () => new core.W.EdgeLeastRun(edgeScenario()),
+  // The search kept into the scenario is an edit: the core reads the scenario again.
+  make: () => { core.doc.set(state.scenario); return core.doc.start('edge-least'); },
   describe: describePath,
-  render: renderDesignReport,
+  render: renderLeastReport,
 });
 
 function edgeOwners() {
@@ -158,7 +129,7 @@ function renderEdge() {
     });
     return el('label', { class: 'check', for: id }, check, ' ' + label);
   };
-  bb.push(boardToggle('wall_board', 'A board against the outer face of the wall', () => defaultBoard({ depth_m: e.wall.base_depth_m })));
+  bb.push(boardToggle('wall_board', 'A board against the outer face of the wall', () => defaultWallBoard(e.wall.base_depth_m)));
   if (e.wall_board) {
     const b = e.wall_board;
     bb.push(fieldGrid(
@@ -230,7 +201,7 @@ function renderEdge() {
     numField(e, 'duration_days', 'edge.duration_days', 'Length of the run', 'days', { optional: true, placeholder: () => 'the climate\'s' }),
     numField(e, 'field_every_days', 'edge.field_every_days', 'Keep the field every', 'days'),
   ), det);
-  renderDesignFields();
+  renderLeastFields();
   showUnitSymbols($('edge'));
 }
 
@@ -328,47 +299,47 @@ const edgeChart = (id, draw) => jobChart(id, edgeRun.job, draw);
 function drawEdgeField() {
   const job = edgeRun.job;
   if (!job) return;
-  edgeChart('e-field-chart', (c, dpr) => job.draw_field(c, edge.day || 0, state.units, dpr));
+  edgeChart('e-field-chart', (c, dpr) => job.draw('field', c, edge.day || 0, state.units, dpr));
 }
 function drawEdge() {
   const job = edgeRun.job;
   if (!job) return;
   drawEdgeField();
-  edgeChart('e-series-chart', (c, dpr) => job.draw_series(c, state.units, dpr));
+  edgeChart('e-series-chart', (c, dpr) => job.draw('series', c, 0, state.units, dpr));
 }
 
 // ---------- least insulation ----------
-function designDraft() {
+function leastDraft() {
   const e = state.scenario.edge;
-  if (!edge.design) {
-    if (e && e.least) edge.design = clone(e.least);
-    else edge.design = defaultDesign(e);
+  if (!edge.least) {
+    if (e && e.least) edge.least = clone(e.least);
+    else edge.least = defaultLeast(e);
   }
-  return edge.design;
+  return edge.least;
 }
 
-function renderDesignFields() {
+function renderLeastFields() {
   const box = $('e-design-fields');
   clear(box);
-  const d = designDraft();
+  const d = leastDraft();
   const q = edgeQuantity(d.quantity);
   const e = state.scenario.edge;
-  const redraw = () => { renderDesignFields(); search.stale(); };
+  const redraw = () => { renderLeastFields(); search.stale(); };
   box.append(field({
     path: 'edge.least.quantity', label: 'Quantity to size', cls: 'wide',
-    options: EDGE_QUANTITIES.map((x) => ({ value: x.value, text: x.text + (x.needs && e && !e[x.needs] ? ' (add that board first)' : '') })),
+    options: leastQuantities().map((x) => ({ value: x.id, text: x.name + (x.needs && e && !e[x.needs] ? ' (add that board first)' : '') })),
     get: () => d.quantity,
-    set: (v) => { const n = edgeQuantity(v); d.quantity = n.value; d.min = n.range[0]; d.max = n.range[1]; d.resolution = n.resolution; badText.delete(d); },
+    set: (v) => { const n = edgeQuantity(v); d.quantity = n.id; d.min = n.min; d.max = n.max; d.resolution = n.resolution; badText.delete(d); },
     after: redraw,
   }));
   box.append(
-    numField(d, 'min', 'edge.least.min', 'Least to try', q.q, { after: search.stale }),
-    numField(d, 'max', 'edge.least.max', 'Most to try', q.q, { after: search.stale }),
-    numField(d, 'resolution', 'edge.least.resolution', 'Found to within', q.q, { after: search.stale }),
+    numField(d, 'min', 'edge.least.min', 'Least to try', q.quantity, { after: search.stale }),
+    numField(d, 'max', 'edge.least.max', 'Most to try', q.quantity, { after: search.stale }),
+    numField(d, 'resolution', 'edge.least.resolution', 'Found to within', q.quantity, { after: search.stale }),
   );
 }
 
-function renderDesignReport() {
+function renderLeastReport() {
   const r = search.report;
   const ans = $('e-design-answer');
   ans.classList.remove('is-stale');
@@ -376,24 +347,24 @@ function renderDesignReport() {
   clear(tb);
   if (!r) { ans.textContent = ''; $('e-design-trials').hidden = true; return; }
   const q = edgeQuantity(r.quantity);
-  const name = q.text.charAt(0).toLowerCase() + q.text.slice(1);
+  const name = q.name.charAt(0).toLowerCase() + q.name.slice(1);
   let text;
   if (r.outcome === 'found' || r.outcome === 'run-limit') {
     const v = r.frost_below_base_m;
     const at = v > 0 || Math.abs(v) < 0.0005 ? 'frost just reaches the base' : 'frost stays ' + fmtU('depth', -v) + ' above the base';
-    text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtUpU(q.q, r.value) +
-      ' (with it, ' + at + ')' + (r.outcome === 'found' ? ', found to within ' + fmtU(q.q, r.resolution) + '.' : '; the search ran out of tries before narrowing it to ' + fmtU(q.q, r.resolution) + ', so a little less may do.');
+    text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtUpU(q.quantity, r.value) +
+      ' (with it, ' + at + ')' + (r.outcome === 'found' ? ', found to within ' + fmtU(q.quantity, r.resolution) + '.' : '; the search ran out of tries before narrowing it to ' + fmtU(q.quantity, r.resolution) + ', so a little less may do.');
     if (r.slope != null && Number.isFinite(r.slope) && r.slope < 0) {
-      const step = q.q === 'r_value' ? (state.units === 'us' ? fromDisplay('r_value', 1) : 0.1) : 0.05;
-      text += ' Sensitivity: just short of the answer, each ' + fmtU(q.q, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + '.';
+      const step = q.quantity === 'r_value' ? (state.units === 'us' ? fromDisplay('r_value', 1) : 0.1) : 0.05;
+      text += ' Sensitivity: just short of the answer, each ' + fmtU(q.quantity, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + '.';
     }
     if (r.jump_m != null && r.jump_m > 0.02) {
       text += ' Across the answer the frost line jumps by ' + fmtU('depth', r.jump_m) + ' (the last frozen ground under the footing thaws at once), so the answer is sharp: allow a margin for a colder winter.';
     }
   } else if (r.outcome === 'smallest-suffices') {
-    text = 'Even ' + fmtU(q.q, r.value) + ' (the least tried) keeps frost above the footing base.';
+    text = 'Even ' + fmtU(q.quantity, r.value) + ' (the least tried) keeps frost above the footing base.';
   } else if (r.outcome === 'not-reachable') {
-    text = 'Even the most tried (' + fmtU(q.q, r.value) + ') lets frost get ' + belowBaseWords(r.frost_below_base_m) + '. Try a wider range, another board, or a deeper footing.';
+    text = 'Even the most tried (' + fmtU(q.quantity, r.value) + ') lets frost get ' + belowBaseWords(r.frost_below_base_m) + '. Try a wider range, another board, or a deeper footing.';
   } else {
     text = 'Frost reached deeper with more of this quantity between two tries, so no least value can be named here; look at the table.';
   }
@@ -402,7 +373,7 @@ function renderDesignReport() {
     const ok = !(t.frost_below_base_m > 0);
     tb.append(el('tr', {},
       el('td', { text: String(i + 1) }),
-      el('td', { text: fmtU(q.q, t.value) }),
+      el('td', { text: fmtU(q.quantity, t.value) }),
       el('td', { text: belowBaseWords(t.frost_below_base_m) }),
       el('td', { text: ok ? 'yes' : 'no', class: ok ? 'ok' : 'no' })));
   });
@@ -422,9 +393,9 @@ function setUp() {
     $('e-day-out').textContent = edgeDayWords(edge.day);
     drawEdgeField();
   });
-  $('e-csv').addEventListener('click', () => { if (edgeRun.job) download(edgeRun.job.csv(state.units), fileStem('edge') + '-daily.csv'); });
+  $('e-csv').addEventListener('click', () => { if (edgeRun.job) download(edgeRun.job.csv('daily', state.units, 0), fileStem('edge') + '-daily.csv'); });
   $('e-field-csv').addEventListener('click', () => {
-    if (edgeRun.job) download(edgeRun.job.field_csv(edge.day || 0, state.units), fileStem('edge') + '-field-day-' + Math.round(edge.day || 0) + '.csv');
+    if (edgeRun.job) download(edgeRun.job.csv('field', state.units, edge.day || 0), fileStem('edge') + '-field-day-' + Math.round(edge.day || 0) + '.csv');
   });
   $('e-design-go').addEventListener('click', search.start);
 }
@@ -443,14 +414,14 @@ export const edgeSection = section({
   run: (blocked) => edgeRun.schedule(blocked),
   showUnits() {
     if (edgeRun.report) { renderEdgeReport(); drawEdge(); }
-    if (search.report) renderDesignReport();
+    if (search.report) renderLeastReport();
   },
   draw: drawEdge,
   drop: dropEdgeResult,
   adopt() {
     dropEdgeResult();
     edge.past = {};
-    edge.design = null;
+    edge.least = null;
     search.reset();
   },
 });

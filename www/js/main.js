@@ -7,7 +7,7 @@ import { core, startCore } from './core.js';
 import { state, flow, remember, setUpHistory } from './state.js';
 import { typedErrors, showUnitSymbols, freezeT } from './fields.js';
 import { clearMessages, describePath, generalError, placeMessage } from './messages.js';
-import { stackOwners, renderStack, adoptStack, stackStale, computeStack, showStackUnits, drawStack, setUpStack } from './stack.js';
+import { stackOwners, renderStack, adoptStack, stackStale, setScenario, computeStack, showStackUnits, drawStack, setUpStack } from './stack.js';
 import { autosave, restoreAutosave, scenarioFromLink, makeShareLink, saveFile, openFile } from './persist.js';
 import { setUpChartSaving, setUpTableSaving } from './downloads.js';
 import { printStamp, setUpPrinting, renderSources } from './print.js';
@@ -55,10 +55,12 @@ function run() {
     finish();
     return;
   }
-  // The sections that do not read the stack's result are computed on their own, so an
-  // error in the stack never blocks them (nor one of theirs the stack).
+  // Read once by the core, which serves every part from it. The sections that do not read
+  // the stack's result are computed on their own, so an error in the stack never blocks
+  // them (nor one of theirs the stack).
+  const outcome = setScenario();
   for (const s of SECTIONS) if (!s.needsStack) s.run(false);
-  const steady = computeStack();
+  const steady = computeStack(outcome);
   // An unexpected failure (null) leaves the sections that need the stack as they are.
   if (steady !== null) for (const s of SECTIONS) if (s.needsStack) s.run(!steady);
   finish();

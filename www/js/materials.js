@@ -1,27 +1,17 @@
 // Materials as the page edits them: the fields of each material kind (the layer list, the
-// building edge's slab, wall, boards and soil bands), and the page's own defaults for a
-// material of each kind.
-import { core } from './core.js';
+// building edge's slab, wall, boards and soil bands), and a new material of each kind (the
+// core's default).
+import { core, coreDefault } from './core.js';
 import { field, fmt, fmtU } from './fields.js';
-
-// The first snow conductivity regression of the catalogue: the default one.
-export const firstCorrelation = () => (core.CAT.snow_correlations[0] ? core.CAT.snow_correlations[0].id : 'sturm-1997-quadratic');
 
 function nominalBoard(id) {
   const b = core.CAT.boards.find((x) => x.id === id);
   return b ? b.conductivity_w_m_k : null;
 }
 
-// ---------- the page's own defaults for a material of each kind ----------
+// ---------- a new material of each kind ----------
 export function defaultMaterial(kind) {
-  switch (kind) {
-    case 'snow': return { kind, density_kg_m3: 300, correlation: firstCorrelation() };
-    case 'soil': return { kind, texture: 'silt', model: 'kersten-1949', dry_density_kg_m3: 1600, water_content_pct: 20, quartz_fraction: 0.3 };
-    case 'insulation': return { kind, board: 'xps', conductivity_w_m_k: null, moisture_derating_pct: 0 };
-    case 'concrete': return { kind, conductivity_w_m_k: null };
-    case 'custom': return { kind, label: 'Own material', conductivity_w_m_k: 0.5, frozen_conductivity_w_m_k: null, density_kg_m3: 1000, specific_heat_j_kg_k: 1000 };
-    default: return { kind };
-  }
+  return coreDefault('materials', kind) || { kind };
 }
 
 // Fields shown for each material kind (key is the property of `material`).

@@ -86,7 +86,8 @@ function firstUsefulKind() {
 }
 
 function defaultRanges() {
-  return { runs: 200, seed: 1 + Math.floor(Math.random() * 999999), inputs: [defaultRangedInput(firstUsefulKind())] };
+  // The core's number of runs; the inputs from the scenario's own values, a fresh seed.
+  return { runs: core.CAT.defaults.ranges.runs, seed: 1 + Math.floor(Math.random() * 999999), inputs: [defaultRangedInput(firstUsefulKind())] };
 }
 
 function rangesOwners() {

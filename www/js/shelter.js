@@ -4,51 +4,28 @@
 // scenario without its winter (an error in one never blocks the other); the newest input
 // always wins because each run replaces the last.
 import { $, el, clear, focusField, jobChart } from './dom.js';
-import { core } from './core.js';
-import { state, flow, scenarioWithout } from './state.js';
+import { core, coreDefault } from './core.js';
+import { state, flow } from './state.js';
 import { field, numField, fmt, fmtU, fmtNum, fmtInput, freezeT, toDisplay, unit, headCell, switchPart, showUnitSymbols, fieldGrid, fillBox } from './fields.js';
-import { firstCorrelation } from './materials.js';
 import { describePath, listErrors, placeMessage } from './messages.js';
 import { download, fileStem } from './downloads.js';
 import { section } from './section.js';
 
-// ---------- the page's own defaults for the shelter section ----------
-const defaultExposedFace = () => ({ share: 0.3, thickness_m: 0.5 });
-function defaultShape(kind) {
-  switch (kind) {
-    case 'hollowed-pile': return { kind, inner_radius_m: 1.2, crown_thickness_m: 0.4, base_thickness_m: 0.7 };
-    case 'drift-cave': return { kind, inner_radius_m: 1.0, exposed_face: defaultExposedFace() };
-    case 'trench': return { kind, length_m: 2.2, width_m: 0.9, depth_m: 1.0, roof_thickness_m: 0.3 };
-    default: return { kind: 'block-dome', inner_radius_m: 1.1, wall_thickness_m: 0.35 };
-  }
-}
-const defaultFloor = (kind) => (kind === 'ground' ? { kind: 'ground', conductivity_w_m_k: 1.5, heat_capacity_j_m3_k: 2.2e6, temperature_c: -2 } : { kind: 'snow' });
-const defaultEntrance = (kind) => (kind === 'level' ? { kind: 'level', opening_width_m: 0.5, opening_height_m: 0.3 } : { kind: 'cold-trap' });
+// ---------- a new shelter and its parts (the core's defaults) ----------
+const defaultExposedFace = () => coreDefault('exposed_face');
+const defaultShape = (kind) => coreDefault('shapes', kind) || coreDefault('shapes', 'block-dome');
+const defaultFloor = (kind) => coreDefault('floors', kind === 'ground' ? kind : 'snow');
+const defaultEntrance = (kind) => coreDefault('entrances', kind === 'level' ? kind : 'cold-trap');
 // What is asked of the night and the least wall, given to a shelter that has neither.
 const defaultAsk = {
   night: () => ({ duration_h: 12 }),
   design: () => ({ target_c: -5 }),
 };
-// An invented dome for two on a calm −15 °C night.
-function defaultShelter() {
-  return {
-    shape: defaultShape('block-dome'),
-    snow_density_kg_m3: 300,
-    snow_correlation: firstCorrelation(),
-    floor: defaultFloor('snow'),
-    entrance: defaultEntrance('cold-trap'),
-    vent_diameter_m: 0.08,
-    inside_film_w_m2k: 7,
-    lining_m2k_per_w: 0.2,
-    floor_cover_m2k_per_w: 0.3,
-    conditions: { outside_c: -15, wind_m_s: 3, snowpack_c: -8, people: 2, activity: 'sleeping', body_area_m2: 1.8, candles: 0, stove_w: 0, stove_heat_share: 1 },
-    night: { duration_h: 12, step_s: 60 },
-    design: { target_c: -5 },
-  };
-}
+// A dome for two on a calm −15 °C night.
+const defaultShelter = () => coreDefault('shelter');
 
 const shelter = {
-  job: null, // the ShelterRun drawn from, or null
+  job: null, // the shelter job drawn from, or null
   report: null,
   past: {}, // earlier sub-sections by kind, so switching back restores them
   ms: 0,
@@ -223,11 +200,10 @@ function runShelter(blocked) {
   clear(list); list.hidden = true;
   if (!state.scenario.shelter) { res.dataset.state = 'idle'; dropShelterResult(); return; }
   if (blocked) { shelterStale(true, 'Out of date: fix the marked inputs.'); return; }
-  const scen = scenarioWithout('winter', 'edge', 'ranges');
   let job;
   const t0 = performance.now();
   try {
-    job = new core.W.ShelterRun(scen);
+    job = core.doc.start('shelter');
   } catch (err) {
     console.error(err);
     shelterStale(true, 'The shelter could not be computed: ' + String(err && err.message || err));
@@ -401,14 +377,14 @@ function shelterWarning(w) {
 function drawShelter() {
   const job = shelter.job;
   if (!job) return;
-  jobChart('s-night-chart', job, (c, dpr) => job.draw_night(c, state.units, dpr));
-  for (let i = 0; i < 3; i++) jobChart('s-sweep-' + i, job, (c, dpr) => job.draw_sweep(c, i, state.units, dpr));
+  jobChart('s-night-chart', job, (c, dpr) => job.draw('night', c, 0, state.units, dpr));
+  for (let i = 0; i < 3; i++) jobChart('s-sweep-' + i, job, (c, dpr) => job.draw('sweep', c, i, state.units, dpr));
 }
 
 function setUp() {
   renderCautions();
-  $('s-night-csv').addEventListener('click', () => { if (shelter.job) download(shelter.job.night_csv(state.units), fileStem('shelter') + '-night.csv'); });
-  $('s-sweeps-csv').addEventListener('click', () => { if (shelter.job) download(shelter.job.sweeps_csv(state.units), fileStem('shelter') + '-series.csv'); });
+  $('s-night-csv').addEventListener('click', () => { if (shelter.job) download(shelter.job.csv('night', state.units, 0), fileStem('shelter') + '-night.csv'); });
+  $('s-sweeps-csv').addEventListener('click', () => { if (shelter.job) download(shelter.job.csv('sweeps', state.units, 0), fileStem('shelter') + '-series.csv'); });
 }
 
 export const shelterSection = section({

@@ -200,21 +200,31 @@ export function stackStale(stale) {
   $('profile-chart').classList.toggle('is-stale', stale);
 }
 
-// The steady compute of the stack, once every typed number parses. Returns true when it
-// gave a result, false when the core refused the inputs (their errors are placed), null
-// when it failed unexpectedly.
-export function computeStack() {
-  // The stack reads neither the shelter, nor the edge, nor the ranges study.
-  const stackOnly = scenarioWithout('shelter', 'edge', 'ranges');
-  let res;
+// Hands the scenario, once every typed number parses, to the core's edited scenario,
+// which reads it once for the stack and every section's job, and solves the stack. Returns
+// the stack's outcome ({ok, report} or {ok: false, errors}), or {failed} when the core
+// failed unexpectedly.
+export function setScenario() {
   try {
-    res = core.W.compute(stackOnly);
+    return core.doc.set(state.scenario);
   } catch (err) {
     console.error(err);
+    return { failed: err };
+  }
+}
+
+// The steady compute of the stack, from the outcome setScenario() gave. Returns true when
+// it gave a result, false when the core refused the inputs (their errors are placed), null
+// when it failed unexpectedly.
+export function computeStack(res) {
+  if (res && res.failed) {
+    const err = res.failed;
     generalError('The calculation failed unexpectedly: ' + String(err && err.message || err));
     stackStale(true);
     return null;
   }
+  // The stack reads neither the shelter, nor the edge, nor the ranges study.
+  const stackOnly = scenarioWithout('shelter', 'edge', 'ranges');
   if (!res || !res.ok) {
     const errors = (res && res.errors) || [];
     for (const e of errors) {
@@ -314,7 +324,7 @@ function renderBand(rep, scen) {
   const sk = $('band-skipped');
   sk.textContent = skipped.length ? 'Left out here: ' + skipped.map((x) => {
     if (typeof x === 'string') return x;
-    // Each is { field: correlation id, message }.
+    // Each is { field: regression id, message }.
     const id = x.id || x.field || '';
     const c = core.CAT.snow_correlations.find((k) => k.id === id);
     const name = x.name || (c ? c.name : id);
@@ -390,7 +400,7 @@ function renderLayerTables(rep) {
 // The profile of the last scenario that computed (kept, marked out of date, while the
 // inputs do not compute).
 export function drawStack() {
-  jobChart('profile-chart', state.lastGood, (c, dpr) => core.W.draw_profile(c, state.lastGood.scenario, state.units, dpr));
+  jobChart('profile-chart', state.lastGood, (c, dpr) => core.doc.draw_profile(c, state.units, dpr));
 }
 
 export function setUpStack() {
@@ -398,8 +408,7 @@ export function setUpStack() {
   $('f-notes').addEventListener('input', (e) => { state.scenario.notes = e.target.value; flow.schedule(); });
   $('add-layer').addEventListener('click', addLayer);
   $('profile-csv').addEventListener('click', () => {
-    // The last scenario that computed (what the chart shows).
-    const scen = state.lastGood ? state.lastGood.scenario : null;
-    if (scen) download(core.W.profile_csv(scen, state.units), fileStem('scenario') + '-profile.csv');
+    // The last stack that computed (what the chart shows).
+    if (state.lastGood) download(core.doc.profile_csv(state.units), fileStem('scenario') + '-profile.csv');
   });
 }

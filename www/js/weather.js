@@ -4,36 +4,17 @@
 // `keep`, the section's memory ({ past: sub-sections switched away from, by kind;
 // nPreset: the n-factor preset chosen }).
 import { el, clear } from './dom.js';
-import { core } from './core.js';
+import { core, coreDefault } from './core.js';
 import { badText, field, numField, switchPart } from './fields.js';
-import { firstCorrelation } from './materials.js';
 
-// ---------- the page's own defaults for the weather inputs ----------
-export function defaultSnowSeason(kind) {
-  // Invented defaults: for a calendar year (day 0 = 1 January) snow from mid-November to
-  // mid-April; for a design winter (day 0 = freeze-up) from day 10 to day 160.
-  return kind === 'design-winter'
-    ? { start_day: 10, peak_day: 100, end_day: 160, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 }
-    : { start_day: 320, peak_day: 50, end_day: 105, peak_depth_m: 0.4, fresh_density_kg_m3: 150, settled_density_kg_m3: 320 };
-}
-export function defaultClimate(kind) {
-  switch (kind) {
-    case 'design-winter': return { kind, freezing_index_c_days: 1000, season_days: 150, mean_annual_c: 3 };
-    case 'daily': return { kind, days: [] };
-    default: return { kind: 'sinusoid', mean_c: 3, amplitude_k: 14, coldest_day_of_year: 20 };
-  }
-}
-// A surface and a deep boundary of each kind. Film coefficient of open ground in light
-// wind, 20 W/m²K (common practice, no source); geothermal flux 0.06 W/m² (a typical
-// continental value, from memory).
-export const defaultSurface = {
-  film: () => ({ kind: 'film', film_w_m2k: 20, snow_correlation: firstCorrelation() }),
-  'n-factor': () => ({ kind: 'n-factor', freezing: 0.7, thawing: 1.0 }),
-};
-export const defaultBottom = {
-  flux: () => ({ kind: 'flux', upward_w_m2: 0.06 }),
-  temperature: () => ({ kind: 'temperature', temperature_c: 4 }),
-};
+// ---------- new weather inputs (the core's defaults, with their sources) ----------
+// The snow season of a sine year, or of a design winter.
+export const defaultSnowSeason = (kind) => coreDefault('snow_seasons', kind === 'design-winter' ? kind : 'sinusoid');
+export const defaultClimate = (kind) => coreDefault('climates', kind === 'design-winter' || kind === 'daily' ? kind : 'sinusoid');
+// A surface (an air film or n-factors) and a deep boundary (the geothermal flux or a
+// temperature) of each kind.
+export const defaultSurface = (kind) => coreDefault('surfaces', kind);
+export const defaultBottom = (kind) => coreDefault('bottoms', kind);
 
 // ---------- editors ----------
 // The climate of a section (`sect.climate`, paths under `prefix`): its kind and numbers.
@@ -117,7 +98,7 @@ export function surfaceEditor(su, sect, key, prefix, keep, rerender) {
       { value: 'n-factor', text: 'Surface temperature = n-factor × air temperature' },
     ],
     get: () => s.kind,
-    set: (v) => switchPart(sect, key, keep.past, v, (k) => defaultSurface[k]()),
+    set: (v) => switchPart(sect, key, keep.past, v, defaultSurface),
     after: rerender(P + 'kind'),
   }));
   su.append(sg);
@@ -163,7 +144,7 @@ export function bottomEditor(bo, sect, prefix, keep, rerender) {
       { value: 'temperature', text: 'Held at a fixed temperature' },
     ],
     get: () => b.kind,
-    set: (v) => switchPart(sect, 'bottom', keep.past, v, (k) => defaultBottom[k]()),
+    set: (v) => switchPart(sect, 'bottom', keep.past, v, defaultBottom),
     after: rerender(P + 'kind'),
   }));
   if (b.kind === 'flux') bg.append(numField(b, 'upward_w_m2', P + 'upward_w_m2', 'Heat flux from below', 'heat_flux'));

@@ -1,38 +1,26 @@
 // The winter section (#winter): scenario.winter (SI, as the core reads it), its inputs,
-// and its run: a WinterRun in the core, started 200 ms after each good steady compute and
+// and its run: the core's winter job, started 200 ms after each good steady compute and
 // advanced a slice at a time (see jobs.js); any newer input cancels the run under way. Its
 // report and charts (the day slider redraws only the profile of that day, from the
 // profiles kept in the finished run), the least-thickness search (#w-design) and the
 // import of a daily record from a CSV file.
 import { $, el, clear, focusField, jobChart } from './dom.js';
-import { core } from './core.js';
-import { state, flow, clone, scenarioWithout } from './state.js';
+import { core, coreDefault } from './core.js';
+import { state, flow, clone } from './state.js';
 import { field, numField, fmt, fmtU, fmtUpU, fmtNum, headCell, typedErrors, switchPart, showUnitSymbols } from './fields.js';
 import { describePath, fieldLabel } from './messages.js';
 import { slicedRun, searchBox } from './jobs.js';
 import { download, fileStem } from './downloads.js';
 import { section } from './section.js';
-import { defaultClimate, defaultSurface, defaultBottom, climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
+import { climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
 
-// ---------- the page's own defaults for the winter section ----------
-const defaultInitial = {
-  'spin-up': () => ({ kind: 'spin-up', start_c: 4, max_years: 10 }),
-  uniform: () => ({ kind: 'uniform', temperature_c: 4 }),
-  periodic: () => ({ kind: 'periodic' }),
-};
-function defaultWinter() {
-  return {
-    climate: defaultClimate('sinusoid'),
-    surface: defaultSurface.film(),
-    bottom: defaultBottom.flux(),
-    initial: defaultInitial['spin-up'](),
-    step_s: 3600,
-  };
-}
+// ---------- a new winter section and its parts (the core's defaults) ----------
+const defaultInitial = (kind) => coreDefault('initials', kind);
+const defaultWinter = () => coreDefault('winter');
 // The core's default grid, shown until changed.
-const defaultGrid = () => ({ surface_cell_m: 0.01, growth_ratio: 1.05, max_cell_m: 0.25 });
+const defaultGrid = () => coreDefault('winter_grid');
 // The least-thickness search: the first insulation layer, frost kept above its bottom.
-function defaultDesign() {
+function defaultLeast() {
   const L = state.scenario.layers;
   let i = L.findIndex((l) => l.material && l.material.kind === 'insulation');
   if (i < 0) i = 0;
@@ -46,25 +34,26 @@ const winter = {
   past: {}, // earlier sub-sections by kind, so switching back restores them
   nPreset: undefined, // the n-factor preset chosen
   summary: null, // summary of a daily record: { first_date, winters, design, ... }
-  design: null, // the least-thickness search being set up (applied to the scenario when run)
+  least: null, // the least-thickness search being set up (applied to the scenario when run)
 };
 
 const winterRun = slicedRun({
   key: 'winter', results: 'winter-results', errors: 'w-errors', bar: 'w-progress', status: 'w-status',
   busy: 'Running…', what: 'The winter run', delayMs: WINTER_DEBOUNCE_MS, clearFirst: '#winter',
-  make: () => new core.W.WinterRun(scenarioWithout('shelter', 'edge', 'ranges')),
+  make: () => core.doc.start('winter'),
   describe: describeWinterPath,
   render: () => { renderWinterReport(); drawWinter(); },
 });
 
 const search = searchBox({
   id: 'w-design',
-  draft: designDraft,
+  draft: leastDraft,
   typed: (d) => typedErrors([[d, ''], [d.keep_frost_above, '']]),
   keep: (d) => { state.scenario.winter.least_thickness = clone(d); },
-  make: () => new core.W.LeastThicknessRun(scenarioWithout('ranges')),
+  // The search kept into the scenario is an edit: the core reads the scenario again.
+  make: () => { core.doc.set(state.scenario); return core.doc.start('least-thickness'); },
   describe: describeWinterPath,
-  render: renderDesignReport,
+  render: renderLeastReport,
 });
 
 function describeWinterPath(path) {
@@ -112,7 +101,7 @@ function renderWinter() {
   ig.append(field({
     path: 'winter.initial.kind', label: 'The ground starts', cls: 'wide', options: initialKinds,
     get: () => w.initial.kind,
-    set: (v) => switchPart(w, 'initial', winter.past, v, (k) => defaultInitial[k]()),
+    set: (v) => switchPart(w, 'initial', winter.past, v, defaultInitial),
     after: rerender('winter.initial.kind'),
   }));
   if (w.initial.kind === 'uniform') ig.append(numField(w.initial, 'temperature_c', 'winter.initial.temperature_c', 'Temperature everywhere', 'temperature'));
@@ -146,27 +135,27 @@ function renderWinter() {
   );
   det.append(gg);
   ru.append(det);
-  renderDesignFields();
+  renderLeastFields();
   showUnitSymbols($('winter'));
 }
 
 // ---------- least thickness ----------
-function designDraft() {
+function leastDraft() {
   const w = state.scenario.winter;
-  if (!winter.design) winter.design = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultDesign();
-  const d = winter.design;
+  if (!winter.least) winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
+  const d = winter.least;
   const n = state.scenario.layers.length;
   if (d.layer >= n) d.layer = n - 1;
   if (d.keep_frost_above.kind === 'layer-bottom' && d.keep_frost_above.layer >= n) d.keep_frost_above.layer = n - 1;
   return d;
 }
 
-function renderDesignFields() {
+function renderLeastFields() {
   const box = $('w-design-fields');
   clear(box);
-  const d = designDraft();
+  const d = leastDraft();
   const layerOptions = state.scenario.layers.map((l, i) => ({ value: String(i), text: (i + 1) + '. ' + (l.name && l.name.trim() ? l.name : 'layer ' + (i + 1)) }));
-  const redraw = () => { renderDesignFields(); search.stale(); };
+  const redraw = () => { renderLeastFields(); search.stale(); };
   box.append(field({
     path: 'winter.least_thickness.layer', label: 'Layer to size', cls: 'wide', options: layerOptions,
     get: () => String(d.layer), set: (v) => { d.layer = Number(v); }, after: redraw,
@@ -195,7 +184,7 @@ function renderDesignFields() {
   );
 }
 
-function renderDesignReport() {
+function renderLeastReport() {
   const r = search.report;
   const ans = $('w-design-answer');
   ans.classList.remove('is-stale');
@@ -375,16 +364,16 @@ const winterChart = (id, draw) => jobChart(id, winterRun.job, draw);
 
 function drawDayChart() {
   const job = winterRun.job;
-  if (!job || typeof job.draw_day_profile !== 'function') return;
-  winterChart('day-chart', (c, dpr) => job.draw_day_profile(c, winter.day || 0, state.units, dpr));
+  if (!job) return;
+  winterChart('day-chart', (c, dpr) => job.draw('day-profile', c, winter.day || 0, state.units, dpr));
 }
 
 function drawWinter() {
   const job = winterRun.job;
   if (!job) return;
-  winterChart('frost-chart', (c, dpr) => job.draw_frost_depth(c, state.units, dpr));
+  winterChart('frost-chart', (c, dpr) => job.draw('frost-depth', c, 0, state.units, dpr));
   drawDayChart();
-  if (typeof job.draw_series === 'function') winterChart('series-chart', (c, dpr) => job.draw_series(c, state.units, dpr));
+  winterChart('series-chart', (c, dpr) => job.draw('series', c, 0, state.units, dpr));
 }
 
 function setUp() {
@@ -396,8 +385,8 @@ function setUp() {
     $('w-day-out').textContent = winterDay(winter.day);
     drawDayChart();
   });
-  $('w-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.csv(state.units), fileStem('winter') + '-daily.csv'); });
-  $('w-profiles-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.profiles_csv(state.units), fileStem('winter') + '-profiles.csv'); });
+  $('w-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.csv('daily', state.units, 0), fileStem('winter') + '-daily.csv'); });
+  $('w-profiles-csv').addEventListener('click', () => { if (winterRun.job) download(winterRun.job.csv('profiles', state.units, 0), fileStem('winter') + '-profiles.csv'); });
 }
 
 export const winterSection = section({
@@ -422,7 +411,7 @@ export const winterSection = section({
     winter.day = null;
     winter.past = {};
     winter.summary = null;
-    winter.design = null;
+    winter.least = null;
     search.reset();
     $('w-csv').disabled = true;
     $('w-profiles-csv').disabled = true;
