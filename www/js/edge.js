@@ -424,4 +424,6 @@ export const edgeSection = section({
     edge.least = null;
     search.reset();
   },
+  // Its inputs name no layer of the stack.
+  layersMoved() {},
 });

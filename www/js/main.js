@@ -24,7 +24,13 @@ const DEBOUNCE_MS = 100;
 // Sections removed by hand, by key, kept for putting back (until another scenario opens).
 const removed = new Map();
 
-Object.assign(flow, { schedule, run, adopt });
+Object.assign(flow, { schedule, run, adopt, layersMoved });
+
+// The stack's layers were added, removed or reordered: each section moves the references it
+// holds to layers with them, and shows its lists of layers again.
+function layersMoved(map) {
+  for (const s of SECTIONS) s.layersMoved(map);
+}
 
 // ---------- the recompute ----------
 function schedule() {

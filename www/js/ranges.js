@@ -490,4 +490,15 @@ export const rangesSection = section({
     dropRangesResult();
     ranges.pickId = null;
   },
+  layersMoved,
 });
+
+// The stack changed: an input that applies to one layer follows that layer; one whose
+// layer was removed goes with it (the undo brings both back).
+function layersMoved(map) {
+  const r = state.scenario.ranges;
+  if (!r) return;
+  r.inputs = r.inputs.filter((inp) => inp.layer == null || (map[inp.layer] ?? -1) >= 0);
+  for (const inp of r.inputs) if (inp.layer != null) inp.layer = map[inp.layer];
+  renderRanges();
+}

@@ -29,8 +29,11 @@
 //   drop()        the section was removed: its run stops and its results go
 //   adopt()       another scenario opened: its results, searches and the sub-sections
 //                 kept for switching back all go
+//   layersMoved(map)  the stack's layers were added, removed or reordered (map[old index]
+//                 is the layer's new index, -1 if removed): the references it holds to
+//                 layers follow them, and its lists of layers show the stack as it is now
 const FLAGS = ['byHand', 'needsStack', 'inView'];
-const HOOKS = ['fresh', 'setUp', 'render', 'owners', 'edited', 'run', 'showUnits', 'draw', 'drop', 'adopt'];
+const HOOKS = ['fresh', 'setUp', 'render', 'owners', 'edited', 'run', 'showUnits', 'draw', 'drop', 'adopt', 'layersMoved'];
 
 // Checks a section's shape (so a section missing a part fails at start, by name).
 export function section(s) {

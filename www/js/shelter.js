@@ -409,4 +409,6 @@ export const shelterSection = section({
     dropShelterResult();
     shelter.past = {};
   },
+  // Its inputs name no layer of the stack.
+  layersMoved() {},
 });

@@ -3,7 +3,7 @@
 // the snow regression band, per-layer tables, warnings) and the temperature profile chart.
 import { $, el, clear, idFor, jobChart } from './dom.js';
 import { core } from './core.js';
-import { state, flow, clone, scenarioWithout } from './state.js';
+import { state, flow, clone, scenarioWithout, layerMap } from './state.js';
 import { bad, field, fmt, fmtU, freezeT, headCell, showUnitSymbols } from './fields.js';
 import { defaultMaterial, materialFieldsOf } from './materials.js';
 import { describePath, generalError, placeMessage } from './messages.js';
@@ -91,6 +91,9 @@ function moveLayer(i, d) {
   const j = i + d;
   if (j < 0 || j >= L.length) return;
   [L[i], L[j]] = [L[j], L[i]];
+  const order = L.map((_, k) => k);
+  [order[i], order[j]] = [order[j], order[i]];
+  flow.layersMoved(layerMap(L.length, order));
   renderLayers('li[data-index="' + j + '"] [data-act="' + (d < 0 ? 'up' : 'down') + '"]');
   flow.run();
 }
@@ -98,6 +101,7 @@ function removeLayer(i) {
   const L = state.scenario.layers;
   if (L.length <= 1) return;
   L.splice(i, 1);
+  flow.layersMoved(layerMap(L.length + 1, L.map((_, k) => (k < i ? k : k + 1))));
   renderLayers('li[data-index="' + Math.min(i, L.length - 1) + '"] [data-act="remove"]');
   flow.run();
 }
@@ -110,6 +114,7 @@ function addLayer() {
     thickness_m: 0.1,
     material: last ? clone(last.material) : defaultMaterial('snow'),
   });
+  flow.layersMoved(layerMap(L.length - 1, L.map((_, k) => (k < L.length - 1 ? k : -1))));
   renderLayers();
   const inputs = $('layer-list').querySelectorAll('li:last-child input[data-field$=".name"]');
   if (inputs[0]) inputs[0].focus();

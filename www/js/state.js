@@ -19,7 +19,17 @@ export const flow = {
   schedule: unwired('schedule'), // recompute after the debounce (an edit)
   run: unwired('run'), // recompute now
   adopt: unwired('adopt'), // open another scenario: adopt(scenario, from)
+  layersMoved: unwired('layersMoved'), // the stack's layers changed order or number: layersMoved(map)
 };
+
+// Where each layer went after the stack changed: map[old index] is its new index, or -1
+// where it was removed. `order` lists the layers now in the stack by their old index
+// (a layer that is new: -1).
+export function layerMap(oldCount, order) {
+  const map = new Array(oldCount).fill(-1);
+  order.forEach((old, now) => { if (old >= 0) map[old] = now; });
+  return map;
+}
 
 export const clone = (o) => JSON.parse(JSON.stringify(o));
 

@@ -140,6 +140,27 @@ function renderWinter() {
 }
 
 // ---------- least thickness ----------
+// The stack changed: the search's layer and the layer whose bottom frost must stay above
+// follow their layers; where one was removed, the search sizes the layer a new search
+// would, and keeps frost above that layer's bottom.
+function layersMoved(map) {
+  const follow = (d) => {
+    if (!d) return;
+    const bottom = d.keep_frost_above && d.keep_frost_above.kind === 'layer-bottom';
+    const was = d.layer;
+    d.layer = map[was] ?? -1;
+    if (d.layer < 0) d.layer = defaultLeast().layer;
+    if (bottom) {
+      const b = map[d.keep_frost_above.layer] ?? -1;
+      d.keep_frost_above.layer = b < 0 ? d.layer : b;
+    }
+  };
+  follow(winter.least);
+  const w = state.scenario.winter;
+  if (w && w.least_thickness) follow(w.least_thickness);
+  if (w) renderLeastFields();
+}
+
 function leastDraft() {
   const w = state.scenario.winter;
   if (!winter.least) winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
@@ -416,4 +437,5 @@ export const winterSection = section({
     $('w-csv').disabled = true;
     $('w-profiles-csv').disabled = true;
   },
+  layersMoved,
 });
