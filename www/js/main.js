@@ -87,7 +87,9 @@ function renderInputs() {
 
 // ---------- another scenario ----------
 // `from`: where an outside scenario came from ('file', 'link'), to name it in the notice
-// shown when it is of an older format version; bundled examples open without one.
+// shown when it is of an older format version; bundled examples open without one. Either
+// way the page holds, saves and shares it as the current version (every older document
+// reads the same as the current version: the versions only added sections).
 function adopt(scenario, from) {
   state.scenario = scenario;
   const note = $('format-note');
@@ -96,8 +98,8 @@ function adopt(scenario, from) {
     note.textContent = 'This ' + from + ' holds format version ' + scenario.version + '; this page reads it unchanged and writes version ' +
       core.CAT.format_version + ' when you save or share it (older versions of the page may not open that).';
     note.hidden = false;
-    scenario.version = core.CAT.format_version;
   }
+  if (Number.isInteger(scenario.version) && scenario.version < core.CAT.format_version) scenario.version = core.CAT.format_version;
   if (typeof state.scenario.title !== 'string') state.scenario.title = '';
   if (typeof state.scenario.notes !== 'string') state.scenario.notes = '';
   adoptStack(scenario);
