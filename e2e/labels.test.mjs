@@ -19,3 +19,26 @@ for (const screen of SCREENS) test(`at ${screen.width} px, an example of an olde
   await andRecompute(page, () => page.setInputFiles('#open-file', { name: 'yard.json', mimeType: 'application/json', buffer: Buffer.from(text) }));
   assert.equal(await page.locator('#format-note').isHidden(), true, 'no older-format notice for the page\'s own file');
 }, screen));
+
+for (const screen of SCREENS) test(`at ${screen.width} px, an example's summary and notes are marked once the case departs from it, and not for a note of one's own`, () => withPage(async (page) => {
+  const mark = page.locator('#example-changed');
+  await andRecompute(page, () => page.selectOption('#example-pick', 'cabin-porch-slab-snowy-winter'));
+  assert.equal(await mark.isHidden(), true, 'as opened, the example is the case its text describes');
+  // Notes of one's own are not a change of the case.
+  await andRecompute(page, () => page.fill('[data-field="notes"]', 'Checked on site.'));
+  assert.equal(await mark.isHidden(), true);
+  // A thicker board is.
+  await andRecompute(page, () => page.fill('[data-field="layers[1].thickness_m"]', '10'));
+  assert.equal(await mark.isVisible(), true, 'the changed case is marked');
+  assert.match(await mark.textContent(), /describe the example as it was/);
+  // Back to the example's board: the mark goes.
+  await andRecompute(page, () => page.fill('[data-field="layers[1].thickness_m"]', '5'));
+  assert.equal(await mark.isHidden(), true, 'the same case again');
+  // A file of one's own carries no example's summary.
+  await andRecompute(page, () => page.fill('[data-field="layers[1].thickness_m"]', '10'));
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#save-file')]);
+  const mine = readFileSync(await dl.path());
+  await andRecompute(page, () => page.setInputFiles('#open-file', { name: 'mine.json', mimeType: 'application/json', buffer: mine }));
+  assert.equal(await page.locator('#example-summary').textContent(), '');
+  assert.equal(await mark.isHidden(), true);
+}, screen));

@@ -24,6 +24,17 @@ const DEBOUNCE_MS = 100;
 // Sections removed by hand, by key, kept for putting back (until another scenario opens).
 const removed = new Map();
 
+// The example the scenario was opened from, as the first recompute after opening it saw it
+// ('pending' until then; null: not opened from an example), to mark its summary and notes
+// once the case departs from it. Its title, notes and format version are left out of the
+// comparison (editing the notes is not a departure from the case).
+let exampleBase = null;
+const asCase = (s) => JSON.stringify(Object.assign({}, s, { title: undefined, notes: undefined, version: undefined }));
+function markDeparture() {
+  if (exampleBase === 'pending') exampleBase = asCase(state.scenario);
+  $('example-changed').hidden = exampleBase === null || asCase(state.scenario) === exampleBase;
+}
+
 Object.assign(flow, { schedule, run, adopt, layersMoved });
 
 // The stack's layers were added, removed or reordered: each section moves the references it
@@ -48,6 +59,7 @@ function run() {
   clearTimeout(state.timer);
   clearMessages();
   for (const s of SECTIONS) s.edited();
+  markDeparture();
   printStamp();
   autosave();
   remember();
@@ -94,6 +106,11 @@ function adopt(scenario, from) {
   state.scenario = scenario;
   const note = $('format-note');
   note.hidden = true;
+  if (from) {
+    // A file or a link: not an example (whatever the picker last showed).
+    exampleBase = null;
+    $('example-summary').textContent = '';
+  }
   if (from && Number.isInteger(scenario.version) && scenario.version < core.CAT.format_version) {
     note.textContent = 'This ' + from + ' holds format version ' + scenario.version + '; this page reads it unchanged and writes version ' +
       core.CAT.format_version + ' when you save or share it (older versions of the page may not open that).';
@@ -114,6 +131,7 @@ function loadExample(id) {
   $('restore-note').hidden = true;
   $('example-pick').value = id;
   $('example-summary').textContent = ex ? ex.summary : '';
+  exampleBase = ex ? 'pending' : null;
   adopt(core.W.example(id));
   // A shelter example is about the shelter: bring its section into view. So is an edge example.
   const about = SECTIONS.find((s) => s.inView && state.scenario && state.scenario[s.key]);
