@@ -147,8 +147,7 @@ function layersMoved(map) {
   const follow = (d) => {
     if (!d) return;
     const bottom = d.keep_frost_above && d.keep_frost_above.kind === 'layer-bottom';
-    const was = d.layer;
-    d.layer = map[was] ?? -1;
+    d.layer = map[d.layer] ?? -1;
     if (d.layer < 0) d.layer = defaultLeast().layer;
     if (bottom) {
       const b = map[d.keep_frost_above.layer] ?? -1;
