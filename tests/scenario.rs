@@ -708,7 +708,8 @@ fn spin_ups_from_different_starts_reach_the_same_year() {
         capped
             .warnings
             .iter()
-            .any(|w| w.field == "winter.initial.max_years" && w.message.contains("3 years")),
+            .any(|w| w.field == "winter.initial.max_years"
+                && w.message.contains("after 3 warm-up years")),
         "{:?}",
         capped.warnings
     );

@@ -148,12 +148,20 @@ pub fn draw_frost_depth<DB: DrawingBackend>(
     let right_side = mx < 0.6 * days;
     chart
         .draw_series(std::iter::once(Text::new(
-            format!(
-                "deepest {:.2} {} on day {:.0}",
-                -my,
-                zq.unit(sys).symbol,
-                mx
-            ),
+            if w.frost_at_bottom {
+                format!(
+                    "at least {:.2} {} (the bottom of the modelled ground)",
+                    -my,
+                    zq.unit(sys).symbol
+                )
+            } else {
+                format!(
+                    "deepest {:.2} {} on day {:.0}",
+                    -my,
+                    zq.unit(sys).symbol,
+                    mx
+                )
+            },
             (
                 mx + if right_side { 0.015 } else { -0.015 } * days,
                 my - 0.02 * y_max,
@@ -185,6 +193,8 @@ const SNOW: RGBColor = RGBColor(226, 238, 250);
 /// The two shades the layers of a winter run alternate between (the report carries no
 /// material family).
 const GROUND_FILLS: [RGBColor; 2] = [RGBColor(242, 236, 224), RGBColor(230, 222, 206)];
+/// The ground a run added below the layers given: paler than any layer's band.
+const ADDED_GROUND: RGBColor = RGBColor(248, 246, 241);
 
 const ENVELOPE: RGBColor = RGBColor(150, 170, 205);
 
@@ -229,14 +239,27 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
     let profile = w.profile_near(day);
     let today = day_near(w, profile.map_or(day, |p| p.day));
 
-    // Depth: the whole stack, and above it the deepest snow of the run.
-    let bottom_m = w
+    // Depth: the layers given and as much of the ground added below them as the frost
+    // needs (all of it when frost reached the bottom), and above it the deepest snow.
+    let given_m = w
         .layer_faces_m
         .iter()
-        .chain(w.envelope.iter().map(|e| &e[0]))
         .copied()
         .filter(|v| v.is_finite())
         .fold(0.0, f64::max);
+    let modelled_m = w
+        .envelope
+        .iter()
+        .map(|e| e[0])
+        .filter(|v| v.is_finite())
+        .fold(w.modelled_depth_m.max(given_m), f64::max);
+    let bottom_m = if modelled_m > given_m + 1e-9 && !w.frost_at_bottom {
+        let frost = w.max_frost_depth_m.max(0.0);
+        modelled_m.min((1.25 * given_m).max(1.25 * frost))
+    } else {
+        modelled_m
+    };
+    let shown = |depth_m: f64| depth_m <= bottom_m + 1e-9;
     let bottom = z(if bottom_m > 0.0 { bottom_m } else { 1.0 });
     let snow_max = z(w
         .daily
@@ -318,6 +341,51 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
         }
     }
 
+    // The ground added below the layers given: a paler band, named.
+    if modelled_m > given_m + 1e-9 && given_m > 0.0 {
+        let zt = z(given_m);
+        chart
+            .draw_series(std::iter::once(Rectangle::new(
+                [(x0, -zt), (x1, -bottom)],
+                ADDED_GROUND.filled(),
+            )))
+            .map_err(err)?;
+        chart
+            .draw_series(DashedLineSeries::new(
+                vec![(x0, -zt), (x1, -zt)],
+                px(5.0),
+                px(4.0),
+                RGBColor(120, 120, 120).stroke_width(px(1.0)),
+            ))
+            .map_err(err)?;
+        let name: String = w
+            .layer_names
+            .last()
+            .map_or("", |n| n.trim())
+            .chars()
+            .take(30)
+            .collect();
+        chart
+            .draw_series(std::iter::once(Text::new(
+                format!(
+                    "added below: {} continued to {:.*} {}",
+                    if name.is_empty() {
+                        "the last layer"
+                    } else {
+                        &name
+                    },
+                    decimals,
+                    z(modelled_m),
+                    zq.unit(sys).symbol
+                ),
+                (x1 - 0.015 * (x1 - x0), -zt - 0.012 * height),
+                font(12.0)
+                    .color(&RGBColor(90, 96, 104))
+                    .pos(Pos::new(HPos::Right, VPos::Top)),
+            )))
+            .map_err(err)?;
+    }
+
     chart
         .configure_mesh()
         .disable_mesh()
@@ -337,7 +405,7 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
     let lows: Vec<(f64, f64)> = w
         .envelope
         .iter()
-        .filter(|e| e.iter().all(|v| v.is_finite()))
+        .filter(|e| e.iter().all(|v| v.is_finite()) && shown(e[0]))
         .map(|e| (t(e[1]), -z(e[0])))
         .collect();
     if lows.len() >= 2 {
@@ -345,7 +413,7 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
         poly.extend(
             w.envelope
                 .iter()
-                .filter(|e| e.iter().all(|v| v.is_finite()))
+                .filter(|e| e.iter().all(|v| v.is_finite()) && shown(e[0]))
                 .rev()
                 .map(|e| (t(e[2]), -z(e[0]))),
         );
@@ -425,6 +493,7 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
             .envelope
             .iter()
             .zip(&p.temperature_c)
+            .filter(|(e, _)| shown(e[0]))
             .map(|(e, &tc)| (t(tc), -z(e[0])));
         for (i, run) in finite_runs(surface.into_iter().chain(cells))
             .into_iter()

@@ -161,8 +161,12 @@ pub fn bottom(kind: &str) -> Option<DeepDoc> {
     Some(match kind {
         "flux" => DeepDoc::Flux {
             upward_w_m2: GEOTHERMAL_FLUX_W_M2,
+            at_layers_bottom: false,
         },
-        "temperature" => DeepDoc::Temperature { temperature_c: 4.0 },
+        "temperature" => DeepDoc::Temperature {
+            temperature_c: 4.0,
+            at_layers_bottom: false,
+        },
         _ => return None,
     })
 }
@@ -191,7 +195,10 @@ pub fn winter() -> WinterDoc {
             freezing: 1.0,
             thawing: 1.0,
         }),
-        bottom: bottom("flux").unwrap_or(DeepDoc::Temperature { temperature_c: 4.0 }),
+        bottom: bottom("flux").unwrap_or(DeepDoc::Temperature {
+            temperature_c: 4.0,
+            at_layers_bottom: false,
+        }),
         initial: initial("spin-up").unwrap_or(InitialDoc::Periodic {}),
         grid: None,
         step_s: 3600.0,
@@ -394,7 +401,10 @@ pub fn edge() -> EdgeDoc {
             mean_annual_c: 2.0,
             snow: snow_season("design-winter"),
         },
-        bottom: bottom("flux").unwrap_or(DeepDoc::Temperature { temperature_c: 4.0 }),
+        bottom: bottom("flux").unwrap_or(DeepDoc::Temperature {
+            temperature_c: 4.0,
+            at_layers_bottom: false,
+        }),
         start: EdgeStartDoc {
             surface_c: 5.0,
             gradient_k_m: 0.03,

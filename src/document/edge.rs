@@ -335,6 +335,32 @@ struct Prepared {
     surface_resistance_m2k_w: Option<f64>,
 }
 
+/// The ground to add below the soil bands (cut to the section's depth) so that the section
+/// is [`crate::physics::transient::periodic::DEEP_GROUND_DAMPING_DEPTHS`] damping depths
+/// deep, m; 0 when it already is, or when a band does not resolve (its error is reported
+/// where the bands are checked).
+fn added_ground_m(soil: &[LayerDoc]) -> f64 {
+    let stack = Stack {
+        layers: soil
+            .iter()
+            .map(|l| Layer {
+                name: l.name.clone(),
+                thickness_m: l.thickness_m,
+                material: (&l.material).into(),
+            })
+            .collect(),
+        top: Boundary::Surface { temperature_c: 0.0 },
+        bottom: Boundary::Surface { temperature_c: 0.0 },
+    };
+    match stack.resolve() {
+        Ok(r) => {
+            let t: Vec<f64> = r.layers.iter().map(|l| l.thickness_m).collect();
+            crate::physics::transient::periodic::deep_ground_extension_m(&t, &r.materials)
+        }
+        Err(_) => 0.0,
+    }
+}
+
 impl EdgeDoc {
     /// The section as the 2D run takes it (materials resolved, boards derated) and its
     /// climate, every error at once with fields under `edge.`.
@@ -425,15 +451,26 @@ impl EdgeDoc {
             );
         }
         // The far-field column through the 1D winter machinery.
-        let soil = if depth_ok && errs.is_empty() {
+        let mut soil = if depth_ok && errs.is_empty() {
             self.soil_to_depth()
         } else {
             self.soil.clone()
         };
+        // Unless the bottom is held at the section's depth, the deepest band goes on down to
+        // where the year's wave has died (as a winter run's column does, see `DeepDoc`); the
+        // column then takes the section's bottom as its own.
+        let mut depth_m = self.depth_m;
+        if depth_ok && errs.is_empty() && !self.bottom.at_layers_bottom() {
+            let added = added_ground_m(&soil);
+            if let (Some(last), true) = (soil.last_mut(), added > 0.0) {
+                last.thickness_m += added;
+                depth_m += added;
+            }
+        }
         let winter = WinterDoc {
             climate: self.climate.clone(),
             surface: self.outside.clone(),
-            bottom: self.bottom.clone(),
+            bottom: self.bottom.held_at_layers_bottom(true),
             initial: InitialDoc::Uniform {
                 temperature_c: self.start.surface_c,
             },
@@ -583,7 +620,7 @@ impl EdgeDoc {
         let section = EdgeSection {
             inside_half_width_m: self.inside_half_width_m,
             outside_extent_m: self.outside_extent_m,
-            depth_m: self.depth_m,
+            depth_m,
             slab: Slab {
                 thickness_m: self.slab.thickness_m,
                 material: slab,
@@ -687,6 +724,15 @@ pub struct EdgeJob {
     deratings: Vec<(&'static str, f64)>,
     warnings: Vec<ErrorDoc>,
     surface_resistance_m2k_w: Option<f64>,
+    given: GivenBottom,
+}
+
+/// The section's depth as entered, and whether its deep condition is held there (else the
+/// deepest band was continued below it).
+#[derive(Debug, Clone, Copy)]
+struct GivenBottom {
+    depth_m: f64,
+    held: bool,
 }
 
 impl EdgeJob {
@@ -703,6 +749,10 @@ impl EdgeJob {
             deratings: p.deratings,
             warnings: p.warnings,
             surface_resistance_m2k_w: p.surface_resistance_m2k_w,
+            given: GivenBottom {
+                depth_m: doc.depth_m,
+                held: doc.bottom.at_layers_bottom(),
+            },
         })
     }
 
@@ -751,6 +801,7 @@ impl EdgeJob {
             self.deratings,
             self.warnings,
             self.surface_resistance_m2k_w,
+            self.given,
         )
     }
 }
@@ -819,9 +870,16 @@ pub struct EdgeReport {
     pub steps: u64,
     pub iterations: u64,
     pub energy_imbalance_relative: f64,
-    /// Width and depth of the section, m.
+    /// Width and depth of the section as run, m (the depth entered and any ground added
+    /// below it).
     pub width_m: f64,
     pub depth_m: f64,
+    /// The section's depth as entered, m; `depth_m` is deeper where the deepest soil band
+    /// was continued down to where the year's wave has died.
+    pub given_depth_m: f64,
+    /// Frost reached the bottom of the section (in the 2D far field or the 1D column): the
+    /// far-field frost depths are then lower bounds, and a warning says what to change.
+    pub frost_at_bottom: bool,
     pub daily: Vec<EdgeDay>,
     pub outlines: Vec<OutlineDoc>,
     /// Days with a kept temperature field.
@@ -942,11 +1000,29 @@ fn build_report(
     deratings: Vec<(&'static str, f64)>,
     mut warnings: Vec<ErrorDoc>,
     surface_resistance_m2k_w: Option<f64>,
+    given: GivenBottom,
 ) -> EdgeReport {
-    warnings.extend(column.warnings.iter().cloned().map(|mut w| {
-        w.field = edge_path(&w.field);
-        w
-    }));
+    // The column's own note on frost at its bottom speaks of a winter's layers; the section's
+    // note below replaces it.
+    warnings.extend(
+        column
+            .warnings
+            .iter()
+            .filter(|w| w.field != "winter.bottom")
+            .cloned()
+            .map(|mut w| {
+                w.field = edge_path(&w.field);
+                w
+            }),
+    );
+    let last_centre_m = match r.z_faces_m.as_slice() {
+        [.., a, b] => 0.5 * (a + b),
+        _ => s.depth_m,
+    };
+    let frost_at_bottom = column.frost_at_bottom || r.max_far_frost_depth_m >= last_centre_m;
+    if frost_at_bottom {
+        warnings.push(frost_at_section_bottom(s.depth_m, given));
+    }
     let column_frost = |day: f64| {
         column
             .daily
@@ -1009,6 +1085,8 @@ fn build_report(
             .abs(),
         width_m: xo + s.outside_extent_m,
         depth_m: s.depth_m,
+        given_depth_m: given.depth_m,
+        frost_at_bottom,
         daily,
         outlines: outlines(s),
         field_days: r.fields.iter().map(|f| f.time_s / DAY).collect(),
@@ -1020,6 +1098,28 @@ fn build_report(
         fields: r.fields,
         least: None,
     }
+}
+
+/// The warning when frost reached the section's bottom.
+fn frost_at_section_bottom(depth_m: f64, given: GivenBottom) -> ErrorDoc {
+    let text = if given.held {
+        format!(
+            "Frost reached the bottom of the section, {depth_m:.2} m down, where the deep \
+             condition is held: the far-field frost goes at least that deep and may go deeper. \
+             Let the run add ground below the section (do not hold the deep condition at its \
+             bottom), or make the section deeper; check the climate and the deep boundary."
+        )
+    } else {
+        format!(
+            "Frost reached the bottom of the modelled ground, {depth_m:.2} m down (the \
+             {:.2} m entered and the deepest soil band continued below it): the far-field \
+             frost goes at least that deep and may go deeper. Check the climate's mean \
+             temperature and the deep boundary; ground that stays frozen from year to year \
+             (permafrost) is outside this model of seasonal frost.",
+            given.depth_m
+        )
+    };
+    ErrorDoc::plain("edge.bottom", text)
 }
 
 /// The hand methods on the edge's far-field case beside the runs (models.md §4). The rows

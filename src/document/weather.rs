@@ -96,11 +96,54 @@ pub enum SurfaceDoc {
     NFactor { freezing: f64, thawing: f64 },
 }
 
+/// The deep boundary. Unless `at_layers_bottom` is set, it acts below the layers given: the
+/// run continues the deepest layer downwards until the column is
+/// [`DEEP_GROUND_DAMPING_DEPTHS`](crate::physics::transient::periodic::DEEP_GROUND_DAMPING_DEPTHS)
+/// damping depths deep (the year's wave has died there) and applies the condition at that
+/// depth, so frost is never stopped by a bottom that sits too high. `at_layers_bottom: true`
+/// holds it at the bottom of the layers given (a measured temperature at that depth, bedrock
+/// of known flux). Files without the key get the added ground.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize, JsonSchema)]
 #[serde(tag = "kind", rename_all = "kebab-case", deny_unknown_fields)]
 pub enum DeepDoc {
     /// Bottom face held at a temperature.
-    Temperature { temperature_c: f64 },
+    Temperature {
+        temperature_c: f64,
+        #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+        at_layers_bottom: bool,
+    },
     /// Heat entering from below (geothermal flux), W/m².
-    Flux { upward_w_m2: f64 },
+    Flux {
+        upward_w_m2: f64,
+        #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+        at_layers_bottom: bool,
+    },
+}
+
+impl DeepDoc {
+    /// Whether the condition is held at the bottom of the layers given (no ground added).
+    pub fn at_layers_bottom(&self) -> bool {
+        match *self {
+            DeepDoc::Temperature {
+                at_layers_bottom, ..
+            }
+            | DeepDoc::Flux {
+                at_layers_bottom, ..
+            } => at_layers_bottom,
+        }
+    }
+
+    /// The same condition, held at the bottom of the layers given (or not).
+    pub fn held_at_layers_bottom(&self, held: bool) -> DeepDoc {
+        let mut d = self.clone();
+        match &mut d {
+            DeepDoc::Temperature {
+                at_layers_bottom, ..
+            }
+            | DeepDoc::Flux {
+                at_layers_bottom, ..
+            } => *at_layers_bottom = held,
+        }
+        d
+    }
 }

@@ -38,6 +38,7 @@ use crate::physics::least::{FrostLimit, Search, Trial};
 use crate::physics::materials::Material;
 use crate::physics::stack::ResolvedStack;
 use crate::physics::transient::grid::GridSpec;
+use crate::physics::transient::periodic::deep_ground_extension_m;
 use crate::physics::transient::phase::UnfrozenWater;
 use crate::physics::transient::run::RunResult;
 use crate::physics::transient::setup::{Forcing, Initial, RunSpec, TopModel};
@@ -227,7 +228,7 @@ impl WinterDoc {
             }
         };
         let bottom = match self.bottom {
-            DeepDoc::Temperature { temperature_c } => {
+            DeepDoc::Temperature { temperature_c, .. } => {
                 check::within(
                     &mut errs,
                     "winter.bottom.temperature_c",
@@ -238,7 +239,7 @@ impl WinterDoc {
                 );
                 BottomCondition::Temperature { temperature_c }
             }
-            DeepDoc::Flux { upward_w_m2 } => {
+            DeepDoc::Flux { upward_w_m2, .. } => {
                 check::within(
                     &mut errs,
                     "winter.bottom.upward_w_m2",
@@ -343,7 +344,23 @@ impl WinterDoc {
             growth_ratio: g.growth_ratio,
             max_cell_m: g.max_cell_m,
         };
-        let thicknesses: Vec<f64> = stack.layers.iter().map(|l| l.thickness_m).collect();
+        let mut thicknesses: Vec<f64> = stack.layers.iter().map(|l| l.thickness_m).collect();
+        let mut materials = stack.materials.clone();
+        let mut curves = curves;
+        // The deepest layer goes on below the layers given, to where the year's wave has died,
+        // unless the bottom is held at the layers' bottom (see `DeepDoc`).
+        if !self.bottom.at_layers_bottom() {
+            let added = deep_ground_extension_m(&thicknesses, &materials);
+            if added > 0.0 {
+                if let Some(m) = materials.last().cloned() {
+                    let c = curves.get(materials.len() - 1).copied().flatten();
+                    curves.resize(materials.len(), None);
+                    thicknesses.push(added);
+                    materials.push(m);
+                    curves.push(c);
+                }
+            }
+        }
         let cells: usize = crate::physics::transient::grid::faces(&thicknesses, &grid)
             .iter()
             .map(|f| f.len() - 1)
@@ -364,7 +381,7 @@ impl WinterDoc {
         Ok((
             RunSpec {
                 thicknesses_m: thicknesses,
-                materials: stack.materials.clone(),
+                materials,
                 curves,
                 grid,
                 top,
@@ -413,6 +430,15 @@ pub struct WinterReport {
     /// Depths of the layer faces from the top face down, m (first 0, last the bottom).
     pub layer_faces_m: Vec<f64>,
     pub layer_names: Vec<String>,
+    /// Depth of the ground as run, m: the layers given (the last of `layer_faces_m`) and the
+    /// ground added below them (the deepest layer continued, see [`DeepDoc`]).
+    pub modelled_depth_m: f64,
+    /// Frost reached the bottom of the modelled ground: `max_frost_depth_m` is then a lower
+    /// bound ("at least"), and a warning says what to change.
+    pub frost_at_bottom: bool,
+    /// Some ground stayed frozen through a run of a year or more, summer included: the
+    /// deepest frost is not a seasonal frost depth (a warning says so).
+    pub frozen_all_year: bool,
     /// Depth of the top of the first layer that holds water that can freeze, m (0 when the
     /// top layer does; a slab or a board above it cannot hold frozen ground).
     pub freezable_top_m: f64,
@@ -582,6 +608,9 @@ pub struct WinterJob {
     freezable_top_m: f64,
     hand_layers: Vec<(f64, Material)>,
     climate_mean_c: f64,
+    /// The column's depth as run (the layers given and any ground added below them), m.
+    modelled_depth_m: f64,
+    bottom: DeepDoc,
 }
 
 fn run_error(e: crate::physics::transient::TransientError) -> InputErrors {
@@ -639,13 +668,15 @@ impl WinterJob {
             warnings,
             max_years,
             freezable_top_m,
-            hand_layers: stack
-                .layers
+            hand_layers: spec
+                .thicknesses_m
                 .iter()
-                .map(|l| l.thickness_m)
-                .zip(stack.materials.iter().cloned())
+                .copied()
+                .zip(spec.materials.iter().cloned())
                 .collect(),
             climate_mean_c,
+            modelled_depth_m: spec.thicknesses_m.iter().sum(),
+            bottom: w.bottom.clone(),
         })
     }
 
@@ -665,28 +696,137 @@ impl WinterJob {
     pub fn finish(self) -> WinterReport {
         let r = self.run.finish();
         let mut warnings = self.warnings;
-        if let Some(change) = r.spin_up_change_k {
-            if change >= run::SPIN_UP_TOLERANCE_K {
-                warnings.push(ErrorDoc::plain(
-                    "winter.initial.max_years",
-                    format!(
-                        "The start did not settle within {} years: the ground still changed by \
-                         {change:.2} K over the last year repeated (it stops below {} K). Deep \
-                         temperatures and the first weeks still carry the start state; allow more \
-                         years or start nearer the ground's mean temperature.",
-                        self.max_years,
-                        run::SPIN_UP_TOLERANCE_K
-                    ),
-                ));
+        if let (Some(change), Some(trend)) = (r.spin_up_change_k, r.spin_up_trend_k) {
+            if change >= UNSETTLED_WARNING_K.max(run::SPIN_UP_TOLERANCE_K) {
+                warnings.push(unsettled_start(self.max_years, change, trend));
             }
+        }
+        // Frost reached the deepest cell's centre: the column froze to its bottom.
+        let frost_at_bottom = r.depths_m.last().is_some_and(|&z| r.max_frost_depth_m >= z);
+        let given_depth_m = self.faces_m.last().copied().unwrap_or(0.0);
+        if frost_at_bottom {
+            warnings.push(frost_at_bottom_warning(
+                &self.bottom,
+                given_depth_m,
+                self.modelled_depth_m,
+                self.layer_names.last().map_or("", |n| n.as_str()),
+            ));
+        }
+        // Frozen ground at every moment of a run that holds a whole year: the summer did not
+        // thaw it, so its depth is not a seasonal frost depth.
+        let whole_year = r
+            .samples
+            .last()
+            .is_some_and(|s| s.time_s >= 365.0 * 86_400.0);
+        let frozen_all_year = whole_year && r.samples.iter().all(|s| s.frost_depth_m > 0.0);
+        if frozen_all_year {
+            warnings.push(frozen_all_year_warning(
+                r.samples
+                    .iter()
+                    .map(|s| s.frost_depth_m)
+                    .fold(f64::INFINITY, f64::min),
+                self.climate_mean_c,
+            ));
         }
         let hand = hand_methods(&r, &self.hand_layers, self.climate_mean_c);
         let mut report = report_of(r, self.faces_m, self.layer_names);
         report.hand_methods = hand;
         report.warnings = warnings;
         report.freezable_top_m = self.freezable_top_m;
+        report.modelled_depth_m = self.modelled_depth_m;
+        report.frost_at_bottom = frost_at_bottom;
+        report.frozen_all_year = frozen_all_year;
         report
     }
+}
+
+/// A spin-up that stopped at its year limit is reported when the ground still changed by
+/// at least this much over its last year, K. Below it the run has not met its own
+/// tolerance ([`run::SPIN_UP_TOLERANCE_K`]) but the deepest frost moves by far less than the
+/// centimetre it is shown to. A setting of this tool, no source.
+pub const UNSETTLED_WARNING_K: f64 = 0.05;
+
+/// The warning for a spin-up that stopped at its year limit, in a builder's words: which
+/// way the start still leaned, and what that does to the deepest frost.
+fn unsettled_start(max_years: u32, change_k: f64, trend_k: f64) -> ErrorDoc {
+    let (still, start, frost) = if trend_k < 0.0 {
+        ("cooling", "warmer", "shallower than it would be")
+    } else {
+        ("warming", "colder", "deeper than it would be")
+    };
+    ErrorDoc::plain(
+        "winter.initial.max_years",
+        format!(
+            "The ground had not settled into a repeating year when this winter began: after \
+             {max_years} warm-up years it still changed by up to {change_k:.2} K from one year \
+             to the next, and it was still {still}. The start is therefore {start} than this \
+             climate would leave the ground, and the deepest frost shown is likely {frost} \
+             once the ground has settled. Allow more warm-up years, or begin from the periodic \
+             start or from a temperature nearer the ground's yearly mean."
+        ),
+    )
+}
+
+/// The warning when frost reached the bottom of the modelled ground: the deepest frost is only
+/// a lower bound; what to change.
+fn frost_at_bottom_warning(
+    bottom: &DeepDoc,
+    given_depth_m: f64,
+    modelled_depth_m: f64,
+    last_layer: &str,
+) -> ErrorDoc {
+    let mut text = if modelled_depth_m > given_depth_m + 1e-9 {
+        format!(
+            "Frost reached the bottom of the modelled ground, {modelled_depth_m:.2} m down (the \
+             {given_depth_m:.2} m of layers given, and {:.2} m more of \"{last_layer}\" added \
+             below them): the frost goes at least that deep and may go deeper.",
+            modelled_depth_m - given_depth_m
+        )
+    } else {
+        format!(
+            "Frost reached the bottom of the layers given, {given_depth_m:.2} m down, where the \
+             deep condition is held: the frost goes at least that deep and may go deeper. Let \
+             the run add ground below the layers (do not hold the deep condition at the \
+             layers' bottom), or add deeper layers."
+        )
+    };
+    if let DeepDoc::Temperature { temperature_c, .. } = *bottom {
+        if temperature_c <= 0.0 {
+            text.push_str(&format!(
+                " The deep ground is held at {temperature_c:.1} °C, at or below freezing, so it \
+                 is frozen by the condition itself: set the deep temperature to the ground's \
+                 measured one."
+            ));
+        }
+    }
+    text.push_str(
+        " Check the climate and the deep boundary; where they are right, treat the frost depth \
+         as unknown beyond this depth.",
+    );
+    ErrorDoc::plain("winter.bottom", text)
+}
+
+/// The warning when some ground stayed frozen through a whole run, summer included.
+fn frozen_all_year_warning(least_frozen_depth_m: f64, climate_mean_c: f64) -> ErrorDoc {
+    let mut text = format!(
+        "Ground stayed frozen through the whole run, summer included (at every moment frozen \
+         ground reached {least_frozen_depth_m:.2} m down or deeper): the deepest frost is then not a seasonal frost \
+         depth but ground that does not thaw."
+    );
+    if climate_mean_c < 0.0 {
+        text.push_str(&format!(
+            " The climate's mean temperature is {climate_mean_c:.1} °C, below freezing: ground \
+             that stays frozen from year to year (permafrost) is outside this model of seasonal \
+             frost. Check the climate, and seek site-specific advice for building on \
+             permafrost."
+        ));
+    } else {
+        text.push_str(
+            " Check the climate's mean temperature, the deep boundary and the start (a start \
+             colder than the climate leaves frozen ground that one summer cannot thaw).",
+        );
+    }
+    ErrorDoc::plain("winter.climate", text)
 }
 
 /// Run the winter and build its report.
@@ -750,6 +890,9 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         layer_faces_m: faces_m,
         layer_names,
         warnings: Vec::new(),
+        modelled_depth_m: 0.0,
+        frost_at_bottom: false,
+        frozen_all_year: false,
         freezable_top_m: 0.0,
         least_thickness: None,
         hand_methods: Vec::new(),

@@ -241,7 +241,8 @@ function renderEdgeReport() {
     ? 'Frost gets under the footing (deepest on ' + edgeDayWords(rep.max_frost_below_base_day) + '). Frost-susceptible soil there would heave.'
     : none ? 'The ground under the footing does not freeze at any depth this winter (base ' + fmtU('depth', rep.base_depth_m) + ' below grade).'
       : 'Frost stays above the footing base all winter (closest on ' + edgeDayWords(rep.max_frost_below_base_day) + ').';
-  $('e-far').textContent = fmtU('depth', rep.far_frost_depth_m);
+  // Frost that reached the section's bottom is a lower bound, never a depth.
+  $('e-far').textContent = (rep.frost_at_bottom ? 'at least ' : '') + fmtU('depth', rep.far_frost_depth_m);
   $('e-far-sub').textContent = rep.column_frost_depth_m != null
     ? 'A single column of the same soil gives ' + fmtU('depth', rep.column_frost_depth_m) + '.'
     : '';

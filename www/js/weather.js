@@ -149,6 +149,24 @@ export function bottomEditor(bo, sect, prefix, keep, rerender) {
   }));
   if (b.kind === 'flux') bg.append(numField(b, 'upward_w_m2', P + 'upward_w_m2', 'Heat flux from below', 'heat_flux'));
   else bg.append(numField(b, 'temperature_c', P + 'temperature_c', 'Bottom temperature', 'temperature'));
+  // Where the condition acts: by default below ground the run adds under the deepest layer,
+  // deep enough for the year's wave to die; held on purpose at the layers' own bottom.
+  const holdId = prefix.replace(/\W/g, '-') + 'bottom-held';
+  const where = prefix.startsWith('edge') ? 'the section' : 'the layers';
+  const hold = el('input', {
+    type: 'checkbox', id: holdId, 'data-field': P + 'at_layers_bottom', checked: !!b.at_layers_bottom,
+    title: 'Apply it at the bottom of ' + where + ' as given, with no ground added below (for a temperature measured at that depth, or rock of known heat flow)',
+  });
+  hold.addEventListener('change', () => {
+    if (hold.checked) b.at_layers_bottom = true; else delete b.at_layers_bottom;
+    rerender(P + 'at_layers_bottom')();
+  });
+  const holdLabel = el('label', { class: 'check wide', for: holdId }, hold,
+    el('span', { text: ' Hold it at the bottom of ' + where + ' (add no ground below)' }));
+  bg.append(holdLabel);
+  bg.append(el('p', { class: 'hint wide', text: hold.checked
+    ? 'Held at the bottom of ' + where + ' as given: frost that reaches it is reported as "at least".'
+    : 'Acts below ground the run adds under the deepest layer, deep enough for the year\'s temperature wave to die out (about three damping depths).' }));
   bo.append(bg);
 }
 

@@ -341,10 +341,19 @@ function renderWinterReport() {
   const rep = winterRun.report;
   if (!rep) return;
   const mf = rep.max_frost_depth_m;
-  $('w-max-frost').textContent = mf > 0 ? fmtU('depth', mf) : 'None';
-  if (mf > 0) {
+  // Frost that reached the bottom of the modelled ground is a lower bound, never a depth.
+  $('w-max-frost').textContent = mf > 0 ? (rep.frost_at_bottom ? 'at least ' : '') + fmtU('depth', mf) : 'None';
+  $('w-max-frost').dataset.bound = rep.frost_at_bottom ? 'at-least' : '';
+  if (rep.frost_at_bottom) {
+    $('w-max-frost-when').textContent = 'The bottom of the modelled ground: frost may go deeper (see the warning below).';
+  } else if (mf > 0) {
+    const given = rep.layer_faces_m[rep.layer_faces_m.length - 1];
     const i = layerAt(mf, rep);
-    $('w-max-frost-when').textContent = 'On ' + winterDay(rep.max_frost_day) + ', in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ').';
+    const where = mf > given + 1e-9
+      ? 'in the ground added below the layers (' + rep.layer_names[i] + ' continued)'
+      : 'in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ')';
+    $('w-max-frost-when').textContent = 'On ' + winterDay(rep.max_frost_day) + ', ' + where + '.' +
+      (rep.frozen_all_year ? ' Not a seasonal frost depth: some ground stayed frozen all year (see the warning below).' : '');
   } else {
     $('w-max-frost-when').textContent = 'The ground does not freeze in this run.';
   }

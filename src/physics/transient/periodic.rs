@@ -46,6 +46,7 @@
 use super::setup::{RunSpec, TopModel};
 use super::BottomCondition;
 use crate::physics::climate::{AnnualWave, DAYS_PER_YEAR, SECONDS_PER_DAY};
+use crate::physics::materials::Material;
 
 /// One layer as the periodic profile sees it.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -103,16 +104,64 @@ pub fn n_factor_wave(mean_c: f64, amplitude_k: f64, freezing: f64, thawing: f64)
     (mean, -cos_coef)
 }
 
+/// The annual wave's angular frequency, rad/s.
+fn annual_omega() -> f64 {
+    2.0 * std::f64::consts::PI / (DAYS_PER_YEAR * SECONDS_PER_DAY)
+}
+
+/// A layer's conductivity and heat capacity as the annual wave sees them: the means of the
+/// frozen and unfrozen values (k at −1 and +1 °C), as in the module doc.
+fn wave_properties(m: &Material) -> (f64, f64) {
+    let k = 0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0));
+    let c = 0.5 * (m.c_frozen_j_m3k + m.c_unfrozen_j_m3k);
+    (k, c)
+}
+
+/// The damping depth of the annual wave in a material, d = √(2a/ω), a = k/C with the
+/// frozen–unfrozen means (Carslaw & Jaeger 1959 §2.6): the wave's amplitude falls by e over
+/// each d. About 2–3 m in moist soils (a ≈ 0.5–1 × 10⁻⁶ m²/s).
+pub fn damping_depth_m(m: &Material) -> f64 {
+    let (k, c) = wave_properties(m);
+    (2.0 * k / c / annual_omega()).sqrt()
+}
+
+/// How many damping depths of ground a run models below the surface, unless its bottom is
+/// held at the layers given: the annual wave is e⁻³ ≈ 5 % of its surface amplitude there
+/// (about 1 K under a 20 K wave), so a deep condition applied there barely bends the year's
+/// temperatures above it. A setting of this tool, no source; the periodic start (above)
+/// takes the column as going on below its bottom, which is close at this depth.
+pub const DEEP_GROUND_DAMPING_DEPTHS: f64 = 3.0;
+
+/// How much to continue the deepest layer downwards, m, so that the column is
+/// [`DEEP_GROUND_DAMPING_DEPTHS`] damping depths deep: Z = Σ thickness / d over the layers
+/// (the wave's decay exponent, as in the module doc) reaches that number at the new bottom.
+/// 0 when the layers given already reach it (or there are none).
+pub fn deep_ground_extension_m(thicknesses_m: &[f64], materials: &[Material]) -> f64 {
+    let Some(last) = materials.last() else {
+        return 0.0;
+    };
+    let z: f64 = materials
+        .iter()
+        .zip(thicknesses_m)
+        .map(|(m, &t)| t / damping_depth_m(m))
+        .sum();
+    let short = DEEP_GROUND_DAMPING_DEPTHS - z;
+    if short > 0.0 && short.is_finite() {
+        short * damping_depth_m(last)
+    } else {
+        0.0
+    }
+}
+
 impl PeriodicProfile {
     /// The periodic profile of the run's column under the air wave `wave`.
     pub fn new(spec: &RunSpec, wave: &AnnualWave) -> PeriodicProfile {
-        let omega = 2.0 * std::f64::consts::PI / (DAYS_PER_YEAR * SECONDS_PER_DAY);
+        let omega = annual_omega();
         let mut layers = Vec::with_capacity(spec.materials.len());
         let (mut top, mut z_acc, mut r_acc) = (0.0, 0.0, 0.0);
         for (m, &thick) in spec.materials.iter().zip(&spec.thicknesses_m) {
-            let k = 0.5 * (m.conductivity.frozen.k(-1.0) + m.conductivity.unfrozen.k(1.0));
-            let c = 0.5 * (m.c_frozen_j_m3k + m.c_unfrozen_j_m3k);
-            let d = (2.0 * k / c / omega).sqrt();
+            let (k, _) = wave_properties(m);
+            let d = damping_depth_m(m);
             layers.push(WaveLayer {
                 top_m: top,
                 bottom_m: top + thick,

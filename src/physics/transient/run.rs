@@ -42,15 +42,20 @@ fn ground_enthalpies(s: &Solver) -> Vec<f64> {
 /// The largest change of a ground cell's enthalpy since `before` (from
 /// [`ground_enthalpies`]), in kelvin of the cell's thawed heat capacity (the enthalpy step
 /// from 10 to 11 °C, where every material is thawed).
-fn year_change_k(s: &Solver, before: &[f64]) -> f64 {
-    s.ground()
-        .zip(before)
-        .map(|(i, h0)| {
-            let p = &s.cells[i].phase;
-            let c = p.enthalpy(11.0) - p.enthalpy(10.0);
-            (s.enthalpy[i] - h0).abs() / c
-        })
-        .fold(0.0, f64::max)
+/// The ground's change over a spun-up year, in kelvin of each cell's thawed heat capacity:
+/// the largest change of one cell (magnitude) and the mean signed change over the cells
+/// (above 0: the ground is still warming, below: still cooling).
+fn year_change_k(s: &Solver, before: &[f64]) -> (f64, f64) {
+    let (mut largest, mut sum, mut n) = (0.0f64, 0.0, 0usize);
+    for (i, h0) in s.ground().zip(before) {
+        let p = &s.cells[i].phase;
+        let c = p.enthalpy(11.0) - p.enthalpy(10.0);
+        let change = (s.enthalpy[i] - h0) / c;
+        largest = largest.max(change.abs());
+        sum += change;
+        n += 1;
+    }
+    (largest, sum / n.max(1) as f64)
 }
 
 /// One record of the time series.
@@ -107,6 +112,10 @@ pub struct RunResult {
     /// thawed heat capacity (see [`SPIN_UP_TOLERANCE_K`]); above the tolerance when the
     /// spin-up stopped at its year limit before settling.
     pub spin_up_change_k: Option<f64>,
+    /// With a spin-up: the ground's mean change over its last year, K (above 0 still
+    /// warming, below 0 still cooling), so a report can say which way an unsettled start
+    /// leans.
+    pub spin_up_trend_k: Option<f64>,
 }
 
 /// Range of a cumulative freezing degree-day curve: the largest rise of Σ(0 − T)Δt/86400
@@ -184,6 +193,7 @@ pub struct Run {
     spin_up_years: u32,
     spinning: Option<Vec<f64>>,
     spin_up_change: Option<f64>,
+    spin_up_trend: Option<f64>,
     /// Steps of the main run done, out of `n_steps`, each `dt` long.
     done: usize,
     n_steps: usize,
@@ -290,6 +300,7 @@ impl Run {
             spin_up_years: 0,
             spinning,
             spin_up_change: None,
+            spin_up_trend: None,
             done: 0,
             n_steps,
             dt,
@@ -381,8 +392,9 @@ impl Run {
         self.spin_step = 0;
         self.solver.time_s = 0.0;
         let before = self.spinning.take().unwrap_or_default();
-        let change = year_change_k(&self.solver, &before);
+        let (change, trend) = year_change_k(&self.solver, &before);
         self.spin_up_change = Some(change);
+        self.spin_up_trend = Some(trend);
         if change >= SPIN_UP_TOLERANCE_K && self.spin_up_years < max_years {
             self.spinning = Some(ground_enthalpies(&self.solver));
         } else {
@@ -489,6 +501,7 @@ impl Run {
             surface_freezing_index_c_days: self.surf_dd.range,
             spin_up_years: self.spin_up_years,
             spin_up_change_k: self.spin_up_change,
+            spin_up_trend_k: self.spin_up_trend,
         }
     }
 }
