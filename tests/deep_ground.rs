@@ -8,6 +8,7 @@ use common::assert_abs;
 use hibernal::document::edge::run_edge_scenario;
 use hibernal::document::winter::WinterReport;
 use hibernal::document::{compute, examples, scenario};
+use hibernal::physics::units::UnitSystem;
 use serde_json::{json, Value};
 
 fn example(id: &str) -> Value {
@@ -82,9 +83,19 @@ fn a_shallow_column_is_continued_until_the_years_wave_has_died() {
         held_bottom > 2.0 * bottom,
         "held at 3 m the bottom still swings: {held_bottom} vs {bottom}"
     );
-    // The chart and the report keep the layers the user gave.
+    // The chart and the report keep the layers the user gave; the chart names the ground
+    // added below them (and the held run's chart has no such band).
     assert_eq!(added.layer_names.len(), 4);
     assert_eq!(added.layer_faces_m.len(), 5);
+    let svg = |r: &WinterReport| {
+        hibernal::charts::winter::winter_profile_svg(r, r.max_frost_day, UnitSystem::Si, 700, 500)
+            .unwrap()
+    };
+    assert!(
+        svg(&added).contains("Moist silt continued to"),
+        "the added ground is marked"
+    );
+    assert!(!svg(&held).contains("continued to"));
     // This winter's frost stops well above either bottom: a depth, not a bound.
     for r in [&added, &held] {
         assert!(!r.frost_at_bottom && !r.frozen_all_year, "{:?}", r.warnings);

@@ -363,17 +363,13 @@ pub fn draw_winter_profile<DB: DrawingBackend>(
             .last()
             .map_or("", |n| n.trim())
             .chars()
-            .take(30)
+            .take(24)
             .collect();
         chart
             .draw_series(std::iter::once(Text::new(
                 format!(
-                    "added below: {} continued to {:.*} {}",
-                    if name.is_empty() {
-                        "the last layer"
-                    } else {
-                        &name
-                    },
+                    "{} continued to {:.*} {} (added)",
+                    if name.is_empty() { "last layer" } else { &name },
                     decimals,
                     z(modelled_m),
                     zq.unit(sys).symbol

@@ -749,6 +749,7 @@ pub const UNSETTLED_WARNING_K: f64 = 0.05;
 /// The warning for a spin-up that stopped at its year limit, in a builder's words: which
 /// way the start still leaned, and what that does to the deepest frost.
 fn unsettled_start(max_years: u32, change_k: f64, trend_k: f64) -> ErrorDoc {
+    let years = if max_years == 1 { "year" } else { "years" };
     let (still, start, frost) = if trend_k < 0.0 {
         ("cooling", "warmer", "shallower than it would be")
     } else {
@@ -758,7 +759,7 @@ fn unsettled_start(max_years: u32, change_k: f64, trend_k: f64) -> ErrorDoc {
         "winter.initial.max_years",
         format!(
             "The ground had not settled into a repeating year when this winter began: after \
-             {max_years} warm-up years it still changed by up to {change_k:.2} K from one year \
+             {max_years} warm-up {years} it still changed by up to {change_k:.2} K from one year \
              to the next, and it was still {still}. The start is therefore {start} than this \
              climate would leave the ground, and the deepest frost shown is likely {frost} \
              once the ground has settled. Allow more warm-up years, or begin from the periodic \
