@@ -154,9 +154,11 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a pasted link that ca
   const cases = [
     ['file:///elsewhere/hibernal.html', /no part that starts “#s=”/],
     ['just some words', /no part that starts “#s=”/],
-    ['file:///elsewhere/hibernal.html#s=%%%', /does not carry a case.*characters/],
-    ['file:///elsewhere/hibernal.html' + good.slice(0, good.length / 2), /does not carry a case.*cut short/],
-    ['#s=' + deflateRawSync(Buffer.from('{"hello": "world"}')).toString('base64url'), /not a scenario/],
+    ['file:///elsewhere/hibernal.html#s=%%%', /does not carry a case.*characters a link to a case never has/],
+    ['file:///elsewhere/hibernal.html' + good.slice(0, good.length / 2), /does not carry a case.*damaged or cut short/],
+    ['#s=' + deflateRawSync(Buffer.from('{"hello": "world"}')).toString('base64url'), /what it carries is not a scenario/],
+    ['#s=' + deflateRawSync(Buffer.from('not json at all')).toString('base64url'), /not a scenario's text/],
+    ['#s=', /nothing follows “#s=”/],
     ['', /Paste a link first/],
   ];
   for (const [text, why] of cases) {

@@ -164,11 +164,17 @@ export async function makeShareLink() {
 // The scenario the text after "#s=" carries; throws with the reason when it carries none.
 async function unpack(text) {
   if (!text) throw new Error('nothing follows “#s=”');
-  const packed = unb64url(text);
+  let packed;
+  try { packed = unb64url(text); } catch (e) {
+    throw /^it holds/.test(e.message) ? e : new Error('its packed part is damaged or cut short');
+  }
   if (packed.length > MAX_LINK_BYTES) throw new Error('it is too long');
-  const json = await through(new DecompressionStream('deflate-raw'), packed);
+  // The browser's own reasons here name its internals ("Failed to fetch"): put in words.
+  let json;
+  try { json = await through(new DecompressionStream('deflate-raw'), packed); } catch (e) { throw new Error('its packed part is damaged or cut short'); }
   if (json.length > 20 * MAX_LINK_BYTES) throw new Error('it unpacks too large');
-  const s = JSON.parse(new TextDecoder().decode(json));
+  let s;
+  try { s = JSON.parse(new TextDecoder().decode(json)); } catch (e) { throw new Error('what it unpacks to is not a scenario\'s text'); }
   if (!looksLikeScenario(s)) throw new Error('what it carries is not a scenario');
   return s;
 }
@@ -287,7 +293,7 @@ async function openPastedLink() {
   }
   let linked;
   try { linked = await unpack(frag.slice(2)); } catch (e) {
-    say('error', 'That link does not carry a case this page can read (' + String(e && e.message || e) + '; perhaps it was cut short). The open work is unchanged.');
+    say('error', 'That link does not carry a case this page can read (' + String(e && e.message || e) + '). The open work is unchanged.');
     return;
   }
   const open = openRecord();
