@@ -25,6 +25,8 @@ async function colleagueCase(page, title) {
 }
 
 const stored = (page, key) => page.evaluate((k) => localStorage.getItem(k), key);
+// The titles of the cases set aside, newest first.
+const asideTitles = async (page) => (JSON.parse(await stored(page, ASIDE) || '{"cases": []}').cases).map((r) => r.scenario.title);
 
 // Opens this same page afresh at `url` (only the fragment differs: reload to start again).
 async function openAt(page, url) {
@@ -67,7 +69,7 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a link asks before it
   assert.ok(await ask.isHidden());
   assert.equal(await page.inputValue('#f-title'), 'My own shed floor');
   assert.equal(await stored(page, AUTOSAVE), before, 'the autosave is intact');
-  assert.equal(await stored(page, ASIDE), null, 'nothing set aside');
+  assert.deepEqual(await asideTitles(page), [], 'nothing set aside');
   assert.ok(!(await page.evaluate(() => location.href)).includes('#'), 'the fragment left the address');
   assert.equal(await page.inputValue('#link-paste'), link, 'the link waits in the box');
   assert.match(await page.locator('#restore-text').textContent(), /was not opened.*Open a link/);
@@ -80,17 +82,27 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a link asks before it
   assert.ok(await ask.isHidden());
   assert.equal(await page.inputValue('#f-title'), 'Porch from a colleague', 'the link\'s case is open');
   assert.equal(JSON.parse(await stored(page, AUTOSAVE)).scenario.title, 'Porch from a colleague', 'and saved');
-  const aside = JSON.parse(await stored(page, ASIDE));
-  assert.equal(aside.scenario.title, 'My own shed floor', 'the work before it is set aside');
-  assert.equal(aside.scenario.layers[0].thickness_m, 0.23, 'with its edit (23 cm)');
+  const aside = JSON.parse(await stored(page, ASIDE)).cases;
+  assert.equal(aside.length, 1);
+  assert.equal(aside[0].scenario.title, 'My own shed floor', 'the work before it is set aside');
+  assert.equal(aside[0].scenario.layers[0].thickness_m, 0.23, 'with its edit (23 cm)');
   assert.match(await page.locator('#restore-text').textContent(), /set aside/);
-  const back = page.locator('#aside-back');
-  assert.ok(await back.isVisible());
-  assert.match(await back.textContent(), /Bring back “My own shed floor”/);
-  await andRecompute(page, () => back.click());
+  // Undo goes back to it in this visit, redo forward again.
+  await andRecompute(page, () => page.click('#undo'));
+  assert.equal(await page.inputValue('#f-title'), 'My own shed floor', 'undone');
+  await andRecompute(page, () => page.click('#redo'));
+  assert.equal(await page.inputValue('#f-title'), 'Porch from a colleague', 'redone');
+  // After a reload, the list of work set aside brings it back.
+  await page.reload();
+  await page.waitForSelector('html[data-ready="true"]', { state: 'attached' });
+  assert.equal(await page.inputValue('#f-title'), 'Porch from a colleague', 'the link\'s case is what a reload opens');
+  assert.ok(await page.locator('#aside-row').isVisible());
+  assert.match(await page.locator('#aside-pick option:checked').textContent(), /“My own shed floor”, set aside \d{4}-\d\d-\d\d \d\d:\d\d UTC/);
+  await andRecompute(page, () => page.click('#aside-back'));
   assert.equal(await page.inputValue('#f-title'), 'My own shed floor', 'brought back');
   assert.equal(await page.inputValue('[data-field="layers[0].thickness_m"]'), '23');
-  assert.equal(JSON.parse(await stored(page, ASIDE)).scenario.title, 'Porch from a colleague', 'the link\'s case is set aside in its turn');
+  assert.deepEqual(await asideTitles(page), ['Porch from a colleague'], 'the link\'s case is set aside in its turn');
+  assert.match(await page.locator('#file-msg').textContent(), /Brought back “My own shed floor”.*“Porch from a colleague”, is set aside/);
 }, screen));
 
 for (const screen of SCREENS) test(`at ${screen.width} px, after a link's case opens, edits survive a reload; a link to the saved case opens without asking`, () => withPage(async (page) => {
@@ -130,7 +142,7 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a link pasted into th
   await andRecompute(page, () => page.click('#link-paste-open'));
   assert.equal(await page.inputValue('#f-title'), 'Porch from a colleague', 'the case opens');
   assert.match(await page.locator('#link-paste-msg').textContent(), /Opened “Porch from a colleague”.*set aside/);
-  assert.equal(JSON.parse(await stored(page, ASIDE)).scenario.title, 'My own shed floor', 'the work open before is set aside');
+  assert.deepEqual(await asideTitles(page), ['My own shed floor'], 'the work open before is set aside');
   assert.equal(await page.inputValue('#link-paste'), '', 'the box is emptied');
   // Undo brings the work before it back too.
   await andRecompute(page, () => page.click('#undo'));
@@ -144,6 +156,20 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a link pasted into th
   await page.fill('#link-paste', third.slice(0, 40) + '\n' + third.slice(40));
   await andRecompute(page, () => page.click('#link-paste-open'));
   assert.equal(await page.inputValue('#f-title'), 'Third porch');
+  // Each case it replaced is set aside, newest first, once (the own work, set aside again
+  // after the undo, is not listed twice); any of them comes back.
+  assert.deepEqual(await asideTitles(page), ['Second porch', 'My own shed floor']);
+  assert.equal(await page.locator('#aside-pick option').count(), 2);
+  await page.selectOption('#aside-pick', { index: 1 });
+  await andRecompute(page, () => page.click('#aside-back'));
+  assert.equal(await page.inputValue('#f-title'), 'My own shed floor');
+  assert.deepEqual(await asideTitles(page), ['Third porch', 'Second porch']);
+  // The list keeps the last five.
+  for (let i = 1; i <= 5; i++) {
+    await page.fill('#link-paste', fragmentFor(await colleagueCase(page, 'Porch ' + i)));
+    await andRecompute(page, () => page.click('#link-paste-open'));
+  }
+  assert.deepEqual(await asideTitles(page), ['Porch 4', 'Porch 3', 'Porch 2', 'Porch 1', 'My own shed floor']);
 }, screen));
 
 for (const screen of SCREENS) test(`at ${screen.width} px, a pasted link that carries nothing readable says why beside the box and keeps the open work`, () => withPage(async (page) => {
@@ -168,7 +194,7 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a pasted link that ca
     assert.match(await msg.textContent(), why, text);
     assert.match(await msg.textContent(), /Paste a link first|The open work is unchanged/);
     assert.equal(await page.inputValue('#f-title'), 'My own shed floor', 'the open work is kept: ' + text);
-    assert.equal(await stored(page, ASIDE), null, 'nothing set aside');
+    assert.deepEqual(await asideTitles(page), [], 'nothing set aside');
   }
   assert.equal(await stored(page, AUTOSAVE), saved, 'the saved work is untouched');
   // The message sits beside the box.
@@ -177,13 +203,34 @@ for (const screen of SCREENS) test(`at ${screen.width} px, a pasted link that ca
   assert.ok(m.y >= box.y && m.y - (box.y + box.height) < 60, `message below the box: ${JSON.stringify([box, m])}`);
 }, screen));
 
+for (const screen of SCREENS) test(`at ${screen.width} px, a link put into the address of the page already open asks the same way, and Escape keeps the work`, () => withPage(async (page) => {
+  await makeOwnWork(page, 'My own shed floor');
+  const before = await stored(page, AUTOSAVE);
+  const fragment = fragmentFor(await colleagueCase(page, 'Porch from a colleague'));
+  await page.evaluate((f) => { location.hash = f; }, fragment);
+  const ask = page.locator('#link-ask');
+  await ask.waitFor({ state: 'visible' });
+  await page.keyboard.press('Escape');
+  await ask.waitFor({ state: 'hidden' });
+  assert.equal(await page.inputValue('#f-title'), 'My own shed floor', 'Escape keeps the work');
+  assert.equal(await stored(page, AUTOSAVE), before);
+  assert.equal(await page.evaluate(() => location.hash), '');
+  assert.match(await page.inputValue('#link-paste'), /#s=/, 'the link waits in the box');
+  await page.evaluate((f) => { location.hash = f; }, fragment);
+  await ask.waitFor({ state: 'visible' });
+  await andRecompute(page, () => page.click('#link-ask-open'));
+  assert.equal(await page.inputValue('#f-title'), 'Porch from a colleague');
+  assert.deepEqual(await asideTitles(page), ['My own shed floor']);
+  assert.equal(await page.evaluate(() => location.hash), '');
+}, screen));
+
 test('at 390 px, the link controls fit the screen without sideways scrolling', () => withPage(async (page) => {
   await makeOwnWork(page, 'A title long enough to test how the button that brings it back wraps on a phone');
   await page.fill('#link-paste', 'file:///somewhere/else/hibernal.html' + fragmentFor(await colleagueCase(page, 'Porch from a colleague')));
   await andRecompute(page, () => page.click('#link-paste-open'));
   await page.click('#share-make');
   await page.waitForFunction(() => /#s=/.test(document.querySelector('#share-link').value));
-  const boxes = await page.evaluate(() => ['.link-open', '#link-paste', '#link-paste-open', '#link-paste-msg', '#aside-back', '#share-box', '.file-actions']
+  const boxes = await page.evaluate(() => ['.link-open', '#link-paste', '#link-paste-open', '#link-paste-msg', '#aside-row', '#aside-pick', '#aside-back', '#share-box', '.file-actions']
     .map((sel) => { const r = document.querySelector(sel).getBoundingClientRect(); return { sel, left: r.left, right: r.right, w: r.width }; }));
   for (const b of boxes) assert.ok(b.w > 0 && b.left >= 0 && b.right <= 390, `${b.sel} fits: ${JSON.stringify(b)}`);
   // Nothing inside the controls scrolls sideways either.

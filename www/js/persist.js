@@ -18,9 +18,9 @@ export function looksLikeScenario(s) {
 // the case or the units change (`saved_at`: the time of that change), so a reload or a
 // closed tab loses nothing; the page opens on it next time, saying so. A link's case never
 // silently takes the saved work's place: see openAtStart and openPastedLink. Work a link's
-// case replaced is set aside under a second key, one case deep, with a button that brings
-// it back (setting the open case aside in its turn). Storage that is full or switched off
-// is skipped quietly.
+// case replaced is set aside under a second key (the last few cases), with a button that
+// brings one back (setting the open case aside in its turn). Storage that is full or
+// switched off is skipped quietly.
 const AUTOSAVE_KEY = 'hibernal.autosave.1';
 const ASIDE_KEY = 'hibernal.set-aside.1';
 
@@ -45,7 +45,7 @@ function caseText(s) {
   };
   return JSON.stringify(sorted(Object.assign({}, s, { version: undefined, title: s.title || '', notes: s.notes || '' })));
 }
-export const sameCase = (a, b) => caseText(a) === caseText(b);
+const sameCase = (a, b) => caseText(a) === caseText(b);
 // An example as bundled, untouched: nothing of one's own to keep (the examples hold it).
 const isPlainExample = (s) => core.EXAMPLES.some((ex) => sameCase(core.W.example(ex.id), s));
 // Whether the kept `s` is work worth asking about (or setting aside) before `incoming` replaces it.
@@ -83,37 +83,61 @@ function restoreAutosave() {
   return true;
 }
 
-// The set-aside work: its button shows while there is some.
-function showAside() {
-  const aside = readKept(ASIDE_KEY);
-  const b = $('aside-back');
-  b.hidden = !aside;
-  if (!aside) return;
-  b.textContent = 'Bring back ' + short(titleOf(aside.scenario), 40);
-  b.title = 'Set aside in this browser at ' + whenOf(aside.set_aside_at) + ', when a link\'s case opened in its place (last changed ' +
-    whenOf(aside.saved_at) + '). Bringing it back sets the case open now aside in its turn.';
+// The work set aside: up to ASIDE_MAX cases, newest first, each a record (set_aside_at,
+// saved_at, units, scenario). When storage is short the oldest give way.
+const ASIDE_MAX = 5;
+function asideList() {
+  let kept = null;
+  try { kept = JSON.parse(localStorage.getItem(ASIDE_KEY) || 'null'); } catch (e) { kept = null; }
+  const cases = kept && Array.isArray(kept.cases) ? kept.cases : [];
+  return cases.filter((r) => r && typeof r === 'object' && looksLikeScenario(r.scenario));
 }
-// Sets `record` (saved_at, units, scenario) aside, in place of whatever was set aside.
+// Writes the list (what storage cannot hold of it, the oldest, gives way); false when not
+// even its newest case fits, the list kept before left as it was.
+function writeAside(cases) {
+  if (!cases.length) {
+    try { localStorage.removeItem(ASIDE_KEY); } catch (e) { /* no storage */ }
+    return true;
+  }
+  for (let n = Math.min(cases.length, ASIDE_MAX); n > 0; n--) if (writeKept(ASIDE_KEY, { cases: cases.slice(0, n) })) return true;
+  return false;
+}
+// Sets `record` (saved_at, units, scenario) aside, newest first (the same case set aside
+// before moves up instead of being kept twice); returns whether it was kept.
 function setAside(record) {
-  return writeKept(ASIDE_KEY, { set_aside_at: new Date().toISOString(), saved_at: record.saved_at, units: record.units, scenario: record.scenario });
+  const cases = asideList().filter((r) => !sameCase(r.scenario, record.scenario));
+  const ok = writeAside([{ set_aside_at: new Date().toISOString(), saved_at: record.saved_at, units: record.units, scenario: record.scenario }].concat(cases));
+  return ok && asideList().some((r) => sameCase(r.scenario, record.scenario));
+}
+// The list of the work set aside and its button show while there is some.
+function showAside() {
+  const cases = asideList();
+  $('aside-row').hidden = !cases.length;
+  const pick = $('aside-pick');
+  clear(pick);
+  cases.forEach((r, i) => pick.append(el('option', { value: String(i), text: short(titleOf(r.scenario), 48) + ', set aside ' + whenOf(r.set_aside_at) })));
 }
 const openRecord = () => ({ saved_at: (readKept(AUTOSAVE_KEY) || {}).saved_at || new Date().toISOString(), units: state.units, scenario: clone(state.scenario) });
 
+// Brings back the chosen case set aside; the case open now is set aside in its place.
 function bringBack() {
   const msg = $('file-msg');
   clear(msg);
-  const aside = readKept(ASIDE_KEY);
-  if (!aside) { showAside(); return; }
+  const cases = asideList();
+  const back = cases[Number($('aside-pick').value) || 0];
+  if (!back) { showAside(); return; }
   const open = openRecord();
-  const swapped = worthKeeping(open.scenario, aside.scenario) && setAside(open);
-  if (!swapped) { try { localStorage.removeItem(ASIDE_KEY); } catch (e) { /* no storage */ } }
-  applyUnits(aside.units);
-  flow.adopt(aside.scenario, 'set-aside case');
+  const swapped = worthKeeping(open.scenario, back.scenario);
+  const rest = cases.filter((r) => r !== back && !(swapped && sameCase(r.scenario, open.scenario)));
+  writeAside(swapped ? [Object.assign({ set_aside_at: new Date().toISOString() }, open)].concat(rest) : rest);
+  const kept = swapped && asideList().some((r) => sameCase(r.scenario, open.scenario));
+  // The units shown stay as they are: a display choice, not part of the case.
+  flow.adopt(back.scenario, 'set-aside case');
   $('example-pick').value = '';
   $('restore-note').hidden = true;
   showAside();
-  msg.append(el('span', { class: 'msg ok', text: 'Brought back ' + titleOf(aside.scenario) + '.' +
-    (swapped ? ' The case that was open is set aside in its place (the same button brings it back).' : '') }));
+  msg.append(el('span', { class: 'msg ok', text: 'Brought back ' + titleOf(back.scenario) + '.' +
+    (kept ? ' The case that was open, ' + titleOf(open.scenario) + ', is set aside in its place.' : '') }));
 }
 
 // ---------- the link ----------
@@ -205,8 +229,7 @@ function openLinked(linked, aside) {
   flow.adopt(linked, 'link');
   $('example-pick').value = '';
   $('restore-text').textContent = 'Opened the scenario this link carries.' + (kept
-    ? ' Your work before it, ' + titleOf(aside.scenario) + ' (saved ' + whenOf(aside.saved_at) + '), is set aside in this browser: “' +
-      'Bring back …” under Scenario file returns it, and so does Undo.'
+    ? ' Your work before it, ' + titleOf(aside.scenario) + ' (saved ' + whenOf(aside.saved_at) + '), is set aside in this browser: “Bring it back” under Scenario file returns it, and so does Undo.'
     : '');
   $('restore-note').hidden = false;
   showAside();
@@ -275,6 +298,19 @@ function askAboutLink(linked, saved) {
   $('link-ask-keep').focus();
 }
 
+// A link put into the address bar of the page already open changes only the fragment (no
+// reload): its case opens by the same rule as at the start, asking first when the open
+// work is one's own and differs.
+async function linkInAddress() {
+  if (!(location.hash || '').startsWith('#s=')) return;
+  if ($('link-ask').open) return;
+  const linked = await scenarioFromLink();
+  if (!linked) return;
+  const open = openRecord();
+  if (worthKeeping(open.scenario, linked)) askAboutLink(linked, open);
+  else openLinked(linked, null);
+}
+
 // The "Open a link" box: a whole link (any address before its "#") or its fragment alone.
 // Its case replaces the open work, which is set aside first (and Undo brings it back too);
 // text that carries no case says why beside the box and changes nothing.
@@ -304,11 +340,12 @@ async function openPastedLink() {
   showAside();
   box.value = '';
   say('ok', 'Opened ' + titleOf(linked) + ' from the link.' + (kept ? ' The work open before, ' + titleOf(open.scenario) +
-    ', is set aside: “Bring back …” above returns it, and so does Undo.' : ''));
+    ', is set aside: “Bring it back” above returns it, and so does Undo.' : ''));
 }
 
 export function setUpLinks() {
   $('aside-back').addEventListener('click', bringBack);
+  window.addEventListener('hashchange', linkInAddress);
   $('link-paste-open').addEventListener('click', openPastedLink);
   $('link-paste').addEventListener('keydown', (e) => { if (e.key === 'Enter') { e.preventDefault(); openPastedLink(); } });
 }
