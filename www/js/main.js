@@ -8,7 +8,7 @@ import { state, flow, remember, setUpHistory } from './state.js';
 import { typedErrors, showUnitSymbols, freezeT } from './fields.js';
 import { clearMessages, describePath, generalError, placeMessage } from './messages.js';
 import { stackOwners, renderStack, adoptStack, stackStale, setScenario, computeStack, showStackUnits, drawStack, setUpStack } from './stack.js';
-import { autosave, restoreAutosave, scenarioFromLink, makeShareLink, saveFile, openFile } from './persist.js';
+import { autosave, openAtStart, setUpLinks, makeShareLink, saveFile, openFile } from './persist.js';
 import { setUpChartSaving, setUpTableSaving } from './downloads.js';
 import { printStamp, setUpPrinting, renderSources } from './print.js';
 import { winterSection } from './winter.js';
@@ -240,22 +240,8 @@ function setUp() {
     if (EXAMPLES.length) loadExample(EXAMPLES[0].id);
   });
   $('share-make').addEventListener('click', makeShareLink);
-  scenarioFromLink().then((linked) => {
-    if (linked) {
-      adopt(linked, 'link');
-      $('example-pick').value = '';
-      $('restore-text').textContent = 'Opened the scenario this link carries.';
-      $('restore-note').hidden = false;
-    } else {
-      // A broken link's note is kept, followed by what opened instead.
-      const linkNote = $('restore-note').hidden ? '' : $('restore-text').textContent;
-      const restored = restoreAutosave();
-      if (!restored && EXAMPLES.length) loadExample(EXAMPLES[0].id);
-      if (linkNote) {
-        $('restore-text').textContent = linkNote + ' ' + (restored ? $('restore-text').textContent : 'The first example is open instead.');
-        $('restore-note').hidden = false;
-      }
-    }
+  setUpLinks();
+  openAtStart(() => { if (EXAMPLES.length) loadExample(EXAMPLES[0].id); }).then(() => {
     document.documentElement.dataset.ready = 'true';
   }).catch((err) => {
     console.error(err);
