@@ -42,3 +42,29 @@ for (const screen of SCREENS) test(`at ${screen.width} px, an example's summary 
   assert.equal(await page.locator('#example-summary').textContent(), '');
   assert.equal(await mark.isHidden(), true);
 }, screen));
+
+// The option shown as chosen in a select.
+const chosenText = (page, path) => page.locator(`[data-field="${path}"]`).evaluate((s) => s.selectedOptions[0] ? s.selectedOptions[0].textContent : null);
+
+for (const screen of SCREENS) test(`at ${screen.width} px, the n-factor surface shown is the one chosen, and it travels in the saved file`, () => withPage(async (page) => {
+  await andRecompute(page, () => page.selectOption('#example-pick', 'silty-yard-design-winter'));
+  const preset = 'winter.surface.preset';
+  // The bare yard's 0.7 is bare soil's (the example says so), not the first surface with 0.7.
+  assert.match(await chosenText(page, preset), /^Bare soil/);
+  const presets = await page.evaluate(() => wasm_bindgen.catalogue().n_factor_presets);
+  const twin = presets.find((p) => p.id !== 'bare-soil' && Math.abs(p.freezing - 0.7) < 1e-9);
+  assert.ok(twin, 'another surface shares bare soil\'s n-factor, so the value alone cannot tell them apart');
+  await andRecompute(page, () => page.selectOption(`[data-field="${preset}"]`, twin.id));
+  assert.equal(await chosenText(page, preset), twin.name + ' — 0.7');
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#save-file')]);
+  const text = readFileSync(await dl.path(), 'utf8');
+  assert.equal(JSON.parse(text).winter.surface.preset, twin.id, 'the file records the surface chosen');
+  await andRecompute(page, () => page.selectOption('#example-pick', 'cabin-porch-slab-snowy-winter'));
+  await andRecompute(page, () => page.setInputFiles('#open-file', { name: 'yard.json', mimeType: 'application/json', buffer: Buffer.from(text) }));
+  assert.equal(await chosenText(page, preset), twin.name + ' — 0.7', 'reopened, the same surface');
+  // A freezing n-factor of one's own is shown as such, and the file stops naming a surface.
+  await andRecompute(page, () => page.fill('[data-field="winter.surface.freezing"]', '0.66'));
+  assert.equal(await chosenText(page, preset), 'Own value');
+  const saved = await page.evaluate(() => JSON.parse(localStorage.getItem('hibernal.autosave.1')).scenario.winter.surface);
+  assert.equal(saved.preset, undefined, JSON.stringify(saved));
+}, screen));

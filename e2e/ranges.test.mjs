@@ -138,7 +138,7 @@ test('marking inputs from scratch on a scenario without ranges, saved in the fil
   // Saved with the scenario.
   const [dl] = await Promise.all([page.waitForEvent('download'), page.click('#save-file')]);
   const saved = JSON.parse(readFileSync(await dl.path(), 'utf8'));
-  assert.equal(saved.version, 5);
+  assert.equal(saved.version, 6);
   assert.equal(saved.ranges.seed, 11);
   assert.equal(saved.ranges.inputs[1].what, 'insulation-derating');
   assert.equal(saved.ranges.inputs[1].distribution.kind, 'triangular');

@@ -786,3 +786,22 @@ fn the_steady_profile_csv_carries_every_chart_point_with_its_band() {
     let us = steady::profile_csv(&c, hibernal::physics::units::UnitSystem::Us);
     assert!(us.starts_with("depth [ft],temperature [°F]"));
 }
+
+#[test]
+fn an_n_factor_surface_names_its_preset_and_an_unknown_one_is_refused() {
+    // The surface chosen travels with the n-factor (format version 6), so a reader can tell
+    // bare soil from another surface of the same published value; a name that is not a
+    // surface of the n-factor table is refused, naming the field.
+    let mut v: serde_json::Value =
+        serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
+    assert_eq!(v["winter"]["surface"]["preset"], "bare-soil");
+    let r = winter_of(v.clone()).unwrap();
+    assert!(r.max_frost_depth_m > 0.0);
+    v["winter"]["surface"]["preset"] = serde_json::json!("moon-dust");
+    let e = winter_of(v).unwrap_err();
+    assert!(
+        e.0.iter()
+            .any(|x| x.field == "winter.surface.preset" && x.to_string().contains("bare-soil")),
+        "{e:?}"
+    );
+}

@@ -149,6 +149,7 @@ pub fn surface(kind: &str) -> Option<SurfaceDoc> {
         "n-factor" => SurfaceDoc::NFactor {
             freezing: Surface::BareSoil.freezing_n_factor(),
             thawing: 1.0,
+            preset: Some(Surface::BareSoil.id().to_string()),
         },
         _ => return None,
     })
@@ -194,6 +195,7 @@ pub fn winter() -> WinterDoc {
         surface: surface("film").unwrap_or(SurfaceDoc::NFactor {
             freezing: 1.0,
             thawing: 1.0,
+            preset: None,
         }),
         bottom: bottom("flux").unwrap_or(DeepDoc::Temperature {
             temperature_c: 4.0,
@@ -394,6 +396,7 @@ pub fn edge() -> EdgeDoc {
         outside: surface("film").unwrap_or(SurfaceDoc::NFactor {
             freezing: 1.0,
             thawing: 1.0,
+            preset: None,
         }),
         climate: ClimateDoc::DesignWinter {
             freezing_index_c_days: 1500.0,

@@ -655,7 +655,9 @@ impl EdgeDoc {
                     film_w_m2k,
                     snow_regression: snow_regression.into(),
                 },
-                SurfaceDoc::NFactor { freezing, thawing } => Outside::NFactor { freezing, thawing },
+                SurfaceDoc::NFactor {
+                    freezing, thawing, ..
+                } => Outside::NFactor { freezing, thawing },
             },
             bottom: spec.bottom,
             start: StartTemperature {

@@ -3,16 +3,18 @@
 //! faces (page, CLI): serialisable mirrors of the core types, which know nothing of the
 //! format.
 //!
-//! Format: `{"format": "hibernal-scenario", "version": 5, ...}`, all values SI with the
+//! Format: `{"format": "hibernal-scenario", "version": 6, ...}`, all values SI with the
 //! unit in the key (`thickness_m`, `film_w_m2k`). Version 2 adds the optional `winter`
 //! section (a transient run of the same stack, [`crate::document::winter`]); version 3 the
 //! optional `shelter` section (a snow shelter, [`crate::document::shelter`], which stands
 //! on its own beside the stack); version 4 the optional `edge` section (a building's edge
 //! in 2D, [`crate::document::edge`], also on its own); version 5 the optional `ranges`
 //! section (uncertain inputs, [`crate::document::ranges`]) and a soil's
-//! `conductivity_factor`.
+//! `conductivity_factor`; version 6 the deep boundary's `at_layers_bottom` (without it, the
+//! deepest layer is continued below, see [`crate::document::weather::DeepDoc`]) and an
+//! n-factor surface's `preset`.
 //!
-//! **Versions.** Documents of versions 1 to 4, which lack the later sections, load as they
+//! **Versions.** Documents of versions 1 to 5, which lack the later sections, load as they
 //! are: every later section and key is optional, so no upgrade step is needed, and the page
 //! saves what it opened as the current version. A section in a document of a version older
 //! than the one that brought it is refused, naming the section (`edge`); a document from a
@@ -36,7 +38,7 @@ use serde::{Deserialize, Serialize};
 pub const FORMAT_TAG: &str = "hibernal-scenario";
 
 /// The newest version this build reads and writes.
-pub const FORMAT_VERSION: u32 = 5;
+pub const FORMAT_VERSION: u32 = 6;
 
 /// Largest document accepted, bytes.
 pub const MAX_DOCUMENT_BYTES: usize = 1 << 20;

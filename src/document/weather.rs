@@ -92,8 +92,17 @@ pub enum SurfaceDoc {
         snow_regression: SnowRegressionDoc,
     },
     /// Surface = n × air, freezing and thawing n-factors. The n-factor stands for the surface
-    /// cover, snow included, so snow in the climate is not used.
-    NFactor { freezing: f64, thawing: f64 },
+    /// cover, snow included, so snow in the climate is not used. `preset` names the surface
+    /// whose published freezing n-factor was chosen (an id of
+    /// [`crate::physics::climate::Surface`], version 6), so the page shows the surface the
+    /// user picked rather than the first with the same value; absent for a value of one's
+    /// own.
+    NFactor {
+        freezing: f64,
+        thawing: f64,
+        #[serde(default, skip_serializing_if = "Option::is_none")]
+        preset: Option<String>,
+    },
 }
 
 /// The deep boundary. Unless `at_layers_bottom` is set, it acts below the layers given: the

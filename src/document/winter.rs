@@ -214,7 +214,27 @@ impl WinterDoc {
                     snow_regression: snow_regression.into(),
                 }
             }
-            SurfaceDoc::NFactor { freezing, thawing } => {
+            SurfaceDoc::NFactor {
+                freezing,
+                thawing,
+                ref preset,
+            } => {
+                if let Some(id) = preset {
+                    if crate::physics::climate::Surface::from_id(id).is_none() {
+                        errs.push(
+                            "winter.surface.preset",
+                            InputErrorKind::Format(format!(
+                                "'{}' is not a surface with a published n-factor; known: {}",
+                                id.chars().take(40).collect::<String>(),
+                                crate::physics::climate::Surface::ALL
+                                    .iter()
+                                    .map(|s| s.id())
+                                    .collect::<Vec<_>>()
+                                    .join(", ")
+                            )),
+                        );
+                    }
+                }
                 check::within(
                     &mut errs,
                     "winter.surface.freezing",

@@ -41,7 +41,6 @@ const EDGE_DEBOUNCE_MS = 400;
 const edge = {
   day: null, // the day the field map shows
   past: {}, // earlier sub-sections by kind, so switching back restores them
-  nPreset: null, // the n-factor preset chosen
   least: null, // the search being set up (copied into the scenario when run)
 };
 

@@ -1,8 +1,7 @@
 // The weather inputs shared by the winter and the building edge: the climate, the snow
 // season, how the ground surface meets the weather and the deep boundary; and a day of a
 // climate in words. Each editor takes the section object, the path prefix of its fields and
-// `keep`, the section's memory ({ past: sub-sections switched away from, by kind;
-// nPreset: the n-factor preset chosen }).
+// `keep`, the section's memory ({ past: sub-sections switched away from, by kind }).
 import { el, clear } from './dom.js';
 import { core, coreDefault } from './core.js';
 import { badText, field, numField, switchPart } from './fields.js';
@@ -85,7 +84,7 @@ export function snowEditor(sb, c, prefix, checkId, keep, rerender, note) {
 }
 
 // How the ground surface meets the weather (`sect[key]`): a film (snow on top of it) or
-// n-factors. `keep.nPreset` keeps the preset chosen.
+// n-factors, with the surface chosen for them (`preset`) kept in the document.
 export function surfaceEditor(su, sect, key, prefix, keep, rerender) {
   clear(su);
   const s = sect[key];
@@ -113,19 +112,35 @@ export function surfaceEditor(su, sect, key, prefix, keep, rerender) {
     );
     return;
   }
+  // The surface chosen travels in the document (`preset`); a freezing n-factor edited away
+  // from it, or one that never came from a preset, is the user's own value.
   const presets = core.CAT.n_factor_presets || [];
   const same = (p) => p && Math.abs(p.freezing - s.freezing) < 1e-9;
-  const chosen = presets.find((p) => p.id === keep.nPreset);
-  const match = same(chosen) ? chosen : presets.find(same);
-  sg.append(
-    field({
+  const chosen = presets.find((p) => p.id === s.preset);
+  const match = same(chosen) ? chosen : null;
+  if (s.preset !== undefined && !match) delete s.preset;
+  const presetField = field({
       path: P + 'preset', label: 'Surface (freezing n-factor)', cls: 'wide',
       options: [{ value: '', text: 'Own value' }].concat(presets.map((p) => ({ value: p.id, text: p.name + ' — ' + p.freezing, title: p.source }))),
       get: () => (match ? match.id : ''),
-      set: (v) => { const p = presets.find((x) => x.id === v); keep.nPreset = v; if (p) { s.freezing = p.freezing; badText.delete(s); } },
+      set: (v) => {
+        const p = presets.find((x) => x.id === v);
+        if (p) { s.freezing = p.freezing; s.preset = p.id; badText.delete(s); } else delete s.preset;
+      },
       after: rerender(P + 'preset'),
+    });
+  const presetSelect = presetField.querySelector('select');
+  sg.append(
+    presetField,
+    // Typed away from the surface's value, the n-factor is one's own at once.
+    numField(s, 'freezing', P + 'freezing', 'Freezing n-factor', 'fraction', {
+      after: () => {
+        if (s.preset !== undefined && !same(presets.find((p) => p.id === s.preset))) {
+          delete s.preset;
+          if (presetSelect) presetSelect.value = '';
+        }
+      },
     }),
-    numField(s, 'freezing', P + 'freezing', 'Freezing n-factor', 'fraction'),
     numField(s, 'thawing', P + 'thawing', 'Thawing n-factor', 'fraction'),
   );
   su.append(el('p', { class: 'hint', text: 'Freezing n-factors: ' + ((presets[0] && presets[0].source) || '') + '. With n-factors, snow cover is taken as part of the factor and not simulated.' }));

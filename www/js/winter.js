@@ -32,7 +32,6 @@ const WINTER_DEBOUNCE_MS = 200;
 const winter = {
   day: null, // the day the profile chart shows
   past: {}, // earlier sub-sections by kind, so switching back restores them
-  nPreset: undefined, // the n-factor preset chosen
   summary: null, // summary of a daily record: { first_date, winters, design, ... }
   least: null, // the least-thickness search being set up (applied to the scenario when run)
 };
