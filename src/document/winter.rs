@@ -21,10 +21,10 @@
 //! - **Hand methods** beside the run ([`HandMethodRow`], ids `stefan`, `stefan-resistance`,
 //!   `berggren`, `transient`): Stefan's law for the first freezing layer, Stefan's law
 //!   under the layers above it as a resistance, modified Berggren through every layer, and
-//!   the run itself, each from the run's ground-surface freezing index
-//!   ([`crate::physics::hand`]).
-//! - **CSV**: [`daily_csv_in`] (the daily series in either unit system; [`daily_csv`] in
-//!   SI) and [`profiles_csv`] (a row per kept day, a column per cell centre), units in the
+//!   the run itself, each from the run's ground-surface freezing index (over several
+//!   winters, that of the winter with the largest, and its season: [`crate::physics::hand`]).
+//! - **CSV**: [`daily_csv_in`] (the daily series in either unit system, dated when the
+//!   climate is daily records; [`daily_csv`] in SI) and [`profiles_csv`] (a row per kept day, a column per cell centre), units in the
 //!   headers; the CLI's `--csv` and `--profiles-csv`, and the page's buttons.
 //! - **The least thickness** ([`LeastThicknessDoc`], [`LeastThicknessReport`]) lives here
 //!   with its section; its sliced job is in [`crate::document::winter_least`].
