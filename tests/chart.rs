@@ -93,6 +93,7 @@ fn hand_report(
         freezable_top_m: 0.0,
         least_thickness: None,
         hand_methods: Vec::new(),
+        start_date: None,
         profiles,
     }
 }

@@ -731,8 +731,6 @@ fn csv_lists_at_most_the_cap_and_says_how_many_more() {
 fn csv_header_problems_are_named() {
     let o = CsvOptions::default();
     let msg = |t: &str| read_daily_csv(t, &o).unwrap_err().to_string();
-    assert!(msg("date,temperature (°F)\n2021-01-01,3\n")
-        .contains("line 1, mean air temperature: the header says °F but °C was chosen"));
     assert!(msg("date,temperature (K)\n").contains("'K' is not a unit this column takes"));
     assert!(msg("date,temprature\n").contains("line 1, column 2: 'temprature' is not a column"));
     assert!(msg("# c\n\ndate,snow depth\n")
@@ -1150,4 +1148,261 @@ fn annual_waves_of_the_three_climates() {
     // Too little to fix a wave: the mean, no wave.
     let w = fit_annual_wave(&[0.0, 1.0], &[2.0, 4.0]);
     assert_eq!((w.mean_c, w.amplitude_k), (3.0, 0.0));
+}
+
+// ------------------------------------------------------------- header units and names
+
+/// A one-day file under a header, read with the default options (°C, m, kg/m³ chosen).
+fn first_day(header: &str, row: &str) -> DayRecord {
+    *csv_ok(&format!("{header}\n{row}\n"), &CsvOptions::default())
+        .series
+        .days()
+        .first()
+        .expect("one day")
+}
+
+#[test]
+fn units_named_in_the_header_win_over_the_chosen_ones() {
+    // Conversions by NIST SP 811 Appendix B (1 in = 0.0254 m, 1 ft = 0.3048 m exactly,
+    // T/°C = (T/°F − 32)/1.8, 1 lb/ft³ = 16.018 46 kg/m³) and the SI prefixes.
+    let depth = |h: &str, v: f64| {
+        let d = first_day(&format!("date,temp,{h}"), &format!("2021-01-01,-3,{v}"));
+        d.snow_depth_m.expect("a depth")
+    };
+    for (header, written, metres) in [
+        ("snow_depth_cm", 45.0, 0.45),
+        ("snow depth (cm)", 45.0, 0.45),
+        ("Snow Depth [mm]", 450.0, 0.45),
+        ("snow depth mm", 450.0, 0.45),
+        ("SNWD_in", 12.0, 0.3048),
+        ("snow (ft)", 2.0, 0.6096),
+        ("snow_depth_m", 0.45, 0.45),
+        ("snow depth", 0.45, 0.45),
+    ] {
+        assert_rel(depth(header, written), metres, 1e-12, header);
+    }
+    let air =
+        |h: &str, v: f64| first_day(&format!("date,{h}"), &format!("2021-01-01,{v}")).mean_air_c;
+    for (header, written, celsius) in [
+        ("tmean_f", 14.0, -10.0),
+        ("Mean Air Temperature (°F)", 14.0, -10.0),
+        ("average air temperature [degF]", 14.0, -10.0),
+        ("avg air temp F", 14.0, -10.0),
+        ("t_mean_degC", -10.0, -10.0),
+        ("temp (C)", -10.0, -10.0),
+        ("TEMP °C", -10.0, -10.0),
+        ("mean_air_c", -10.0, -10.0),
+        ("TMEAN", -10.0, -10.0),
+    ] {
+        assert_abs(air(header, written), celsius, 1e-12, header);
+    }
+    let density = |h: &str, v: f64| {
+        let d = first_day(
+            &format!("date,temp,snow depth,{h}"),
+            &format!("2021-01-01,-3,0.3,{v}"),
+        );
+        d.snow_density_kg_m3.expect("a density")
+    };
+    for (header, written, si) in [
+        ("snow_density_kg_m3", 250.0, 250.0),
+        ("snow density (kg/m³)", 250.0, 250.0),
+        ("Snow Density [kg/m3]", 250.0, 250.0),
+        ("snow density lb/ft3", 15.0, 15.0 * 16.01846),
+        ("snow_density_lb_ft3", 15.0, 15.0 * 16.01846),
+    ] {
+        assert_rel(density(header, written), si, 1e-6, header);
+    }
+    // The header's unit wins over a contradicting choice, and the import says so.
+    let o = CsvOptions {
+        temperature: TemperatureUnit::Fahrenheit,
+        snow_depth: DepthUnit::Metre,
+        ..CsvOptions::default()
+    };
+    let r = csv_ok(
+        "date,temperature (°C),snow depth (cm)\n2021-01-01,-3,45\n",
+        &o,
+    );
+    assert_abs(
+        r.series.days()[0].mean_air_c,
+        -3.0,
+        1e-12,
+        "°C as the header says",
+    );
+    assert_rel(r.series.days()[0].snow_depth_m.unwrap(), 0.45, 1e-12, "cm");
+    let said: Vec<(&str, &str, bool)> = r
+        .header_units
+        .iter()
+        .map(|h| (h.column.name(), h.unit, h.overrides()))
+        .collect();
+    assert_eq!(
+        said,
+        [
+            ("mean air temperature", "°C", true),
+            ("snow depth", "cm", true)
+        ]
+    );
+    // With no unit in the header, the chosen units are used.
+    let r = csv_ok(
+        "date,temp,snow depth\n2021-01-01,14,10\n",
+        &CsvOptions {
+            temperature: TemperatureUnit::Fahrenheit,
+            snow_depth: DepthUnit::Inch,
+            ..CsvOptions::default()
+        },
+    );
+    assert_abs(r.series.days()[0].mean_air_c, -10.0, 1e-12, "14 °F chosen");
+    assert_rel(
+        r.series.days()[0].snow_depth_m.unwrap(),
+        0.254,
+        1e-12,
+        "10 in chosen",
+    );
+    assert!(r.header_units.is_empty());
+    // A unit the column cannot take is still refused, naming the column.
+    let e = read_daily_csv("date,snow depth (°F),temp\n", &CsvOptions::default()).unwrap_err();
+    assert!(
+        e.to_string()
+            .contains("line 1, snow depth: '°F' is not a unit this column takes"),
+        "{e}"
+    );
+}
+
+#[test]
+fn the_import_summary_names_the_header_units_and_each_winters_freezing_season() {
+    use hibernal::document::climate_import::{import_csv, ImportOptions};
+    // Three invented winters of 365 days, each 100 days at −10 °C after 265 at +5 °C; the
+    // winters start 1 July (the default), the record 1 July 2004 (no 29 February in it).
+    let mut text = String::from("Date,T_MEAN (°F),snow_depth_cm\n");
+    let mut day = date("2004-07-01");
+    for _ in 0..3 {
+        for k in 0..365 {
+            let (t, snow) = if (200..300).contains(&k) {
+                (14.0, 30.0)
+            } else {
+                (41.0, 0.0)
+            };
+            text.push_str(&format!("{day},{t},{snow}\n"));
+            day = day.succ_opt().unwrap();
+        }
+    }
+    let o = ImportOptions {
+        temperature: "°C".into(),
+        snow_depth: Some("m".into()),
+        snow_density: None,
+        skip_bad_lines: false,
+        fill_gaps_days: 0,
+        season_start_month: Some(7),
+    };
+    let out = import_csv(&text, &o);
+    assert!(out.ok, "{:?}", out.problems);
+    let s = out.summary.unwrap();
+    let units: Vec<(&str, &str, &str, bool)> = s
+        .header_units
+        .iter()
+        .map(|u| (u.column, u.unit, u.chosen, u.overrides))
+        .collect();
+    assert_eq!(
+        units,
+        [
+            ("mean air temperature", "°F", "°C", true),
+            ("snow depth", "cm", "m", true)
+        ]
+    );
+    // Each winter: 100 days below 0 °C, freezing index 100 × 10 = 1000 °C·days (the range
+    // of its cumulative curve, TM 5-852-6).
+    let complete: Vec<_> = s.winters.iter().filter(|w| w.complete).collect();
+    assert_eq!(complete.len(), 3, "{:?}", s.winters);
+    for w in &complete {
+        assert_eq!(w.freezing_season_days, 100, "{w:?}");
+        assert_abs(w.freezing_index_c_days, 1000.0, 1e-9, "index");
+    }
+    // The design winter built from it carries that season and the record's snow.
+    let dw = s
+        .design_winter
+        .expect("three complete winters give a design winter");
+    assert_abs(dw.freezing_index_c_days, 1000.0, 1e-9, "design index");
+    assert_abs(dw.season_days, 100.0, 0.0, "season: days below 0 °C");
+    // Mean of the year: (265 × 5 − 100 × 10) / 365 °C.
+    assert_abs(
+        dw.mean_annual_c,
+        (265.0 * 5.0 - 1000.0) / 365.0,
+        1e-9,
+        "mean",
+    );
+    let snow = dw.snow.expect("the record has snow");
+    assert_eq!(dw.snow_winters, 3);
+    // Freeze-up is day 200 of each winter (the day after the cumulative curve's top): the
+    // snow lies from freeze-up, deepest (the first deepest day) on freeze-up, gone 100 days on.
+    assert_eq!(
+        (snow.start_day, snow.peak_day, snow.end_day),
+        (0.0, 0.0, 100.0)
+    );
+    assert_rel(snow.peak_depth_m, 0.30, 1e-12, "30 cm");
+    // No densities recorded: those of a new snow season (defaults), settled not lighter.
+    let fallback = hibernal::document::defaults::snow_season("design-winter").unwrap();
+    assert_eq!(snow.fresh_density_kg_m3, fallback.fresh_density_kg_m3);
+    assert_eq!(snow.settled_density_kg_m3, fallback.settled_density_kg_m3);
+}
+
+#[test]
+fn a_snow_season_fitted_to_a_record_takes_the_mean_of_its_winters() {
+    use hibernal::document::climate_import::{import_csv, ImportOptions};
+    // Three invented winters from 1 July 2004: freezing from day 180 to 299 (120 days at
+    // −8 °C), snow from day 160 + 10 k (k = 0, 1, 2: before freeze-up), rising to
+    // 40 + 10 k cm on day 240, gone on day 310 + k; densities 120 kg/m³ over the first two
+    // weeks of cover, 300 over the last two, 200 between.
+    let mut text = String::from("date,mean air temperature,snow depth (cm),snow density\n");
+    let mut day = date("2004-07-01");
+    for k in 0..3 {
+        let (start, end, peak) = (160 + 10 * k, 310 + k, 40.0 + 10.0 * k as f64);
+        for i in 0..365 {
+            let t = if (180..300).contains(&i) { -8.0 } else { 6.0 };
+            let snow = if i < start || i >= end {
+                "0,".to_string()
+            } else {
+                let depth = if i <= 240 {
+                    peak * f64::from(i - start + 1) / f64::from(241 - start)
+                } else {
+                    peak * f64::from(end - i) / f64::from(end - 240)
+                };
+                let rho = if i < start + 14 {
+                    120.0
+                } else if i >= end - 14 {
+                    300.0
+                } else {
+                    200.0
+                };
+                format!("{depth},{rho}")
+            };
+            text.push_str(&format!("{day},{t},{snow}\n"));
+            day = day.succ_opt().unwrap();
+        }
+    }
+    let o = ImportOptions {
+        temperature: "°C".into(),
+        snow_depth: None,
+        snow_density: Some("kg/m³".into()),
+        skip_bad_lines: false,
+        fill_gaps_days: 0,
+        season_start_month: Some(7),
+    };
+    let out = import_csv(&text, &o);
+    assert!(out.ok, "{:?}", out.problems);
+    let dw = out.summary.unwrap().design_winter.unwrap();
+    assert_abs(dw.season_days, 120.0, 0.0, "120 days below 0 °C");
+    let s = dw.snow.unwrap();
+    // Freeze-up on day 180: first snow 20, 10 and 0 days before it (a mean of 10 days
+    // before: day 355 of the design year, which wraps), the deepest on day 240 (60 days
+    // on), gone on days 310, 311, 312 (a mean of 131 days on).
+    assert_eq!((s.start_day, s.peak_day, s.end_day), (355.0, 60.0, 131.0));
+    assert_rel(s.peak_depth_m, 0.50, 1e-12, "mean of 40, 50 and 60 cm");
+    assert_eq!(
+        (s.fresh_density_kg_m3, s.settled_density_kg_m3),
+        (120.0, 300.0)
+    );
+    // The season is one a design winter accepts (the core's own checks).
+    let season = hibernal::physics::climate::SnowSeason::from(s);
+    let mut errs = hibernal::physics::error::InputErrors::default();
+    season.validate("snow", &mut errs);
+    assert!(errs.is_empty(), "{errs:?}");
 }

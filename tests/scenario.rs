@@ -805,3 +805,110 @@ fn an_n_factor_surface_names_its_preset_and_an_unknown_one_is_refused() {
         "{e:?}"
     );
 }
+
+/// The silty-yard example with its climate replaced by `years` identical invented years of
+/// daily records from 1 July 2004: 245 days at +8 °C, then 120 days at −10 °C (a winter's
+/// air freezing index of 1200 °C·days, as the example's design winter has).
+fn silty_yard_over_daily_years(years: usize) -> scenario::Scenario {
+    let mut v: serde_json::Value =
+        serde_json::from_str(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
+    let mut days = Vec::new();
+    let mut date = chrono::NaiveDate::from_ymd_opt(2004, 7, 1).unwrap();
+    for _ in 0..years {
+        for k in 0..365 {
+            let t = if k < 245 { 8.0 } else { -10.0 };
+            days.push(serde_json::json!({"date": date.to_string(), "mean_air_c": t}));
+            date = date.succ_opt().unwrap();
+        }
+    }
+    v["winter"]["climate"] = serde_json::json!({"kind": "daily", "days": days});
+    v["winter"]["initial"] = serde_json::json!({"kind": "uniform", "temperature_c": 4.0});
+    v["winter"]["step_s"] = serde_json::json!(21_600.0);
+    scenario::from_value(v).unwrap()
+}
+
+fn hand_row<'a>(
+    w: &'a hibernal::document::winter::WinterReport,
+    m: &str,
+) -> &'a hibernal::document::winter::HandMethodRow {
+    w.hand_methods.iter().find(|h| h.method == m).unwrap()
+}
+
+/// The season length a modified Berggren row's note gives, days.
+fn berggren_season_days(note: &str) -> f64 {
+    let at = note.find("season ").expect("the note names the season") + "season ".len();
+    note[at..].split(' ').next().unwrap().parse().unwrap()
+}
+
+#[test]
+fn the_hand_methods_take_one_winter_of_a_record_of_several() {
+    // The modified Berggren method takes the freezing index and the freezing season of one
+    // design winter (TM 5-852-6 / UFC 3-130-04, from memory): over three identical winters
+    // it must see one winter's season (about 120 days below 0 °C at the surface, which an
+    // n-factor surface makes below 0 °C exactly when the air is), not the three winters'
+    // 360, and give the depth it gives on the first winter alone.
+    let one = compute::compute_with_winter(&silty_yard_over_daily_years(1)).unwrap();
+    let three = compute::compute_with_winter(&silty_yard_over_daily_years(3)).unwrap();
+    let (w1, w3) = (one.winter.unwrap(), three.winter.unwrap());
+    let b1 = hand_row(&w1, "berggren");
+    let b3 = hand_row(&w3, "berggren");
+    let (s1, s3) = (
+        berggren_season_days(&b1.note),
+        berggren_season_days(&b3.note),
+    );
+    // The daily means are interpolated between days, so the season may gain or lose a day.
+    assert!((s1 - 120.0).abs() <= 2.0, "one winter: {}", b1.note);
+    assert!(
+        (s3 - s1).abs() <= 1.0,
+        "three winters: {} / {}",
+        b3.note,
+        b1.note
+    );
+    assert!(b3.note.contains("of 3"), "{}", b3.note);
+    // The same winter, the same layers: the same depth (the mean annual surface
+    // temperature is the same over one year or three identical ones; the first winter
+    // starts from a uniform 4 °C, the later ones from the year before: 2 %).
+    let (d1, d3) = (b1.depth_m.unwrap(), b3.depth_m.unwrap());
+    assert_rel(d3, d1, 0.02, "Berggren over three winters vs one");
+    // Stefan's law takes the design winter's surface index too: n × 1200 (UFC 3-130-04,
+    // n = 0.7 here) within the day-interpolation's 1 %.
+    let st = hand_row(&w3, "stefan").depth_m.unwrap();
+    assert_rel(st, hand_row(&w1, "stefan").depth_m.unwrap(), 0.01, "Stefan");
+}
+
+#[test]
+fn the_daily_csv_of_a_record_dates_each_day() {
+    // A daily record: a date beside the day number, the record's first date on day 0 and
+    // one date later each row (chrono's calendar); a design winter keeps day numbers only.
+    let c = compute::compute_with_winter(&silty_yard_over_daily_years(1)).unwrap();
+    let w = c.winter.unwrap();
+    let csv = hibernal::document::winter::daily_csv(&w);
+    let mut lines = csv.lines();
+    assert!(
+        lines
+            .next()
+            .unwrap()
+            .starts_with("day,date,air temperature [°C]"),
+        "{csv:.80}"
+    );
+    let first = chrono::NaiveDate::from_ymd_opt(2004, 7, 1).unwrap();
+    let mut n = 0;
+    for (i, line) in lines.enumerate() {
+        let cells: Vec<&str> = line.split(',').collect();
+        let day: f64 = cells[0].parse().unwrap();
+        assert_eq!(day, i as f64, "{line}");
+        let date = first + chrono::Days::new(i as u64);
+        assert_eq!(cells[1], date.format("%Y-%m-%d").to_string(), "{line}");
+        n += 1;
+    }
+    assert_eq!(n, 366, "day 0 and the end of each of 365 days");
+    let s = scenario::parse(examples::example("silty-yard-design-winter").unwrap().json).unwrap();
+    let c = compute::compute_with_winter(&s).unwrap();
+    let csv = hibernal::document::winter::daily_csv(c.winter.as_ref().unwrap());
+    assert!(csv.starts_with("day,air temperature [°C]"), "{csv:.80}");
+    let row = csv.lines().nth(1).unwrap();
+    assert!(
+        row.split(',').all(|x| x.parse::<f64>().is_ok()),
+        "numbers only: {row}"
+    );
+}

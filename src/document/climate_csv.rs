@@ -12,15 +12,19 @@
 //! | column | required | names accepted (case, spaces, `_` and `-` do not matter) |
 //! |---|---|---|
 //! | date, written `YYYY-MM-DD` | yes | `date`, `day` |
-//! | mean air temperature of the day | yes | `mean air temperature`, `mean air temp`, `air temperature`, `air temp`, `mean temperature`, `mean temp`, `temperature`, `temp`, `mean_air_c` |
-//! | snow depth on the ground | no | `snow depth`, `depth of snow`, `snow on ground`, `snow`, `snow_depth_m` |
-//! | bulk density of that snow | no | `snow density`, `density of snow`, `density`, `snow_density_kg_m3` |
+//! | mean air temperature of the day | yes | `mean air temperature`, `mean air temp`, `mean air`, `average air temperature`, `avg air temp` (and the other pairings of mean / average / avg with temperature / temp), `air temperature`, `air temp`, `daily mean temperature`, `tmean`, `t_mean`, `tavg`, `temperature`, `temp` |
+//! | snow depth on the ground | no | `snow depth`, `depth of snow`, `snow on ground`, `snwd`, `snow` |
+//! | bulk density of that snow | no | `snow density`, `density of snow`, `density` |
 //!
-//! Units are chosen in [`CsvOptions`] (°C or °F; m, cm, in or ft; kg/m³ or lb/ft³). A
-//! column name may end with its unit in brackets, `mean air temperature (°F)`,
-//! `snow depth [in]`: the reader then checks it against the options and refuses a file whose
-//! header says another unit than the one chosen. The names ending `_c`, `_m`, `_kg_m3` say
-//! °C, m and kg/m³ the same way.
+//! A column's unit may be named in its header: in brackets or parentheses,
+//! `mean air temperature (°F)`, `snow depth [in]`, or as the last word after `_` or a space,
+//! `snow_depth_cm`, `tmean degF`, `snow_density_kg_m3` (`kg_m3` and `lb_ft3` read as kg/m³
+//! and lb/ft³). Units: °C, C, degC, °F, F, degF; m, cm, mm, in, ft; kg/m³, kg/m3, lb/ft³,
+//! lb/ft3. A unit named in the header is the one the column is read in, whatever
+//! [`CsvOptions`] chose ([`CsvImport::header_units`] lists them, with the unit chosen, so a
+//! caller can say which it overrode); the units of [`CsvOptions`] (°C or °F; m, cm, mm, in
+//! or ft; kg/m³ or lb/ft³) apply to the columns whose header names none. A unit the column
+//! cannot take (`snow depth (°F)`) is refused, naming the column.
 //!
 //! Dates must follow one another by exactly one day. A blank snow cell means "not
 //! observed". A snow density needs a snow depth on the same line.
@@ -47,7 +51,7 @@ use crate::physics::climate::{
 };
 use crate::physics::error::InputErrorKind;
 use crate::physics::units::{
-    CM_PER_M, DEG_F_AT_0_C, DEG_F_PER_K, FT_PER_M, IN_PER_M, LB_FT3_PER_KG_M3,
+    CM_PER_M, DEG_F_AT_0_C, DEG_F_PER_K, FT_PER_M, IN_PER_M, LB_FT3_PER_KG_M3, MM_PER_M,
 };
 use chrono::NaiveDate;
 use std::fmt;
@@ -100,6 +104,7 @@ pub enum DepthUnit {
     #[default]
     Metre,
     Centimetre,
+    Millimetre,
     Inch,
     Foot,
 }
@@ -109,6 +114,7 @@ impl DepthUnit {
         match self {
             DepthUnit::Metre => "m",
             DepthUnit::Centimetre => "cm",
+            DepthUnit::Millimetre => "mm",
             DepthUnit::Inch => "in",
             DepthUnit::Foot => "ft",
         }
@@ -118,6 +124,7 @@ impl DepthUnit {
         match self {
             DepthUnit::Metre => x,
             DepthUnit::Centimetre => x / CM_PER_M,
+            DepthUnit::Millimetre => x / MM_PER_M,
             DepthUnit::Inch => x / IN_PER_M,
             DepthUnit::Foot => x / FT_PER_M,
         }
@@ -127,6 +134,9 @@ impl DepthUnit {
             "m" | "metre" | "metres" | "meter" | "meters" => Some(DepthUnit::Metre),
             "cm" | "centimetre" | "centimetres" | "centimeter" | "centimeters" => {
                 Some(DepthUnit::Centimetre)
+            }
+            "mm" | "millimetre" | "millimetres" | "millimeter" | "millimeters" => {
+                Some(DepthUnit::Millimetre)
             }
             "in" | "inch" | "inches" | "\"" => Some(DepthUnit::Inch),
             "ft" | "foot" | "feet" | "'" => Some(DepthUnit::Foot),
@@ -162,7 +172,9 @@ impl DensityUnit {
             "kg/m3" | "kg/m³" | "kgm-3" | "kg/cubicmetre" | "kg/cubicmeter" => {
                 Some(DensityUnit::KgPerM3)
             }
-            "lb/ft3" | "lb/ft³" | "lbft-3" | "pcf" | "lb/cubicfoot" => Some(DensityUnit::LbPerFt3),
+            "lb/ft3" | "lb/ft³" | "lbft-3" | "lb/cuft" | "pcf" | "lb/cubicfoot" => {
+                Some(DensityUnit::LbPerFt3)
+            }
             _ => None,
         }
     }
@@ -285,6 +297,8 @@ pub struct CsvImport {
     pub skipped: Vec<LineProblem>,
     /// Days filled in by interpolation ([`CsvOptions::max_gap_fill_days`]).
     pub filled_days: usize,
+    /// The units the header named, column by column (the data were read in them).
+    pub header_units: Vec<HeaderUnit>,
 }
 
 /// A capped list of problems.
@@ -329,41 +343,84 @@ fn name_key(s: &str) -> String {
         .join(" ")
 }
 
-/// Which column a header cell names, and the unit it states (from brackets or an SI key).
-fn column_of(cell: &str) -> Option<(DayField, Option<String>)> {
-    let cell = cell.trim();
-    let (name, unit) = match cell.find(['(', '[']) {
-        Some(i) => {
-            let rest = cell[i + 1..].trim_end();
-            let rest = rest
-                .strip_suffix(')')
-                .or_else(|| rest.strip_suffix(']'))
-                .unwrap_or(rest);
-            (&cell[..i], Some(rest.trim().to_string()))
-        }
-        None => (cell, None),
-    };
-    let key = name_key(name);
-    let field = match key.as_str() {
+/// The name of a column, as a [`name_key`], → its field.
+fn field_of_name(key: &str) -> Option<DayField> {
+    Some(match key {
         "date" | "day" => DayField::Date,
         "mean air temperature"
         | "mean air temp"
+        | "mean air"
+        | "average air temperature"
+        | "average air temp"
+        | "avg air temperature"
+        | "avg air temp"
         | "air temperature"
         | "air temp"
         | "mean temperature"
         | "mean temp"
+        | "average temperature"
+        | "average temp"
+        | "avg temperature"
+        | "avg temp"
+        | "daily mean temperature"
+        | "tmean"
+        | "t mean"
+        | "tavg"
+        | "t avg"
         | "temperature"
         | "temp" => DayField::MeanAir,
-        "snow depth" | "depth of snow" | "snow on ground" | "snow" => DayField::SnowDepth,
+        "snow depth" | "depth of snow" | "snow on ground" | "snwd" | "snow" => DayField::SnowDepth,
         "snow density" | "density of snow" | "density" => DayField::SnowDensity,
-        "mean air c" if unit.is_none() => return Some((DayField::MeanAir, Some("°C".into()))),
-        "snow depth m" if unit.is_none() => return Some((DayField::SnowDepth, Some("m".into()))),
-        "snow density kg m3" if unit.is_none() => {
-            return Some((DayField::SnowDensity, Some("kg/m³".into())))
-        }
         _ => return None,
-    };
-    Some((field, unit))
+    })
+}
+
+/// Whether `s` names a unit of any column (what a name may end with after `_` or a space).
+fn is_unit_word(s: &str) -> bool {
+    TemperatureUnit::from_text(s).is_some()
+        || DepthUnit::from_text(s).is_some()
+        || DensityUnit::from_text(s).is_some()
+}
+
+/// Which column a header cell names, and the unit it states: in brackets or parentheses
+/// (`snow depth (cm)`, `air temp [°F]`), or as the last word after `_` or a space
+/// (`snow_depth_cm`, `tmean degF`, `snow_density_kg_m3`).
+fn column_of(cell: &str) -> Option<(DayField, Option<String>)> {
+    let cell = cell.trim();
+    if let Some(i) = cell.find(['(', '[']) {
+        let rest = cell[i + 1..].trim_end();
+        let rest = rest
+            .strip_suffix(')')
+            .or_else(|| rest.strip_suffix(']'))
+            .unwrap_or(rest);
+        let field = field_of_name(&name_key(&cell[..i]))?;
+        return Some((field, Some(rest.trim().to_string())));
+    }
+    let key = name_key(cell);
+    if let Some(field) = field_of_name(&key) {
+        return Some((field, None));
+    }
+    // A unit as the last word, or the last two (`kg m3`, `lb ft3`, `deg c`).
+    let words: Vec<&str> = key.split(' ').collect();
+    for n in [2, 1] {
+        if words.len() <= n {
+            continue;
+        }
+        let (name, unit) = words.split_at(words.len() - n);
+        let unit = unit.join("/");
+        let unit = if n == 2 && unit.starts_with("deg/") {
+            unit.replace('/', "")
+        } else {
+            unit
+        };
+        if !is_unit_word(&unit) {
+            continue;
+        }
+        if let Some(field) = field_of_name(&name.join(" ")) {
+            return Some((field, Some(unit)));
+        }
+    }
+    None
 }
 
 /// Quote a cell for a message, shortened.
@@ -453,6 +510,9 @@ pub fn read_daily_csv(text: &str, options: &CsvOptions) -> Result<CsvImport, Csv
         Some((line, Ok(r))) => (line, r),
     };
     let mut columns: Vec<DayField> = Vec::with_capacity(header.len());
+    // The units the data are read in: the header's where it names them, else the chosen.
+    let mut read_as = *options;
+    let mut header_units = Vec::new();
     for (i, cell) in header.iter().enumerate() {
         let at = Some(header_line);
         match column_of(cell) {
@@ -476,8 +536,10 @@ pub fn read_daily_csv(text: &str, options: &CsvOptions) -> Result<CsvImport, Csv
                     ));
                 }
                 if let Some(u) = unit {
-                    if let Some(kind) = header_unit_problem(field, &u, options) {
-                        problems.push(LineProblem::new(at, Some(field.name()), kind));
+                    match take_header_unit(field, &u, options, &mut read_as) {
+                        Ok(h) if field != DayField::Date => header_units.push(h),
+                        Ok(_) => {}
+                        Err(kind) => problems.push(LineProblem::new(at, Some(field.name()), kind)),
                     }
                 }
                 columns.push(field);
@@ -497,6 +559,7 @@ pub fn read_daily_csv(text: &str, options: &CsvOptions) -> Result<CsvImport, Csv
         return Err(problems.into_error());
     }
 
+    let options = &read_as;
     let skip = options.bad_lines == BadLines::Skip;
     let mut skipped = Problems::default();
     let mut skipped_lines = 0usize;
@@ -618,6 +681,7 @@ pub fn read_daily_csv(text: &str, options: &CsvOptions) -> Result<CsvImport, Csv
         skipped_lines,
         skipped: skipped.list,
         filled_days,
+        header_units,
     })
 }
 
@@ -658,40 +722,72 @@ fn lines(text: &str) -> impl Iterator<Item = (usize, Result<csv::StringRecord, S
     })
 }
 
-fn header_unit_problem(field: DayField, unit: &str, o: &CsvOptions) -> Option<InputErrorKind> {
-    let (stated, chosen, accepted) = match field {
-        DayField::Date => {
-            return Some(InputErrorKind::Format(format!(
-                "a date has no unit (got {})",
-                quoted(unit)
-            )))
-        }
-        DayField::MeanAir => (
-            TemperatureUnit::from_text(unit).map(TemperatureUnit::symbol),
-            o.temperature.symbol(),
-            "°C or °F",
-        ),
-        DayField::SnowDepth => (
-            DepthUnit::from_text(unit).map(DepthUnit::symbol),
-            o.snow_depth.symbol(),
-            "m, cm, in or ft",
-        ),
-        DayField::SnowDensity => (
-            DensityUnit::from_text(unit).map(DensityUnit::symbol),
-            o.snow_density.symbol(),
-            "kg/m³ or lb/ft³",
-        ),
-    };
-    match stated {
-        None => Some(InputErrorKind::Format(format!(
+/// A unit read from the header, where it names one.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct HeaderUnit {
+    pub column: DayField,
+    /// The unit's symbol as this reader writes it (`cm`, `°F`, `kg/m³`).
+    pub unit: &'static str,
+    /// The unit chosen in the options, which the header's overrode when they differ.
+    pub chosen: &'static str,
+}
+
+impl HeaderUnit {
+    /// Whether the header said another unit than the one chosen.
+    pub fn overrides(&self) -> bool {
+        self.unit != self.chosen
+    }
+}
+
+/// Take the unit a header names for `field` into `o` (the header wins over the chosen
+/// unit); a unit the column cannot take is a problem.
+fn take_header_unit(
+    field: DayField,
+    unit: &str,
+    chosen: &CsvOptions,
+    o: &mut CsvOptions,
+) -> Result<HeaderUnit, InputErrorKind> {
+    let refused = |accepted: &str| {
+        InputErrorKind::Format(format!(
             "{} is not a unit this column takes ({accepted})",
             quoted(unit)
-        ))),
-        Some(s) if s != chosen => Some(InputErrorKind::Format(format!(
-            "the header says {s} but {chosen} was chosen: choose the unit that matches the file"
-        ))),
-        Some(_) => None,
-    }
+        ))
+    };
+    let (unit, chosen) = match field {
+        DayField::Date => {
+            if unit_key(unit) == "yyyy-mm-dd" {
+                return Ok(HeaderUnit {
+                    column: field,
+                    unit: "YYYY-MM-DD",
+                    chosen: "YYYY-MM-DD",
+                });
+            }
+            return Err(InputErrorKind::Format(format!(
+                "a date has no unit (got {})",
+                quoted(unit)
+            )));
+        }
+        DayField::MeanAir => {
+            let u = TemperatureUnit::from_text(unit).ok_or_else(|| refused("°C or °F"))?;
+            o.temperature = u;
+            (u.symbol(), chosen.temperature.symbol())
+        }
+        DayField::SnowDepth => {
+            let u = DepthUnit::from_text(unit).ok_or_else(|| refused("m, cm, mm, in or ft"))?;
+            o.snow_depth = u;
+            (u.symbol(), chosen.snow_depth.symbol())
+        }
+        DayField::SnowDensity => {
+            let u = DensityUnit::from_text(unit).ok_or_else(|| refused("kg/m³ or lb/ft³"))?;
+            o.snow_density = u;
+            (u.symbol(), chosen.snow_density.symbol())
+        }
+    };
+    Ok(HeaderUnit {
+        column: field,
+        unit,
+        chosen,
+    })
 }
 
 /// Parse one data line: its date if that could be read, the day if every cell could, and

@@ -21,10 +21,10 @@
 //! - **Hand methods** beside the run ([`HandMethodRow`], ids `stefan`, `stefan-resistance`,
 //!   `berggren`, `transient`): Stefan's law for the first freezing layer, Stefan's law
 //!   under the layers above it as a resistance, modified Berggren through every layer, and
-//!   the run itself, each from the run's ground-surface freezing index
-//!   ([`crate::physics::hand`]).
-//! - **CSV**: [`daily_csv_in`] (the daily series in either unit system; [`daily_csv`] in
-//!   SI) and [`profiles_csv`] (a row per kept day, a column per cell centre), units in the
+//!   the run itself, each from the run's ground-surface freezing index (over several
+//!   winters, that of the winter with the largest, and its season: [`crate::physics::hand`]).
+//! - **CSV**: [`daily_csv_in`] (the daily series in either unit system, dated when the
+//!   climate is daily records; [`daily_csv`] in SI) and [`profiles_csv`] (a row per kept day, a column per cell centre), units in the
 //!   headers; the CLI's `--csv` and `--profiles-csv`, and the page's buttons.
 //! - **The least thickness** ([`LeastThicknessDoc`], [`LeastThicknessReport`]) lives here
 //!   with its section; its sliced job is in [`crate::document::winter_least`].
@@ -475,6 +475,10 @@ pub struct WinterReport {
     /// of the JSON report (the CLI writes it as CSV on request).
     #[serde(skip)]
     pub profiles: Vec<DayProfile>,
+    /// The date of day 0 when the climate is daily records (the daily CSV then dates each
+    /// row); `None` for a sine year or a design winter. Left out of the JSON report.
+    #[serde(skip)]
+    pub start_date: Option<chrono::NaiveDate>,
 }
 
 /// One method's deepest frost for the winter run's case.
@@ -491,14 +495,52 @@ pub struct HandMethodRow {
 }
 
 /// The hand methods of [`hand`] on the winter run's own case, so that users see how
-/// conservative each is. All take the run's ground-surface freezing index (under the snow
-/// when there is snow) as the surface index nF, and the layers from the top face down.
+/// conservative each is. All take the ground-surface freezing index of the run's design
+/// winter (under the snow when there is snow) as the surface index nF, and the layers from
+/// the top face down. A run of a year or less is one winter and its index the run's; a
+/// longer one is cut into winters ([`hand::surface_winters`], at the warmest moment of the
+/// climate's annual wave, `coldest_s` + half a year) and the design winter is the one with
+/// the largest index: modified Berggren takes that winter's days below 0 °C as its season
+/// (the note counts the winters whose surface freezes).
 fn hand_methods(
     r: &RunResult,
     layers: &[(f64, Material)],
     climate_mean_c: f64,
+    coldest_s: f64,
 ) -> Vec<HandMethodRow> {
-    let fs = r.surface_freezing_index_c_days * 86_400.0;
+    let surface: Vec<(f64, f64)> = r.samples.iter().map(|s| (s.time_s, s.surface_c)).collect();
+    let season = hand::SurfaceSeason::of(&surface);
+    let v0 = season.mean_annual_c(climate_mean_c);
+    // The winters of a run longer than one, those whose surface freezes, in order.
+    let pieces = hand::surface_winters(&surface, coldest_s);
+    let several = pieces.len() > 1;
+    let winters: Vec<_> = pieces
+        .into_iter()
+        .filter(|w| w.freezing_index_k_s > 0.0)
+        .collect();
+    let design = winters
+        .iter()
+        .enumerate()
+        .max_by(|a, b| a.1.freezing_index_k_s.total_cmp(&b.1.freezing_index_k_s))
+        .filter(|_| several);
+    let (fs, days_below, which) = match design {
+        Some((i, w)) => (
+            w.freezing_index_k_s,
+            w.days_below,
+            format!(
+                "; winter {} of {}, days {:.0}–{:.0}, the largest index",
+                i + 1,
+                winters.len(),
+                w.start_s / 86_400.0,
+                w.end_s / 86_400.0
+            ),
+        ),
+        None => (
+            r.surface_freezing_index_c_days * 86_400.0,
+            season.days_below,
+            String::new(),
+        ),
+    };
     let mut rows = Vec::new();
     match hand::first_freezing(layers) {
         Some(first) => {
@@ -508,16 +550,21 @@ fn hand_methods(
                 method: "stefan",
                 name: "Stefan's law",
                 depth_m: Some(hand::stefan_m(m, fs)),
-                note: format!("{} alone from the surface, latent heat only", m.label),
+                note: format!(
+                    "{} alone from the surface, latent heat only{which}",
+                    m.label
+                ),
             });
             rows.push(HandMethodRow {
                 method: "stefan-resistance",
                 name: "Stefan's law under the layers above",
                 depth_m: Some(above + hand::stefan_under_resistance_m(m, fs, r_above)),
                 note: if above > 0.0 {
-                    format!("the {above:.3} m above it as a resistance of {r_above:.2} m²K/W")
+                    format!(
+                        "the {above:.3} m above it as a resistance of {r_above:.2} m²K/W{which}"
+                    )
                 } else {
-                    "nothing above it: the same as Stefan's law".into()
+                    format!("nothing above it: the same as Stefan's law{which}")
                 },
             });
         }
@@ -528,17 +575,13 @@ fn hand_methods(
             note: "no layer holds water that freezes".into(),
         }),
     }
-    let surface: Vec<(f64, f64)> = r.samples.iter().map(|s| (s.time_s, s.surface_c)).collect();
-    let season = hand::SurfaceSeason::of(&surface);
-    let days_below = season.days_below;
-    let v0 = season.mean_annual_c(climate_mean_c);
     rows.push(match hand::berggren_m(layers, fs, v0, days_below) {
         Ok(b) => HandMethodRow {
             method: "berggren",
             name: "Modified Berggren",
             depth_m: Some(b.depth_m),
             note: format!(
-                "every layer; λ {:.3}, α {:.2}, season {days_below:.0} days, mean {v0:.1} °C",
+                "every layer; λ {:.3}, α {:.2}, season {days_below:.0} days, mean {v0:.1} °C{which}",
                 b.lambda, b.alpha
             ),
         },
@@ -631,6 +674,9 @@ pub struct WinterJob {
     /// The column's depth as run (the layers given and any ground added below them), m.
     modelled_depth_m: f64,
     bottom: DeepDoc,
+    /// When the annual wave is coldest, s from the start (where the hand methods' winters
+    /// are cut: half a year on).
+    climate_coldest_s: f64,
 }
 
 fn run_error(e: crate::physics::transient::TransientError) -> InputErrors {
@@ -648,7 +694,8 @@ impl WinterJob {
         layers: &[LayerDoc],
     ) -> Result<WinterJob, InputErrors> {
         let (spec, climate) = w.run_spec(stack, layers)?;
-        let climate_mean_c = climate.annual_wave().mean_c;
+        let wave = climate.annual_wave();
+        let (climate_mean_c, climate_coldest_s) = (wave.mean_c, wave.coldest_s);
         let run = run::Run::new(&spec).map_err(run_error)?;
         let mut warnings = Vec::new();
         if matches!(spec.top, TopModel::NFactor { .. }) {
@@ -697,6 +744,7 @@ impl WinterJob {
             climate_mean_c,
             modelled_depth_m: spec.thicknesses_m.iter().sum(),
             bottom: w.bottom.clone(),
+            climate_coldest_s,
         })
     }
 
@@ -748,9 +796,18 @@ impl WinterJob {
                 self.climate_mean_c,
             ));
         }
-        let hand = hand_methods(&r, &self.hand_layers, self.climate_mean_c);
+        let hand = hand_methods(
+            &r,
+            &self.hand_layers,
+            self.climate_mean_c,
+            self.climate_coldest_s,
+        );
         let mut report = report_of(r, self.faces_m, self.layer_names);
         report.hand_methods = hand;
+        report.start_date = match &self.climate {
+            Climate::Series(s) => Some(s.first_date()),
+            _ => None,
+        };
         report.warnings = warnings;
         report.freezable_top_m = self.freezable_top_m;
         report.modelled_depth_m = self.modelled_depth_m;
@@ -917,6 +974,7 @@ fn report_of(r: RunResult, faces_m: Vec<f64>, layer_names: Vec<String>) -> Winte
         freezable_top_m: 0.0,
         least_thickness: None,
         hand_methods: Vec::new(),
+        start_date: None,
         profiles: r
             .profiles
             .into_iter()
@@ -940,7 +998,11 @@ pub fn daily_csv(r: &WinterReport) -> String {
 }
 
 /// The daily series as CSV text in the chosen units, units in the header. Values carry a
-/// few more decimals than the page shows, so a spreadsheet can redo its sums.
+/// few more decimals than the page shows, so a spreadsheet can redo its sums. When the
+/// climate is daily records ([`WinterReport::start_date`]), a `date` column (YYYY-MM-DD)
+/// follows the day number: day n is 00:00 of the n-th date after the record's first (the
+/// row's values are those at that moment, the end of the day before), as the page names
+/// the days of a record. A sine year or a design winter keeps day numbers only.
 pub fn daily_csv_in(r: &WinterReport, sys: crate::physics::units::UnitSystem) -> String {
     use crate::physics::units::quantity;
     let cols: [(&str, &str); 6] = [
@@ -952,6 +1014,9 @@ pub fn daily_csv_in(r: &WinterReport, sys: crate::physics::units::UnitSystem) ->
         ("snow depth", "depth"),
     ];
     let mut out = String::from("day");
+    if r.start_date.is_some() {
+        out.push_str(",date");
+    }
     for (name, q) in cols {
         let sym = quantity(q).map_or("", |q| q.unit(sys).symbol);
         out.push_str(&format!(",{name} [{sym}]"));
@@ -967,6 +1032,15 @@ pub fn daily_csv_in(r: &WinterReport, sys: crate::physics::units::UnitSystem) ->
             d.snow_depth_m,
         ];
         out.push_str(&format!("{:.3}", d.day));
+        if let Some(first) = r.start_date {
+            let date = u64::try_from(d.day.round() as i64)
+                .ok()
+                .and_then(|n| first.checked_add_days(chrono::Days::new(n)));
+            out.push(',');
+            if let Some(date) = date {
+                out.push_str(&date.format("%Y-%m-%d").to_string());
+            }
+        }
         for ((_, q), v) in cols.iter().zip(values) {
             let (shown, places) = quantity(q).map_or((v, 3), |q| {
                 (q.show(sys, v), usize::from(q.unit(sys).decimals) + 2)

@@ -12,7 +12,18 @@
 //!   TM 5-852-6 / UFC 3-130-04): k and C the means of frozen and unfrozen (TM 5-852-6, from
 //!   memory); the mean annual temperature v₀ is the ground surface's mean over the run when
 //!   it lasts a year or more, else the climate's annual mean; the freezing season is the
-//!   time the ground surface spends below 0 °C. Not applicable when v₀ < 0 °C (permafrost).
+//!   time the ground surface spends below 0 °C in the design winter. Not applicable when
+//!   v₀ < 0 °C (permafrost).
+//!
+//! **Winters.** The method is posed for one freezing season: the design winter's freezing
+//! index and the length of that same season (TM 5-852-6 / UFC 3-130-04, where the design
+//! freezing index is that of one winter and the season is its duration, from memory). A run
+//! of a year or less ([`ONE_WINTER_DAYS`]) is one winter. A longer run (a multi-year record)
+//! is cut into winters by [`surface_winters`] at the warmest moment of the climate's annual
+//! wave, half a year after its coldest, every 365 days (a rule of this tool, common
+//! practice, no source); each winter has its own freezing index (the range of its
+//! cumulative degree-day curve) and its own days below 0 °C, and every hand method takes
+//! the winter with the largest index.
 //!
 //! Indices here are in K·s (°C·days × 86 400).
 
@@ -113,6 +124,74 @@ impl SurfaceSeason {
             climate_mean_c
         }
     }
+}
+
+/// A run no longer than this many days is taken as one winter.
+pub const ONE_WINTER_DAYS: f64 = 366.0;
+
+/// One winter of a run at the ground surface.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SurfaceWinter {
+    /// Its first and last moment, s from the start of the run.
+    pub start_s: f64,
+    pub end_s: f64,
+    /// Its freezing index at the surface (the range of its cumulative degree-day curve), K·s.
+    pub freezing_index_k_s: f64,
+    /// Its time below 0 °C, days.
+    pub days_below: f64,
+}
+
+/// The run's ground surface (samples as in [`SurfaceSeason::of`]) cut into winters at the
+/// warmest moment of the annual wave whose coldest moment is `coldest_s` (s from the start
+/// of the run): at `coldest_s` + 182.5 days, and every 365 days from there. A run of at
+/// most [`ONE_WINTER_DAYS`] is one winter. Each interval counts with the temperature at its
+/// end, in the winter where it ends.
+pub fn surface_winters(samples: &[(f64, f64)], coldest_s: f64) -> Vec<SurfaceWinter> {
+    let (Some(first), Some(last)) = (samples.first(), samples.last()) else {
+        return Vec::new();
+    };
+    let year = 365.0 * DAY;
+    let one = last.0 - first.0 <= ONE_WINTER_DAYS * DAY;
+    let warmest = (coldest_s + 0.5 * year).rem_euclid(year);
+    // The index of the winter a moment falls in (0 before the first cut).
+    let winter_of = |t: f64| -> i64 {
+        if one || t <= warmest {
+            0
+        } else {
+            ((t - warmest) / year).ceil() as i64
+        }
+    };
+    let mut out: Vec<SurfaceWinter> = Vec::new();
+    let (mut current, mut cum, mut top, mut range, mut below) = (-1i64, 0.0, 0.0, 0.0, 0.0);
+    let mut start = first.0;
+    let flush = |out: &mut Vec<SurfaceWinter>, start: f64, end: f64, range: f64, below: f64| {
+        out.push(SurfaceWinter {
+            start_s: start,
+            end_s: end,
+            freezing_index_k_s: range,
+            days_below: below / DAY,
+        });
+    };
+    for w in samples.windows(2) {
+        let k = winter_of(w[1].0);
+        if k != current {
+            if current >= 0 {
+                flush(&mut out, start, w[0].0, range, below);
+            }
+            (current, cum, top, range, below, start) = (k, 0.0, 0.0, 0.0, 0.0, w[0].0);
+        }
+        let dt = w[1].0 - w[0].0;
+        if w[1].1 < 0.0 {
+            below += dt;
+        }
+        cum += w[1].1 * dt;
+        top = f64::max(top, cum);
+        range = f64::max(range, top - cum);
+    }
+    if current >= 0 {
+        flush(&mut out, start, last.0, range, below);
+    }
+    out
 }
 
 /// Why the modified Berggren method gives no depth.

@@ -78,6 +78,8 @@ pub const DEG_F_PER_K: f64 = 1.8;
 pub const DEG_F_AT_0_C: f64 = 32.0;
 /// m → cm (SI prefix).
 pub const CM_PER_M: f64 = 100.0;
+/// m → mm (SI prefix).
+pub const MM_PER_M: f64 = 1000.0;
 /// m → ft.
 pub const FT_PER_M: f64 = 1.0 / 0.3048;
 /// m → in.

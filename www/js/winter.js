@@ -2,8 +2,8 @@
 // and its run: the core's winter job, started 200 ms after each good steady compute and
 // advanced a slice at a time (see jobs.js); any newer input cancels the run under way. Its
 // report and charts (the day slider redraws only the profile of that day, from the
-// profiles kept in the finished run), the least-thickness search (#w-design) and the
-// import of a daily record from a CSV file.
+// profiles kept in the finished run) and the least-thickness search (#w-design); the
+// import of a daily record from a CSV file is in climate-import.js.
 import { $, el, clear, focusField, jobChart } from './dom.js';
 import { core, coreDefault } from './core.js';
 import { state, flow, clone } from './state.js';
@@ -13,6 +13,7 @@ import { slicedRun, searchBox } from './jobs.js';
 import { download, fileStem } from './downloads.js';
 import { section } from './section.js';
 import { climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
+import { setUpImport, renderClimateSummary, forgetChosenFile } from './climate-import.js';
 
 // ---------- a new winter section and its parts (the core's defaults) ----------
 const defaultInitial = (kind) => coreDefault('initials', kind);
@@ -242,89 +243,19 @@ function renderLeastReport() {
 }
 
 // ---------- a daily record ----------
-function importOptions() {
-  return {
-    temperature: $('imp-temp').value,
-    snow_depth: $('imp-depth').value,
-    snow_density: $('imp-density').value,
-    skip_bad_lines: $('imp-skip').checked,
-    fill_gaps_days: $('imp-fill').checked ? 7 : 0,
-    season_start_month: Number($('imp-month').value),
-  };
-}
+// The import itself and the record's summary are in climate-import.js. Until a record is
+// read, a daily climate has no days: the run waits for one, with a hint and no error.
+const awaitingRecord = () => {
+  const w = state.scenario.winter;
+  return !!w && w.climate.kind === 'daily' && !(w.climate.days && w.climate.days.length);
+};
 
-function importCsv(ev) {
-  const file = ev.target.files && ev.target.files[0];
-  const list = $('imp-problems');
+function runOrWait(blocked) {
+  if (!awaitingRecord()) { winterRun.schedule(blocked); return; }
+  winterRun.cancel();
+  const list = $('w-errors');
   clear(list); list.hidden = true;
-  if (!file) return;
-  const reader = new FileReader();
-  reader.onload = () => {
-    const res = core.W.import_climate_csv(String(reader.result), importOptions());
-    ev.target.value = '';
-    if (!res.ok) {
-      for (const e of res.errors || []) list.append(el('li', { text: e.message }));
-      for (const p of res.problems || []) list.append(el('li', { text: p.message }));
-      if (res.more_problems) list.append(el('li', { text: '… and ' + res.more_problems + ' more' }));
-      list.prepend(el('li', { class: 'lead', text: file.name + ' was not read:' }));
-      list.hidden = false;
-      return;
-    }
-    state.scenario.winter.climate = { kind: 'daily', days: res.days };
-    delete state.scenario.winter.duration_days;
-    winter.summary = Object.assign({ file: file.name }, res.summary);
-    if (res.problems && res.problems.length) {
-      list.append(el('li', { class: 'lead', text: 'Read, leaving out ' + res.summary.skipped_lines + ' bad line(s):' }));
-      for (const p of res.problems) list.append(el('li', { text: p.message }));
-      list.hidden = false;
-    }
-    renderWinter();
-    flow.run();
-  };
-  reader.onerror = () => { list.append(el('li', { text: 'The file could not be read.' })); list.hidden = false; };
-  reader.readAsText(file);
-}
-
-function renderClimateSummary() {
-  const box = $('w-climate-summary');
-  clear(box);
-  const c = state.scenario.winter.climate;
-  if (c.kind !== 'daily') { winter.summary = null; return; }
-  const days = c.days || [];
-  if (!days.length) { box.append(el('p', { class: 'hint', text: 'No records yet: read a CSV file.' })); return; }
-  let s = winter.summary;
-  if (!s || s.first_date !== days[0].date || s.days !== days.length) {
-    const r = core.W.summarise_days(days, Number($('imp-month').value));
-    s = winter.summary = r && r.ok ? r.summary : null;
-    if (!s) { box.append(el('p', { class: 'msg error', text: (r && r.errors && r.errors.map((e) => e.message).join('; ')) || 'The records could not be summarised.' })); return; }
-  }
-  box.append(el('p', { id: 'w-record-span', text: (s.file ? s.file + ': ' : '') + s.days + ' days, ' + s.first_date + ' to ' + s.last_date + (s.has_snow ? ', with snow depths' : ', no snow depths') + (s.filled_days ? '; ' + s.filled_days + ' missing days filled in' : '') + '.' }));
-  const t = el('table', { class: 'data', id: 'w-winters' });
-  t.append(el('caption', { class: 'sr-only', text: 'Freezing index of each winter in the record' }));
-  t.append(el('thead', null, el('tr', null, el('th', { text: 'Winter' }), headCell('Freezing index', 'degree_days'), el('th', { text: 'Complete' }))));
-  const tb = el('tbody');
-  for (const x of s.winters) {
-    tb.append(el('tr', null, el('td', { text: x.start.slice(0, 4) + '–' + x.end.slice(0, 4) }), el('td', { class: 'num', text: fmt('degree_days', x.freezing_index_c_days) }), el('td', { text: x.complete ? 'yes' : 'part (' + x.days_present + ' days)' })));
-  }
-  t.append(tb);
-  box.append(el('div', { class: 'table-wrap' }, t));
-  const d = el('p', { id: 'w-design' });
-  if (s.design) {
-    d.append(el('strong', { text: 'Design freezing index: ' }), 'mean of the three coldest winters ' + fmtU('degree_days', s.design.mean_of_three_coldest_c_days) + '; the coldest winter ' + fmtU('degree_days', s.design.coldest_c_days) + ' (of ' + s.design.complete_winters + ' complete winters).');
-    for (const wmsg of s.design.warnings) d.append(el('span', { class: 'msg warning block', text: ' ' + wmsg }));
-    const useBtn = el('button', { type: 'button', class: 'btn small', id: 'w-use-design', text: 'Build a design winter from the mean of the three coldest' });
-    useBtn.addEventListener('click', () => {
-      const w = state.scenario.winter;
-      (winter.past.climate = winter.past.climate || {}).daily = w.climate;
-      const mean = days.reduce((a, x) => a + x.mean_air_c, 0) / days.length;
-      w.climate = { kind: 'design-winter', freezing_index_c_days: Math.round(s.design.mean_of_three_coldest_c_days), season_days: 150, mean_annual_c: Math.round(mean * 10) / 10 };
-      renderWinter(); flow.run();
-    });
-    box.append(d, useBtn);
-  } else {
-    d.append(el('span', { class: 'hint', text: 'No design values: ' + (s.design_note || 'too few complete winters') + '.' }));
-    box.append(d);
-  }
+  winterRun.stale(true, 'Waiting for a daily record: choose a CSV file under Climate.');
 }
 
 // ---------- report ----------
@@ -406,8 +337,7 @@ function drawWinter() {
 
 function setUp() {
   $('w-design-go').addEventListener('click', search.start);
-  $('imp-file').addEventListener('change', importCsv);
-  $('imp-month').addEventListener('change', () => { winter.summary = null; if (state.scenario.winter) renderClimateSummary(); });
+  setUpImport(winter, () => { renderWinter(); flow.run(); });
   $('w-day').addEventListener('input', (e) => {
     winter.day = Number(e.target.value);
     $('w-day-out').textContent = winterDay(winter.day);
@@ -428,7 +358,7 @@ export const winterSection = section({
   render: renderWinter,
   owners: winterOwners,
   edited: () => search.stale(),
-  run: (blocked) => winterRun.schedule(blocked),
+  run: runOrWait,
   showUnits() {
     if (winterRun.report) { renderWinterReport(); drawWinter(); }
   },
@@ -439,6 +369,7 @@ export const winterSection = section({
     winter.day = null;
     winter.past = {};
     winter.summary = null;
+    forgetChosenFile();
     winter.least = null;
     search.reset();
     $('w-csv').disabled = true;
