@@ -318,6 +318,7 @@ function leastDraft() {
   if (!edge.least) {
     if (e && e.least) edge.least = clone(e.least);
     else edge.least = defaultLeast(e);
+    edge.leastUntouched = e && e.least ? null : JSON.stringify(edge.least);
   }
   return edge.least;
 }
@@ -419,6 +420,13 @@ export const edgeSection = section({
   edited: () => search.edited(),
   run: (blocked) => edgeRun.schedule(blocked),
   showUnits() {
+    // A search set up by default and never edited nor run starts again from the round
+    // range of the new units.
+    const e = state.scenario.edge;
+    if (edge.least && JSON.stringify(edge.least) === edge.leastUntouched && e && !e.least) {
+      edge.least = null;
+      renderLeastFields();
+    }
     if (edgeRun.report) { renderEdgeReport(); drawEdge(); }
     // The answer in the new units, as fresh as it was.
     search.show();

@@ -166,7 +166,10 @@ function layersMoved(map) {
 
 function leastDraft() {
   const w = state.scenario.winter;
-  if (!winter.least) winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
+  if (!winter.least) {
+    winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
+    winter.leastUntouched = w && w.least_thickness ? null : JSON.stringify(winter.least);
+  }
   const d = winter.least;
   const n = state.scenario.layers.length;
   if (d.layer >= n) d.layer = n - 1;
@@ -429,6 +432,12 @@ export const winterSection = section({
   edited: () => search.edited(),
   run: (blocked) => winterRun.schedule(blocked),
   showUnits() {
+    // A search set up by default and never edited nor run starts again from the round
+    // range of the new units (one that was edited or run is kept as it is).
+    if (winter.least && JSON.stringify(winter.least) === winter.leastUntouched && state.scenario.winter && !state.scenario.winter.least_thickness) {
+      winter.least = null;
+      renderLeastFields();
+    }
     if (winterRun.report) { renderWinterReport(); drawWinter(); }
     // The search's answer in the new units; a change of units leaves it as fresh as it was.
     search.show();
