@@ -147,8 +147,13 @@ fn depths_and_lengths_are_written_in_feet_and_inches_to_the_inch() {
     assert_eq!(us("depth", 11.6 * 0.0254), "1 ft 0 in");
     // Rounded up: 1.01 in → 2 in.
     assert_eq!(us_text("depth", 1.01 * 0.0254, Rounding::Up), "2 in");
-    // Negative (above a base): the page's minus sign.
-    assert_eq!(us("depth", -0.3048), "\u{2212}1 ft 0 in");
+    // Negative (above a base): the typographic minus in text, the typed one in an input.
+    assert_eq!(
+        us_text("depth", -0.3048, Rounding::Nearest),
+        "\u{2212}1 ft 0 in"
+    );
+    assert_eq!(us("depth", -0.3048), "-1 ft 0 in");
+    assert_eq!(us("thickness", -2.0 * 0.0254), "-2");
     // Not finite: a dash.
     assert_eq!(us("depth", f64::NAN), "\u{2013}");
 }

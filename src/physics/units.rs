@@ -370,12 +370,13 @@ fn rounded(x: f64, rounding: Rounding) -> f64 {
     }
 }
 
-/// A number with the page's minus sign (U+2212) and no "−0".
-fn signed(negative: bool, body: String) -> String {
-    if negative {
-        format!("\u{2212}{body}")
-    } else {
-        body
+/// A number with its sign: the typographic minus (U+2212) in text, the hyphen-minus one
+/// types in an input.
+fn signed(negative: bool, body: String, form: Form) -> String {
+    match (negative, form) {
+        (false, _) => body,
+        (true, Form::Text) => format!("\u{2212}{body}"),
+        (true, Form::Input) => format!("-{body}"),
     }
 }
 
@@ -410,7 +411,7 @@ pub fn write(q: &Quantity, sys: UnitSystem, si: f64, rounding: Rounding, form: F
             let shown = rounded(q.show(sys, si) * scale, rounding) / scale;
             let body = format!("{:.*}", unit.decimals as usize, shown.abs());
             let negative = shown < 0.0 && body.bytes().any(|b| (b'1'..=b'9').contains(&b));
-            let number = signed(negative, body);
+            let number = signed(negative, body, form);
             if form == Form::Text && !unit.symbol.is_empty() {
                 format!("{number}{space}{}", unit.symbol)
             } else {
@@ -420,7 +421,7 @@ pub fn write(q: &Quantity, sys: UnitSystem, si: f64, rounding: Rounding, form: F
         Written::InchFractions { denominator } => {
             let steps = rounded(si / M_PER_IN * denominator as f64, rounding);
             let body = inch_text(steps.abs() as u64, denominator, space);
-            let number = signed(steps < 0.0, body);
+            let number = signed(steps < 0.0, body, form);
             match form {
                 Form::Text => format!("{number}{space}in"),
                 Form::Input => number,
@@ -435,7 +436,7 @@ pub fn write(q: &Quantity, sys: UnitSystem, si: f64, rounding: Rounding, form: F
             } else {
                 format!("{ft}{space}ft{space}{inch}{space}in")
             };
-            signed(steps < 0.0, body)
+            signed(steps < 0.0, body, form)
         }
     }
 }
