@@ -214,6 +214,14 @@ fn feet_and_inches_read_as_people_type_them() {
     ] {
         assert_eq!(read_feet_inches(bad, true), None, "{bad:?}");
     }
+    // Odd text and extreme values never panic.
+    for odd in ["'", "\"", "\u{2212}", "1e400"] {
+        assert_eq!(read_feet_inches(odd, false), None, "{odd:?}");
+    }
+    for v in [f64::INFINITY, -1e300, 1e300] {
+        let _ = us("depth", v);
+        let _ = us_text("thickness", v, Rounding::Up);
+    }
     assert_eq!(read_number("1,5"), Some(1.5));
     assert_eq!(read_number("1e-3"), Some(1e-3));
     assert_eq!(read_number("1.2.3"), None);
