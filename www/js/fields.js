@@ -29,6 +29,8 @@ function converted(q) {
   return state.units !== 'si' && !!u && (u.us.factor !== u.si.factor || u.us.offset !== u.si.offset || u.us.symbol !== u.si.symbol);
 }
 const byCore = (q, si, up, input) => core.W.write_value(q, state.units, si, up, input);
+// Inches per metre, from the core's table (the US unit of a thickness).
+const inchesPerM = () => core.CAT.units.thickness.us.factor;
 
 export function fmtNum(v, decimals) {
   if (v == null || !Number.isFinite(v)) return '–';
@@ -65,7 +67,7 @@ export function fmtUpU(q, si) {
 // "about X" for a change (the frost lifted by a step more of board): a US change too small
 // for its inches reads "less than 1/2 in" rather than "about 0 in".
 export function aboutU(q, si) {
-  if (written(q) === 'feet-inches' && Number.isFinite(si) && Math.abs(si) < 0.0127) return 'less than 1/2\u00a0in';
+  if (written(q) === 'feet-inches' && Number.isFinite(si) && Math.abs(si) * inchesPerM() < 0.5) return 'less than 1/2\u00a0in';
   return 'about ' + fmtU(q, si);
 }
 // A value to place in an input, no trailing zeros: a converted value (US units) as it is
@@ -84,7 +86,7 @@ export function fmtInput(q, si) {
 export function fmtInputU(q, si) {
   if (si == null || !Number.isFinite(si)) return '–';
   const w = written(q);
-  if (w !== 'decimal' && si !== 0 && Math.abs(si) < 0.0254 / 16) return fmtNum(si / 0.0254, 3) + '\u00a0in';
+  if (w !== 'decimal' && si !== 0 && Math.abs(si) * inchesPerM() < 1 / 16) return fmtNum(si * inchesPerM(), 3) + '\u00a0in';
   if (w === 'feet-inches') return byCore(q, si, false, false);
   if (w === 'inch-fractions') return fmtInput(q, si) + '\u00a0in';
   const sym = unit(q).symbol;
