@@ -92,8 +92,11 @@ test('switching to US customary converts every shown value, and back restores th
   const tol = 0.5 * 10 ** -usR.decimals + 5.678263 * 0.5 * 10 ** -siR.decimals + 1e-9;
   assert.ok(Math.abs(usR.value - siR.value * 5.678263) <= tol, `US R ${usR.value} ≈ ${siR.value} × 5.678263`);
   assert.match(await page.locator('#r-total ~ .unit').textContent(), /ft²·°F·h\/Btu/);
-  const inches = parseShown(await thick.inputValue()).value;
-  assert.ok(Math.abs(inches - thicknessM / 0.0254) < 0.01, `thickness shown in inches (${inches})`);
+  // In inches to the nearest 1/8 in, as boards are sold ("15 3/4").
+  const shownIn = /^(\d+)(?: (\d+)\/(\d+))?$/.exec(await thick.inputValue());
+  assert.ok(shownIn, await thick.inputValue());
+  const inches = Number(shownIn[1]) + (shownIn[2] ? Number(shownIn[2]) / Number(shownIn[3]) : 0);
+  assert.ok(Math.abs(inches - thicknessM / 0.0254) <= 1 / 16 + 1e-9, `thickness shown in inches (${inches})`);
   assert.equal((await thick.locator('xpath=following-sibling::*[1]').textContent()).trim(), 'in');
   const f = parseShown(await field(page, 'top.temperature_c').inputValue()).value;
   assert.ok(Math.abs(f - (parseShown(siTempText).value * 1.8 + 32)) < 0.05, 'temperature shown in °F');

@@ -46,11 +46,14 @@ test('a design winter runs on the page: indices as asked and a frost chart drawn
   assert.match(await page.locator('#w-max-frost-when').textContent(), /day \d+ after freeze-up, in layer \d/);
   assert.ok(await inked(page, 'frost-chart') > 2000, 'the frost-depth chart is drawn');
   assert.match(await page.locator('#w-solver').textContent(), /energy balance closes to \d\.\de-\d+/);
-  // US units: the same depth in feet, the index in °F·days (× 1.8, NIST SP 811).
+  // US units: the same depth in feet and inches to the inch (1 ft = 12 in = 0.3048 m, NIST
+  // SP 811), the index in °F·days (× 1.8).
   await page.check('#units-us');
-  await page.waitForFunction(() => /ft$/.test(document.querySelector('#w-max-frost').textContent));
-  const ft = await shown(page, '#w-max-frost');
-  assert.ok(Math.abs(ft.value - frost.value / 0.3048) < 0.01, `${ft.value} ft vs ${frost.value} m`);
+  await page.waitForFunction(() => /\bin$/.test(document.querySelector('#w-max-frost').textContent));
+  const fi = /^(?:(\d+)\u00a0ft\u00a0)?(\d+)\u00a0in$/.exec(await page.locator('#w-max-frost').textContent());
+  assert.ok(fi, 'feet and inches');
+  const inch = Number(fi[1] || 0) * 12 + Number(fi[2]);
+  assert.ok(Math.abs(inch - frost.value / 0.0254) <= 0.5 + 0.02, `${inch} in vs ${frost.value} m`);
   const airF = await shown(page, '#w-air-fi');
   assert.ok(Math.abs(airF.value - air.value * 1.8) <= 2, `${airF.value} °F·days`);
 }));
@@ -309,9 +312,9 @@ test('a reload brings the last work back, in its units, and says so', () => with
   await page.waitForSelector('html[data-ready="true"]', { state: 'attached' });
   assert.equal(await page.inputValue('#f-title'), 'My porch, second try');
   assert.ok(await page.locator('#units-us').isChecked(), 'US units kept');
-  // 75 mm shown in inches: 75 / 25.4 (NIST SP 811).
-  const inches = Number(await field(page, 'layers[1].thickness_m').inputValue());
-  assert.ok(Math.abs(inches - 75 / 25.4) < 0.01, `${inches} in`);
+  // 75 mm shown in inches as boards are sold, to 1/8 in: 75 / 25.4 = 2.953 in (NIST SP 811)
+  // → 23.6 eighths → 3 in.
+  assert.equal(await field(page, 'layers[1].thickness_m').inputValue(), '3');
   assert.ok(await page.locator('#restore-note').isVisible());
   assert.match(await page.locator('#restore-text').textContent(), /last work in this browser is back \(saved \d{4}-\d{2}-\d{2}/);
   await page.click('#start-fresh');

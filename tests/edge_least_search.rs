@@ -92,7 +92,17 @@ fn the_answer_is_the_least_value() {
         assert!(short > 0.0, "at answer − resolution frost is {short} m");
         // The bracket is within the resolution and the slope is a decrease.
         let (a, b) = r.bracket.unwrap();
-        assert!(b - a <= RES && b == v);
+        // (Neighbours on the search's grid, 0 + k·RES, differ by RES and a rounding error.)
+        assert!(b - a <= RES * (1.0 + 1e-9) && b == v);
+        // Every value tried but the range's top lies on that grid.
+        for t in &r.trials {
+            let k = t.value / RES;
+            assert!(
+                t.value == hi || (k - k.round()).abs() < 1e-9,
+                "{} off the grid",
+                t.value
+            );
+        }
         assert!(r.slope.unwrap() < 0.0);
         assert!(r.trials.len() <= MAX_EDGE_RUNS);
     }

@@ -99,6 +99,73 @@ fn the_search_says_when_no_answer_lies_in_the_range() {
     ));
 }
 
+#[test]
+fn the_values_tried_are_round_steps_of_the_resolution() {
+    // Stefan's law under a board (as above: exact least board 0.035 × (0.5184 − 0.0625) / 0.5
+    // = 0.031 91 m = 1.256 in), searched from 0 to 12 in in 1/2 in steps (the page's US
+    // range): every value tried but the top is a whole number of half inches, and the answer
+    // is the first half inch that holds, 1 1/2 in. The same in 2 mm steps over 0–0.3 m.
+    let (k, l, kb) = (2.0, 1.0e8, 0.035);
+    let f = 10.0 * 60.0 * DAY;
+    let x = 0.5;
+    let exact = kb * (f / l - x * x / (2.0 * k)) / x;
+    for (hi, step) in [(12.0 * 0.0254, 0.5 * 0.0254), (0.3, 0.002)] {
+        let s = Search {
+            lo: 0.0,
+            hi,
+            tolerance: step,
+            max_runs: 40,
+        };
+        let answer = least_value(&s, |t| {
+            synthetic(|t| stefan_depth_with_resistance_m(k, l, f, t / kb), x)(t)
+        })
+        .unwrap();
+        let LeastAnswer::Found { value, trials, .. } = answer else {
+            panic!("{answer:?}");
+        };
+        for t in &trials {
+            let n = t.value / step;
+            assert!(
+                t.value == hi || (n - n.round()).abs() < 1e-9,
+                "{} is not a whole number of steps of {step}",
+                t.value
+            );
+        }
+        let want = (exact / step).ceil() * step;
+        assert_abs(value, want, 1e-12, "the first step that holds");
+        assert!(value - exact < step && value >= exact);
+    }
+    // 1 1/2 in exactly: 0.0381 m.
+    assert_abs(
+        (exact / (0.5 * 0.0254)).ceil() * 0.5 * 0.0254,
+        0.0381,
+        1e-12,
+        "1 1/2 in",
+    );
+    // A top off the grid is tried as it is, and the grid still starts at the bottom: 0.1 to
+    // 0.29 m in 0.05 m steps tries only 0.1, 0.15, 0.2, 0.25 besides 0.29.
+    let s = Search {
+        lo: 0.1,
+        hi: 0.29,
+        tolerance: 0.05,
+        max_runs: 40,
+    };
+    let a = least_value(&s, synthetic(|t: f64| 0.6 - 2.0 * t, 0.3)).unwrap();
+    let LeastAnswer::Found { value, trials, .. } = a else {
+        panic!("{a:?}")
+    };
+    assert_abs(value, 0.15, 1e-12, "0.6 − 2t ≤ 0.3 from t = 0.15");
+    for t in &trials {
+        assert!(
+            [0.1, 0.15, 0.2, 0.25, 0.29]
+                .iter()
+                .any(|v| (t.value - v).abs() < 1e-12),
+            "{}",
+            t.value
+        );
+    }
+}
+
 struct Held(f64);
 impl Forcing for Held {
     fn air_c(&self, _t_s: f64) -> f64 {

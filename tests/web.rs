@@ -46,6 +46,44 @@ fn catalogue_lists_every_regression_and_unit() {
 }
 
 #[wasm_bindgen_test]
+fn values_are_written_and_read_as_the_trade_does_and_odd_input_never_throws() {
+    let c = web::catalogue();
+    let units = get(&c, "units");
+    let written = |q: &str, sys: &str| get(&get(&get(&units, q), sys), "written").as_string();
+    assert_eq!(
+        written("thickness", "us").as_deref(),
+        Some("inch-fractions")
+    );
+    assert_eq!(written("depth", "us").as_deref(), Some("feet-inches"));
+    assert_eq!(written("depth", "si").as_deref(), Some("decimal"));
+    // 0.66 m = 25.98 in → 2 ft 2 in; 3 1/2 in = 0.0889 m (1 in = 0.0254 m, NIST SP 811).
+    assert_eq!(
+        web::write_value("depth", "us", 0.66, false, false),
+        "2\u{a0}ft\u{a0}2\u{a0}in"
+    );
+    assert_eq!(
+        web::read_value("thickness", "us", "3 1/2"),
+        Some(3.5 * 0.0254)
+    );
+    for text in [
+        "",
+        "'",
+        "\"",
+        "1/0",
+        "9".repeat(400).as_str(),
+        "2 ft 3 ft",
+        "\u{2212}",
+    ] {
+        assert_eq!(web::read_value("depth", "us", text), None, "{text:?}");
+    }
+    assert_eq!(web::read_value("no-such", "us", "1"), None);
+    for v in [f64::NAN, f64::INFINITY, -1e300, 1e300, 0.0] {
+        let _ = web::write_value("depth", "us", v, true, true);
+        let _ = web::write_value("thickness", "us", v, false, false);
+    }
+}
+
+#[wasm_bindgen_test]
 fn compute_gives_the_series_r_of_the_wall_example() {
     let out = compute(example("snow-block-wall"));
     assert_eq!(get(&out, "ok").as_bool(), Some(true));

@@ -425,9 +425,38 @@ pub fn edge_grid() -> EdgeGridDoc {
     DEFAULT_GRID
 }
 
+/// The range and step a new search starts with, SI, round in the units it is shown in
+/// (the search tries `min + k·resolution`: see [`crate::physics::least::Search`]).
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
+pub struct LeastRange {
+    pub min: f64,
+    pub max: f64,
+    pub resolution: f64,
+}
+
+/// m per inch, exact.
+const IN: f64 = 0.0254;
+/// m²K/W per US R-value (ft²·°F·h/Btu): 1 / 5.678 263 (NIST SP 811).
+const R_US: f64 = 1.0 / crate::physics::units::R_US_PER_R_SI;
+
+/// The least-thickness search of a winter, with SI units: 0 to 30 cm in 2 mm steps.
+pub const LEAST_THICKNESS_SI: LeastRange = LeastRange {
+    min: 0.0,
+    max: 0.3,
+    resolution: 0.002,
+};
+/// With US units: 0 to 12 in in 1/2 in steps (foam boards are sold in 1/2 in steps of
+/// thickness; common practice, no source).
+pub const LEAST_THICKNESS_US: LeastRange = LeastRange {
+    min: 0.0,
+    max: 12.0 * IN,
+    resolution: 0.5 * IN,
+};
+
 /// What the edge's least-insulation search can vary, with the units quantity its values
 /// are shown in, the part it needs, and the range and resolution a new search starts with
-/// (SI). Invented ranges, wide enough for the examples.
+/// (SI, round in SI units; `us`: round in US units). Invented ranges, wide enough for the
+/// examples.
 #[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 pub struct LeastQuantity {
     /// As the format's `edge.least.quantity` names it.
@@ -440,9 +469,14 @@ pub struct LeastQuantity {
     pub min: f64,
     pub max: f64,
     pub resolution: f64,
+    /// The range a new search starts with when the page shows US units.
+    pub us: LeastRange,
 }
 
-/// The four quantities, wing width first.
+/// The four quantities, wing width first. US ranges: wings in 6 in steps up to 6 ft (board
+/// widths are cut from 2 ft × 8 ft sheets, so 6 in is a quarter sheet's width), boards
+/// in whole R-values up to R-35 (boards are labelled in whole R), footings in 2 in steps
+/// from 1 ft to 10 ft (footings are dug and formed to the inch); common practice, no source.
 pub const EDGE_LEAST_QUANTITIES: [LeastQuantity; 4] = [
     LeastQuantity {
         id: "wing-width",
@@ -452,6 +486,11 @@ pub const EDGE_LEAST_QUANTITIES: [LeastQuantity; 4] = [
         min: 0.0,
         max: 2.0,
         resolution: 0.02,
+        us: LeastRange {
+            min: 0.0,
+            max: 72.0 * IN,
+            resolution: 6.0 * IN,
+        },
     },
     LeastQuantity {
         id: "wing-r",
@@ -461,6 +500,11 @@ pub const EDGE_LEAST_QUANTITIES: [LeastQuantity; 4] = [
         min: 0.2,
         max: 6.0,
         resolution: 0.05,
+        us: LeastRange {
+            min: R_US,
+            max: 35.0 * R_US,
+            resolution: R_US,
+        },
     },
     LeastQuantity {
         id: "wall-board-r",
@@ -470,6 +514,11 @@ pub const EDGE_LEAST_QUANTITIES: [LeastQuantity; 4] = [
         min: 0.2,
         max: 6.0,
         resolution: 0.05,
+        us: LeastRange {
+            min: R_US,
+            max: 35.0 * R_US,
+            resolution: R_US,
+        },
     },
     LeastQuantity {
         id: "footing-depth",
@@ -479,6 +528,11 @@ pub const EDGE_LEAST_QUANTITIES: [LeastQuantity; 4] = [
         min: 0.3,
         max: 3.0,
         resolution: 0.02,
+        us: LeastRange {
+            min: 12.0 * IN,
+            max: 120.0 * IN,
+            resolution: 2.0 * IN,
+        },
     },
 ];
 

@@ -16,6 +16,11 @@
 //! grid's faces (cells are re-laid for each run); the tolerance should be above that noise
 //! (millimetres for centimetre cells).
 //!
+//! Every value tried lies on a grid, `lo + k·tolerance` (or is `hi`): the secant or
+//! bisection point is moved to the nearest step strictly inside the bracket, and the
+//! search ends when the bracket's ends are neighbours on it. Round `lo` and `tolerance` in
+//! the units the values are read in give round values tried.
+//!
 //! The search is a stepper, [`Searcher`] (ask it for the next value, run it, hand the trial
 //! back), so a sliced job can run each trial a slice at a time; [`least_value`] drives it
 //! in one call. Its answer is a [`LeastAnswer`]: `Found` (the value, the frost and limit at
@@ -92,7 +97,10 @@ pub enum LeastAnswer {
 pub struct Search {
     pub lo: f64,
     pub hi: f64,
-    /// Stop when the bracket is narrower than this (in the value's unit).
+    /// The step of the values tried (in the value's unit): every trial but `hi` is
+    /// `lo + k·tolerance`, so a search from a round `lo` in round steps tries round values
+    /// (a board in 1/2 in steps, a wing in 6 in steps); the search stops when no step is
+    /// left inside the bracket, so its answer is within this of the least value.
     pub tolerance: f64,
     /// At most this many runs in all (the two ends included).
     pub max_runs: usize,
@@ -204,7 +212,9 @@ impl Searcher {
         let (Some(a), Some(b)) = (self.a, self.b) else {
             return;
         };
-        if b.value - a.value <= self.search.tolerance || self.trials.len() >= self.search.max_runs {
+        // The next value on the grid strictly inside the bracket, if there is one.
+        let next = self.grid_inside(a.value, b.value);
+        if next.is_none() || self.trials.len() >= self.search.max_runs {
             let slope = (b.excess_m() - a.excess_m()) / (b.value - a.value);
             let trials = self.trials.clone();
             return self.end(LeastAnswer::Found {
@@ -226,7 +236,28 @@ impl Searcher {
             let margin = 0.1 * width;
             x.clamp(a.value + margin, b.value - margin)
         };
-        self.pending = Some(x);
+        self.pending = next.map(|(k_lo, k_hi)| self.on_grid(x, k_lo, k_hi));
+    }
+
+    /// The grid's steps strictly between `a` and `b` (`lo + k·tolerance`, k from the first
+    /// to the last returned), or `None` when none is: the bracket is narrowed to its end.
+    fn grid_inside(&self, a: f64, b: f64) -> Option<(f64, f64)> {
+        let (lo, step) = (self.search.lo, self.search.tolerance);
+        if step.is_nan() || step <= 0.0 || step.is_infinite() {
+            return None;
+        }
+        // Float noise in lo + k·step is far below this.
+        let eps = 1e-6;
+        let k_lo = ((a - lo) / step + eps).floor() + 1.0;
+        let k_hi = ((b - lo) / step - eps).ceil() - 1.0;
+        (k_lo <= k_hi).then_some((k_lo, k_hi))
+    }
+
+    /// `x` moved to the nearest step of the grid within steps `k_lo..=k_hi`.
+    fn on_grid(&self, x: f64, k_lo: f64, k_hi: f64) -> f64 {
+        let (lo, step) = (self.search.lo, self.search.tolerance);
+        let k = ((x - lo) / step).round().clamp(k_lo, k_hi);
+        lo + k * step
     }
 
     fn end(&mut self, answer: LeastAnswer) {

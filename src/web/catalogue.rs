@@ -8,7 +8,7 @@ use crate::document::defaults;
 use crate::document::scenario;
 use crate::physics::materials::{Board, SnowRegression, SoilModel, Texture};
 use crate::physics::stack::SURFACE_PRESETS;
-use crate::physics::units::QUANTITIES;
+use crate::physics::units::{self, Quantity, UnitSystem, QUANTITIES};
 use serde::Serialize;
 use std::collections::BTreeMap;
 use wasm_bindgen::prelude::*;
@@ -74,6 +74,9 @@ struct UnitInfo {
     factor: f64,
     offset: f64,
     decimals: u8,
+    /// How its values are written for people (`units::written`): `decimal`,
+    /// `inch-fractions`, `feet-inches`.
+    written: &'static str,
 }
 
 #[derive(Serialize)]
@@ -139,6 +142,8 @@ struct Defaults {
     edge: crate::document::edge::EdgeDoc,
     edge_grid: crate::document::edge::EdgeGridDoc,
     edge_least_quantities: [defaults::LeastQuantity; 4],
+    /// The winter's least-thickness search, by unit system.
+    least_thickness: BTreeMap<&'static str, defaults::LeastRange>,
     ranges: crate::document::ranges::RangesDoc,
 }
 
@@ -164,6 +169,10 @@ fn defaults() -> Defaults {
         edge: defaults::edge(),
         edge_grid: defaults::edge_grid(),
         edge_least_quantities: defaults::EDGE_LEAST_QUANTITIES,
+        least_thickness: BTreeMap::from([
+            ("si", defaults::LEAST_THICKNESS_SI),
+            ("us", defaults::LEAST_THICKNESS_US),
+        ]),
         ranges: defaults::ranges(),
     }
 }
@@ -191,11 +200,15 @@ fn leave_out_nulls(catalogue: &JsValue) {
 /// Everything the page offers to choose from, with sources, the unit table and the defaults.
 #[wasm_bindgen]
 pub fn catalogue() -> JsValue {
-    let unit = |u: &crate::physics::units::UnitDef| UnitInfo {
-        symbol: u.symbol,
-        factor: u.factor,
-        offset: u.offset,
-        decimals: u.decimals,
+    let unit = |q: &Quantity, sys: UnitSystem| {
+        let u = q.unit(sys);
+        UnitInfo {
+            symbol: u.symbol,
+            factor: u.factor,
+            offset: u.offset,
+            decimals: u.decimals,
+            written: units::written(q, sys).id(),
+        }
     };
     let c = Catalogue {
         version: env!("CARGO_PKG_VERSION"),
@@ -298,8 +311,8 @@ pub fn catalogue() -> JsValue {
                 (
                     q.id,
                     QuantityInfo {
-                        si: unit(&q.si),
-                        us: unit(&q.us),
+                        si: unit(q, UnitSystem::Si),
+                        us: unit(q, UnitSystem::Us),
                     },
                 )
             })
@@ -309,4 +322,34 @@ pub fn catalogue() -> JsValue {
     let out = to_js(&c);
     leave_out_nulls(&out);
     out
+}
+
+/// A value of the unit table's quantity `quantity` (SI) written as the page shows it in
+/// `units` (`si`, `us`; see `units::write`): rounded up when `up` (a least value that must be
+/// enough), for an input box when `input`. An unknown quantity or system: the number as is.
+#[wasm_bindgen]
+pub fn write_value(quantity: &str, units: &str, si: f64, up: bool, input: bool) -> String {
+    let (Some(q), Some(sys)) = (units::quantity(quantity), UnitSystem::from_id(units)) else {
+        return si.to_string();
+    };
+    let rounding = if up {
+        units::Rounding::Up
+    } else {
+        units::Rounding::Nearest
+    };
+    let form = if input {
+        units::Form::Input
+    } else {
+        units::Form::Text
+    };
+    units::write(q, sys, si, rounding, form)
+}
+
+/// What was typed into an input of `quantity` shown in `units`, in SI (`units::read`: feet
+/// and inches as people type them); `undefined` when it does not read.
+#[wasm_bindgen]
+pub fn read_value(quantity: &str, units: &str, text: &str) -> Option<f64> {
+    let q = units::quantity(quantity)?;
+    let sys = UnitSystem::from_id(units)?;
+    units::read(q, sys, text)
 }

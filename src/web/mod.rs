@@ -19,7 +19,7 @@ pub mod ranges;
 mod shared;
 
 pub use benchmarks::{benchmark_edge_winter, benchmark_reference_year};
-pub use catalogue::catalogue;
+pub use catalogue::{catalogue, read_value, write_value};
 pub use edited::EditedScenario;
 pub use jobs::Job;
 pub use ranges::{ranges_base_value, RangesStudy};

@@ -8,7 +8,7 @@
 import { $, el, clear, focusField, jobChart } from './dom.js';
 import { core, coreDefault } from './core.js';
 import { state, flow, clone } from './state.js';
-import { badText, field, numField, fmtU, fmtUpU, fromDisplay, typedErrors, switchPart, showUnitSymbols, fieldGrid, fillBox } from './fields.js';
+import { badText, field, numField, fmtU, fmtUpU, aboutU, typedErrors, switchPart, showUnitSymbols, fieldGrid, fillBox } from './fields.js';
 import { materialFieldsOf } from './materials.js';
 import { describePath } from './messages.js';
 import { slicedRun, searchBox } from './jobs.js';
@@ -31,9 +31,13 @@ const defaultGrid = () => coreDefault('edge_grid');
 const leastQuantities = () => core.CAT.defaults.edge_least_quantities;
 const edgeQuantity = (id) => leastQuantities().find((x) => x.id === id) || leastQuantities()[0];
 // The search starts on the wing's width when there is a wing, else on the footing's depth.
+// Its range and step are the core's for the units shown (round in them: a wing in 6 in
+// steps, a footing in 2 in steps), so the values tried are round.
+const inUnits = (q) => (state.units === 'us' && q.us ? q.us : q);
 function defaultLeast(e) {
   const q = edgeQuantity(e && e.wing ? 'wing-width' : 'footing-depth');
-  return { quantity: q.id, min: q.min, max: q.max, resolution: q.resolution };
+  const r = inUnits(q);
+  return { quantity: q.id, min: r.min, max: r.max, resolution: r.resolution };
 }
 
 const EDGE_DEBOUNCE_MS = 400;
@@ -314,6 +318,7 @@ function leastDraft() {
   if (!edge.least) {
     if (e && e.least) edge.least = clone(e.least);
     else edge.least = defaultLeast(e);
+    edge.leastUntouched = e && e.least ? null : JSON.stringify(edge.least);
   }
   return edge.least;
 }
@@ -329,7 +334,7 @@ function renderLeastFields() {
     path: 'edge.least.quantity', label: 'Quantity to size', cls: 'wide',
     options: leastQuantities().map((x) => ({ value: x.id, text: x.name + (x.needs && e && !e[x.needs] ? ' (add that board first)' : '') })),
     get: () => d.quantity,
-    set: (v) => { const n = edgeQuantity(v); d.quantity = n.id; d.min = n.min; d.max = n.max; d.resolution = n.resolution; badText.delete(d); },
+    set: (v) => { const n = edgeQuantity(v); const r = inUnits(n); d.quantity = n.id; d.min = r.min; d.max = r.max; d.resolution = r.resolution; badText.delete(d); },
     after: redraw,
   }));
   box.append(
@@ -355,8 +360,10 @@ function renderLeastReport() {
     text = 'The least ' + name + ' that keeps frost at or above the footing base is ' + fmtUpU(q.quantity, r.value) +
       ' (with it, ' + at + ')' + (r.outcome === 'found' ? ', found to within ' + fmtU(q.quantity, r.resolution) + '.' : '; the search ran out of tries before narrowing it to ' + fmtU(q.quantity, r.resolution) + ', so a little less may do.');
     if (r.slope != null && Number.isFinite(r.slope) && r.slope < 0) {
-      const step = q.quantity === 'r_value' ? (state.units === 'us' ? fromDisplay('r_value', 1) : 0.1) : 0.05;
-      text += ' Sensitivity: just short of the answer, each ' + fmtU(q.quantity, step) + ' more lifts the frost by about ' + fmtU('depth', -r.slope * step) + '.';
+      // In US units the quantity's own round step (6 in of wing, 2 in of depth, R-1), the
+      // lift in inches or feet and inches.
+      const step = state.units === 'us' && q.us ? q.us.resolution : q.quantity === 'r_value' ? 0.1 : 0.05;
+      text += ' Sensitivity: just short of the answer, each ' + fmtU(q.quantity, step) + ' more lifts the frost by ' + aboutU('depth', -r.slope * step) + '.';
     }
     if (r.jump_m != null && r.jump_m > 0.02) {
       text += ' Across the answer the frost line jumps by ' + fmtU('depth', r.jump_m) + ' (the last frozen ground under the footing thaws at once), so the answer is sharp: allow a margin for a colder winter.';
@@ -410,11 +417,19 @@ export const edgeSection = section({
   setUp,
   render: renderEdge,
   owners: edgeOwners,
-  edited: () => search.stale(),
+  edited: () => search.edited(),
   run: (blocked) => edgeRun.schedule(blocked),
   showUnits() {
+    // A search set up by default and never edited nor run starts again from the round
+    // range of the new units.
+    const e = state.scenario.edge;
+    if (edge.least && JSON.stringify(edge.least) === edge.leastUntouched && e && !e.least) {
+      edge.least = null;
+      renderLeastFields();
+    }
     if (edgeRun.report) { renderEdgeReport(); drawEdge(); }
-    if (search.report) renderLeastReport();
+    // The answer in the new units, as fresh as it was.
+    search.show();
   },
   draw: drawEdge,
   drop: dropEdgeResult,

@@ -142,6 +142,7 @@ export function searchBox(o) {
   const s = {
     report: null, // the report of the search that finished last
     job: null, // the search under way
+    basis: null, // the scenario (JSON) it was started on
     gen: 0,
   };
   const part = (name) => $(o.id + '-' + name);
@@ -155,9 +156,21 @@ export function searchBox(o) {
       part('answer').classList.add('is-stale');
     }
   };
+  // The page recomputed: the search is out of date only if the scenario it ran on changed
+  // (compared as JSON, SI throughout; a change of units changes nothing in it).
+  s.edited = () => {
+    if (s.basis == null || JSON.stringify(state.scenario) !== s.basis) s.stale();
+  };
+  // The answer shown again (in other units): still marked out of date if it was.
+  s.show = () => {
+    if (!s.report) return;
+    o.render();
+    if ($(o.id).dataset.state === 'stale') part('answer').classList.add('is-stale');
+  };
   // Another scenario opened: no search, no answer.
   s.reset = () => {
     s.report = null;
+    s.basis = null;
     s.stale();
     $(o.id).dataset.state = 'idle';
     part('status').textContent = '';
@@ -210,6 +223,8 @@ export function searchBox(o) {
       return;
     }
     s.job = job;
+    // The scenario this search answers for (with the search kept into it).
+    s.basis = JSON.stringify(state.scenario);
     box.dataset.state = 'running';
     go.disabled = true;
     driveJob(job, {

@@ -3,7 +3,7 @@
 import { $, el, clear } from './dom.js';
 import { core } from './core.js';
 import { state } from './state.js';
-import { unit, fmtInput } from './fields.js';
+import { unit, fmtInputU } from './fields.js';
 
 export function clearMessages() {
   for (const m of document.querySelectorAll('.field-msg')) clear(m);
@@ -48,7 +48,7 @@ function inShownUnits(input, message, err) {
   if (!q || !(core.CAT.units && core.CAT.units[q])) return message;
   const u = unit(q);
   if (u.factor === 1 && u.offset === 0) return message;
-  const show = (v) => fmtInput(q, v) + (u.symbol ? '\u00a0' + u.symbol : '');
+  const show = (v) => fmtInputU(q, v);
   if (err && err.value != null) {
     switch (err.kind) {
       case 'out_of_bounds':
@@ -66,7 +66,7 @@ function inShownUnits(input, message, err) {
   }
   return message.replace(/\(got (-?\d+(?:\.\d+)?(?:e[+-]?\d+)?)\)/i, (all, num) => {
     const v = Number(num);
-    return Number.isFinite(v) ? '(got ' + fmtInput(q, v) + (u.symbol ? '\u00a0' + u.symbol : '') + ')' : all;
+    return Number.isFinite(v) ? '(got ' + fmtInputU(q, v) + ')' : all;
   });
 }
 

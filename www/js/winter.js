@@ -7,7 +7,7 @@
 import { $, el, clear, focusField, jobChart } from './dom.js';
 import { core, coreDefault } from './core.js';
 import { state, flow, clone } from './state.js';
-import { field, numField, fmt, fmtU, fmtUpU, fmtNum, headCell, typedErrors, switchPart, showUnitSymbols } from './fields.js';
+import { field, numField, fmt, fmtU, fmtUpU, fmtNum, aboutU, headCell, typedErrors, switchPart, showUnitSymbols } from './fields.js';
 import { describePath, fieldLabel } from './messages.js';
 import { slicedRun, searchBox } from './jobs.js';
 import { download, fileStem } from './downloads.js';
@@ -20,12 +20,16 @@ const defaultInitial = (kind) => coreDefault('initials', kind);
 const defaultWinter = () => coreDefault('winter');
 // The core's default grid, shown until changed.
 const defaultGrid = () => coreDefault('winter_grid');
-// The least-thickness search: the first insulation layer, frost kept above its bottom.
+// The least-thickness search: the first insulation layer, frost kept above its bottom; the
+// range and step the core gives for the units shown (round in them: 2 mm steps, or 1/2 in),
+// so the thicknesses tried are round. A unit switch later leaves the search as it is.
+const leastRange = () => core.CAT.defaults.least_thickness[state.units] || core.CAT.defaults.least_thickness.si;
 function defaultLeast() {
   const L = state.scenario.layers;
   let i = L.findIndex((l) => l.material && l.material.kind === 'insulation');
   if (i < 0) i = 0;
-  return { layer: i, keep_frost_above: { kind: 'layer-bottom', layer: i }, min_m: 0, max_m: 0.3, resolution_m: 0.002 };
+  const r = leastRange();
+  return { layer: i, keep_frost_above: { kind: 'layer-bottom', layer: i }, min_m: r.min, max_m: r.max, resolution_m: r.resolution };
 }
 
 const WINTER_DEBOUNCE_MS = 200;
@@ -162,7 +166,10 @@ function layersMoved(map) {
 
 function leastDraft() {
   const w = state.scenario.winter;
-  if (!winter.least) winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
+  if (!winter.least) {
+    winter.least = w && w.least_thickness ? JSON.parse(JSON.stringify(w.least_thickness)) : defaultLeast();
+    winter.leastUntouched = w && w.least_thickness ? null : JSON.stringify(winter.least);
+  }
   const d = winter.least;
   const n = state.scenario.layers.length;
   if (d.layer >= n) d.layer = n - 1;
@@ -218,7 +225,10 @@ function renderLeastReport() {
     text = 'At least ' + fmtUpU('thickness', r.thickness_m) + ' of ' + name + (r.r_value_m2k_w != null ? ' (R-value ' + fmtUpU('r_value', r.r_value_m2k_w) + ' as derated)' : '') + ' keeps the deepest frost ' + limitWords +
       (r.frost_depth_m > 0 ? ' (with it, frost reaches ' + fmtU('depth', r.frost_depth_m) + ')' : ' (with it, the ground below does not freeze)') + ', found to within ' + fmtU('thickness', r.resolution_m) + '.';
     if (r.slope != null && r.slope < 0) {
-      text += ' Near the answer each extra ' + fmtU('thickness', 0.01) + ' lifts the frost by about ' + fmtU('depth', -r.slope * 0.01) + '.';
+      // In US units a step a builder buys (1/2 in of board) and the lift in inches or feet
+      // and inches; in SI 1 cm and the lift in m.
+      const extra = state.units === 'us' ? core.CAT.defaults.least_thickness.us.resolution : 0.01;
+      text += ' Near the answer each extra ' + fmtU('thickness', extra) + ' of ' + name + ' lifts the frost by ' + aboutU('depth', -r.slope * extra) + '.';
     } else if (r.frost_depth_m === 0) {
       text += ' From this thickness on the ground below does not freeze at all, so the answer is sharp: a little less lets frost in.';
     }
@@ -357,10 +367,18 @@ export const winterSection = section({
   setUp,
   render: renderWinter,
   owners: winterOwners,
-  edited: () => search.stale(),
+  edited: () => search.edited(),
   run: runOrWait,
   showUnits() {
+    // A search set up by default and never edited nor run starts again from the round
+    // range of the new units (one that was edited or run is kept as it is).
+    if (winter.least && JSON.stringify(winter.least) === winter.leastUntouched && state.scenario.winter && !state.scenario.winter.least_thickness) {
+      winter.least = null;
+      renderLeastFields();
+    }
     if (winterRun.report) { renderWinterReport(); drawWinter(); }
+    // The search's answer in the new units; a change of units leaves it as fresh as it was.
+    search.show();
   },
   draw: drawWinter,
   drop: () => winterRun.drop(),

@@ -519,7 +519,9 @@ impl EdgeLeastSearch {
                 failing.sort_by(|a, b| b.value.total_cmp(&a.value));
                 let fail = failing.first().map_or(f64::NEG_INFINITY, |t| t.value);
                 let below = frost_depth_m - limit_m;
-                let outcome = if *value - fail > self.resolution {
+                // Neighbours on the search's grid (lo + k·resolution) may differ by the
+                // resolution and a rounding error.
+                let outcome = if *value - fail > self.resolution * (1.0 + 1e-9) {
                     EdgeOutcome::RunLimit
                 } else {
                     EdgeOutcome::Found
