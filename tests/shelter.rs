@@ -1018,3 +1018,65 @@ fn pile_bands_integrate_the_shell() {
     );
     assert!(rel(bands, integral) < 2e-3);
 }
+
+/// The shelter's steady panel: its main wall laid flat, one square metre, between the
+/// shelter's own outside air and the steady air inside. Checked against the plane wall with
+/// convection on both sides, R = 1/h_o + t/k + 1/h_i and q = (T_i − T_o)/R (Incropera &
+/// DeWitt), each part from its published formula worked here: k of 300 kg/m³ snow by Sturm
+/// et al. 1997 (k = 0.138 − 1.010 ρ + 3.233 ρ², ρ in g/cm³), h_o by the ISO 6946 Annex A
+/// form 4 + 4v + 4σT³ (from memory), h_i = 7 W/(m²·K) as entered. Tolerance 1e-9: the same
+/// formulas, round-off only. A colder outside air moves it; a cave with no face to the
+/// outside air has none.
+#[test]
+fn the_flat_wall_takes_the_shelters_own_outside_air() {
+    let sh = dome();
+    let rho = 0.300;
+    let k = 0.138 - 1.010 * rho + 3.233 * rho * rho;
+    let sigma = 5.670_374_419e-8;
+    let mut last = None;
+    for outside_c in [-10.0, -30.0] {
+        let co = Conditions {
+            outside_c,
+            wind_m_s: 3.0,
+            ..one_sleeper()
+        };
+        let r = steady(&sh, &co).unwrap();
+        let w = flat_wall(&sh, &r).expect("a dome has a wall");
+        let t = outside_c + 273.15;
+        let h_o = 4.0 + 4.0 * 3.0 + 4.0 * sigma * t * t * t;
+        let r_expected = 1.0 / h_o + 0.4 / k + 1.0 / 7.0;
+        assert!(
+            rel(w.r_m2k_w, r_expected) < 1e-9,
+            "{} against {r_expected}",
+            w.r_m2k_w
+        );
+        assert_eq!(w.outside_c, outside_c);
+        assert_eq!(w.inside_c, r.interior_c);
+        let q = (r.interior_c - outside_c) / r_expected;
+        assert!(
+            rel(w.heat_flux_w_m2, q) < 1e-9,
+            "{} against {q}",
+            w.heat_flux_w_m2
+        );
+        assert!(
+            w.heat_flux_w_m2 > 0.0,
+            "heat leaves a shelter with a person in it"
+        );
+        if let Some(warmer) = last {
+            assert!(
+                w.heat_flux_w_m2 > warmer,
+                "colder outside air draws more heat through the wall"
+            );
+        }
+        last = Some(w.heat_flux_w_m2);
+    }
+    let cave = Shelter {
+        shape: Shape::DriftCave {
+            inner_radius_m: 1.0,
+            exposed_face: None,
+        },
+        ..dome()
+    };
+    let r = steady(&cave, &one_sleeper()).unwrap();
+    assert!(flat_wall(&cave, &r).is_none());
+}

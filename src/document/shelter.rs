@@ -13,7 +13,9 @@
 //! refused (field `shelter`). A shelter document still carries a stack: the bundled shelter
 //! examples use it for one square metre of the wall laid flat (outside air to air at 0 °C),
 //! so the steady panels show the wall's R-value. This keeps one document shape for every
-//! face (page, CLI, file open and save) and no switch of kinds.
+//! face (page, CLI, file open and save) and no switch of kinds. Those panels take the
+//! stack's own faces; the shelter's own steady panel, its main wall laid flat
+//! (`flat_wall` in the report), takes the shelter's outside air and wind.
 //!
 //! ```json
 //! "shelter": {
@@ -57,7 +59,8 @@
 //! surface (area, temperature, melting), gains, losses by path (walls and roof, floor,
 //! vent, doorway, melting snow: W and share of the heat given off; they add up to it,
 //! tested), vent and doorway flow, CO₂ ppm (null without air exchange) and the 5000 ppm
-//! limit, the lining comparison, the band (coldest, warmest, each regression), the night
+//! limit, the main wall laid flat at the shelter's outside air ([`FlatWallDoc`]; null for a
+//! cave with no face to the outside air), the lining comparison, the band (coldest, warmest, each regression), the night
 //! (samples every 10 minutes with every surface, warm-up and target times, melted kg,
 //! energy imbalance), the least wall (`reached`, `thinnest-suffices`, `not-reachable` with
 //! `melt-limit` or `other-losses`, `no-thickness-to-choose`; a plain message in SI, which
@@ -625,6 +628,17 @@ pub struct LossDoc {
     pub share: f64,
 }
 
+/// The main wall laid flat, one square metre, between the shelter's own outside air and the
+/// steady air inside ([`shelter::flat_wall`]): what the shelter's steady panel shows.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct FlatWallDoc {
+    pub thickness_m: f64,
+    pub r_m2k_w: f64,
+    pub heat_flux_w_m2: f64,
+    pub outside_c: f64,
+    pub inside_c: f64,
+}
+
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LiningDoc {
     #[serde(rename = "lining_m2k_per_w")]
@@ -769,6 +783,9 @@ pub struct ShelterReport {
     #[serde(rename = "snow_correlation")]
     pub snow_regression: &'static str,
     pub outside_film_w_m2k: f64,
+    /// The main wall laid flat at the shelter's outside air; null for a cave with no face
+    /// to the outside air.
+    pub flat_wall: Option<FlatWallDoc>,
     pub with_lining: Option<LiningDoc>,
     pub band: ShelterBandDoc,
     pub night: NightReportDoc,
@@ -1067,6 +1084,13 @@ pub fn run_shelter(doc: &ShelterDoc) -> Result<ShelterReport, InputErrors> {
         snow_conductivity_w_m_k: r.snow_conductivity_w_m_k,
         snow_regression: r.snow_regression.id(),
         outside_film_w_m2k: r.outside_film_w_m2k,
+        flat_wall: shelter::flat_wall(&sh, &r).map(|w| FlatWallDoc {
+            thickness_m: w.thickness_m,
+            r_m2k_w: w.r_m2k_w,
+            heat_flux_w_m2: w.heat_flux_w_m2,
+            outside_c: w.outside_c,
+            inside_c: w.inside_c,
+        }),
         with_lining: r.with_lining.map(|l| LiningDoc {
             lining_m2k_w: l.lining_m2k_w,
             interior_c: l.interior_c,

@@ -41,7 +41,8 @@ export const msWords = (ms) => (ms < 1000 ? Math.round(ms) + ' ms' : (ms / 1000)
 // `report` and draws from `job`) }.
 //
 // `#<results>` carries data-state (idle, pending, running, done, stale) and, for the
-// tests, data-runs, data-outcomes and data-ms.
+// tests, data-runs, data-outcomes and data-ms; `changed(state)`, if given, hears each
+// change of it (after render() for done).
 export function slicedRun(o) {
   const r = {
     job: null, // the job that finished last (drawn from), or null
@@ -50,6 +51,7 @@ export function slicedRun(o) {
     generation: 0, // a newer generation cancels the run under way
     timer: 0,
   };
+  const changed = (st) => { if (o.changed) o.changed(st); };
   r.cancel = () => {
     clearTimeout(r.timer);
     r.generation++;
@@ -63,15 +65,17 @@ export function slicedRun(o) {
       res.dataset.state = 'stale';
       res.dataset.outcomes = String(Number(res.dataset.outcomes || 0) + 1);
       $(o.status).textContent = why || 'Out of date: fix the marked inputs.';
+      changed('stale');
     }
   };
   // Its part of the recompute: a run a little later, or, `blocked`, results out of date.
   r.schedule = (blocked) => {
     r.cancel();
     const res = $(o.results);
-    if (!state.scenario[o.key]) { res.dataset.state = 'idle'; return; }
+    if (!state.scenario[o.key]) { res.dataset.state = 'idle'; changed('idle'); return; }
     if (blocked) { r.stale(true); return; }
     res.dataset.state = 'pending';
+    changed('pending');
     r.timer = setTimeout(start, o.delayMs);
   };
   // The section is gone or another scenario opened: no run, no results.
@@ -104,6 +108,7 @@ export function slicedRun(o) {
     }
     r.running = job;
     res.dataset.state = 'running';
+    changed('running');
     driveJob(job, {
       bar: o.bar, status: o.status, busy: o.busy,
       live: () => gen === r.generation,
@@ -125,6 +130,7 @@ export function slicedRun(o) {
         res.dataset.ms = String(Math.round(ms));
         $(o.status).textContent = 'Done in ' + msWords(ms) + '.';
         o.render();
+        changed('done');
       },
     });
   }

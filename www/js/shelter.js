@@ -292,6 +292,15 @@ function renderShelterReport() {
       (r.with_lining.melt_kg_per_h > 0 ? ', with ' + fmtU('mass_rate', r.with_lining.melt_kg_per_h) + ' still melting.' : ' with the snow behind it frozen.');
   } else lin.hidden = true;
 
+  // the main wall laid flat, at the shelter's own outside air
+  const fw = r.flat_wall;
+  $('s-flat-wall').hidden = !fw;
+  if (fw) {
+    $('s-flat-what').textContent = fmtU('thickness', fw.thickness_m) + ' of snow between the ' + fmtU('temperature', fw.outside_c) + ' outside air and the ' + fmtU('temperature', fw.inside_c) + ' air inside:';
+    $('s-flat-r').textContent = fmtU('r_value', fw.r_m2k_w);
+    $('s-flat-q').textContent = fmtU('heat_flux', fw.heat_flux_w_m2);
+  }
+
   // losses
   const lt = $('s-losses');
   clear(lt.tHead); clear(lt.tBodies[0]);

@@ -1,5 +1,5 @@
 // The steady stack: the scenario's title and notes, the layer list, the two faces, the
-// steady compute, its report (R-value, heat flow, the freezing plane, surface temperatures,
+// steady compute, its report (R-value, heat flow, the steady 0 °C plane, surface temperatures,
 // the snow regression band, per-layer tables, warnings) and the temperature profile chart.
 import { $, el, clear, idFor, jobChart } from './dom.js';
 import { core } from './core.js';
@@ -267,18 +267,17 @@ function renderStackReport() {
     : q > 0 ? 'Heat flows from the top face down to the bottom face.'
       : 'Heat flows from the bottom face up to the top face.';
 
-  // 0 °C planes
+  // 0 °C planes of the steady state (shown small: a frost depth needs a winter, which the
+  // headline card above them gives)
   const zp = rep.zero_planes || [];
   const zd = $('zero-depth');
   const zdet = $('zero-detail');
   if (!zp.length) {
     zd.textContent = 'No ' + freezeT() + ' plane in the stack';
-    zd.classList.add('small');
     const temps = [rep.top.surface_c, rep.bottom.surface_c];
     zdet.textContent = temps.every((t) => t < 0) ? 'Every layer is below ' + freezeT() + '.'
       : temps.every((t) => t > 0) ? 'Every layer is above ' + freezeT() + '.' : '';
   } else {
-    zd.classList.remove('small');
     zd.textContent = zp.map((z) => fmtU('depth', z.depth_m)).join(', ');
     zdet.textContent = zp.map((z) => {
       const L = rep.layers[z.layer];

@@ -14,6 +14,7 @@ import { download, fileStem } from './downloads.js';
 import { section } from './section.js';
 import { climateEditor, snowEditor, surfaceEditor, bottomEditor, dayWords } from './weather.js';
 import { setUpImport, renderClimateSummary, forgetChosenFile } from './climate-import.js';
+import { showFrostHeadline, setUpFrostHeadline } from './headline.js';
 
 // ---------- a new winter section and its parts (the core's defaults) ----------
 const defaultInitial = (kind) => coreDefault('initials', kind);
@@ -47,6 +48,7 @@ const winterRun = slicedRun({
   make: () => core.doc.start('winter'),
   describe: describeWinterPath,
   render: () => { renderWinterReport(); drawWinter(); },
+  changed: headline,
 });
 
 const search = searchBox({
@@ -277,26 +279,40 @@ function layerAt(depth, rep) {
   return f.length - 2;
 }
 
+// The deepest frost of a report in words, { value, when }: shown in #w-max-frost and, the
+// same text, in the first screen's headline.
+function frostWords(rep) {
+  const mf = rep.max_frost_depth_m;
+  // Frost that reached the bottom of the modelled ground is a lower bound, never a depth.
+  const value = mf > 0 ? (rep.frost_at_bottom ? 'at least ' : '') + fmtU('depth', mf) : 'None';
+  if (rep.frost_at_bottom) return { value, when: 'The bottom of the modelled ground: frost may go deeper (see the warning in the winter section).' };
+  if (!(mf > 0)) return { value, when: 'The ground does not freeze in this run.' };
+  const given = rep.layer_faces_m[rep.layer_faces_m.length - 1];
+  const i = layerAt(mf, rep);
+  const where = mf > given + 1e-9
+    ? 'in the ground added below the layers (' + rep.layer_names[i] + ' continued)'
+    : 'in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ')';
+  return {
+    value,
+    when: 'On ' + winterDay(rep.max_frost_day) + ', ' + where + '.' +
+      (rep.frozen_all_year ? ' Not a seasonal frost depth: some ground stayed frozen all year (see the warning in the winter section).' : ''),
+  };
+}
+
+// The first screen's headline follows the run: its answer once done, else what it waits for.
+function headline(st) {
+  if (!state.scenario.winter) showFrostHeadline({ state: 'no-winter' });
+  else if (st === 'done' && winterRun.report) showFrostHeadline(Object.assign({ state: 'done' }, frostWords(winterRun.report)));
+  else showFrostHeadline({ state: st === 'stale' ? 'stale' : 'running' });
+}
+
 function renderWinterReport() {
   const rep = winterRun.report;
   if (!rep) return;
-  const mf = rep.max_frost_depth_m;
-  // Frost that reached the bottom of the modelled ground is a lower bound, never a depth.
-  $('w-max-frost').textContent = mf > 0 ? (rep.frost_at_bottom ? 'at least ' : '') + fmtU('depth', mf) : 'None';
+  const words = frostWords(rep);
+  $('w-max-frost').textContent = words.value;
   $('w-max-frost').dataset.bound = rep.frost_at_bottom ? 'at-least' : '';
-  if (rep.frost_at_bottom) {
-    $('w-max-frost-when').textContent = 'The bottom of the modelled ground: frost may go deeper (see the warning below).';
-  } else if (mf > 0) {
-    const given = rep.layer_faces_m[rep.layer_faces_m.length - 1];
-    const i = layerAt(mf, rep);
-    const where = mf > given + 1e-9
-      ? 'in the ground added below the layers (' + rep.layer_names[i] + ' continued)'
-      : 'in layer ' + (i + 1) + ' (' + rep.layer_names[i] + ')';
-    $('w-max-frost-when').textContent = 'On ' + winterDay(rep.max_frost_day) + ', ' + where + '.' +
-      (rep.frozen_all_year ? ' Not a seasonal frost depth: some ground stayed frozen all year (see the warning below).' : '');
-  } else {
-    $('w-max-frost-when').textContent = 'The ground does not freeze in this run.';
-  }
+  $('w-max-frost-when').textContent = words.when;
   $('w-air-fi').textContent = fmtU('degree_days', rep.air_freezing_index_c_days);
   $('w-surf-fi').textContent = fmtU('degree_days', rep.surface_freezing_index_c_days);
   const ratio = rep.air_freezing_index_c_days > 0 ? rep.surface_freezing_index_c_days / rep.air_freezing_index_c_days : null;
@@ -346,6 +362,7 @@ function drawWinter() {
 }
 
 function setUp() {
+  setUpFrostHeadline();
   $('w-design-go').addEventListener('click', search.start);
   setUpImport(winter, () => { renderWinter(); flow.run(); });
   $('w-day').addEventListener('input', (e) => {
@@ -379,6 +396,7 @@ export const winterSection = section({
     if (winterRun.report) { renderWinterReport(); drawWinter(); }
     // The search's answer in the new units; a change of units leaves it as fresh as it was.
     search.show();
+    if (winterRun.report && $('winter-results').dataset.state === 'done') headline('done');
   },
   draw: drawWinter,
   drop: () => winterRun.drop(),

@@ -57,4 +57,4 @@ pub use least::{
 };
 pub use model::{Model, Zone};
 pub use night::{night, NightResult, NightSettings, RadialWall, WallGeometry};
-pub use steady::{regression_band, steady, Band, BandEntry, SteadyResult};
+pub use steady::{flat_wall, regression_band, steady, Band, BandEntry, FlatWall, SteadyResult};

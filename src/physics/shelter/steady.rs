@@ -366,3 +366,40 @@ pub fn regression_band(shelter: &Shelter, conditions: &Conditions) -> Result<Ban
         warmest,
     })
 }
+
+/// One square metre of a shelter's main wall laid flat (see [`FlatWall`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct FlatWall {
+    /// The main thickness ([`super::inputs::Shape::main_thickness_m`]), m.
+    pub thickness_m: f64,
+    /// Air to air: outside film, snow and inside film in series, m²K/W.
+    pub r_m2k_w: f64,
+    /// Heat through it from the air inside to the outside air, W/m² (positive outwards).
+    pub heat_flux_w_m2: f64,
+    /// The shelter's outside air, °C.
+    pub outside_c: f64,
+    /// The steady air inside, °C.
+    pub inside_c: f64,
+}
+
+/// The shelter's main wall laid flat, per square metre, between the shelter's own outside
+/// air (through the outside film of its wind) and the steady air inside `r` gives (through
+/// the inside film): a plane wall of resistances in series, R = 1/h_o + t/k + 1/h_i, and
+/// q = (T_i − T_o)/R (Incropera & DeWitt, the plane wall with convection on both sides).
+/// It leaves out the curvature the zones carry (a shell conducts less per inner square
+/// metre than a flat wall of the same thickness) and the melt limit (a flux whose inner
+/// surface would pass 0 °C is shown as the formula gives it). `None` for a cave with no
+/// face to the outside air, which has no such wall.
+pub fn flat_wall(shelter: &Shelter, r: &SteadyResult) -> Option<FlatWall> {
+    let t = shelter.shape.main_thickness_m()?;
+    let r_m2k_w = 1.0 / r.outside_film_w_m2k
+        + t / r.snow_conductivity_w_m_k
+        + 1.0 / shelter.inside_film_w_m2k;
+    Some(FlatWall {
+        thickness_m: t,
+        r_m2k_w,
+        heat_flux_w_m2: (r.interior_c - r.outside_c) / r_m2k_w,
+        outside_c: r.outside_c,
+        inside_c: r.interior_c,
+    })
+}
